@@ -1,0 +1,87 @@
+"""plyshear: the shear in every plane of a bolt or pin through a stack of plies.
+
+The stable Python API::
+
+    import plyshear
+    joint = plyshear.load_model("models/x.toml")   # raises plyshear.ModelError
+    sol = plyshear.solve(joint)                    # linear solution
+    sol.to_dict()                                  # the JSON result
+
+Imports are lazy so that ``plyshear --help`` starts without loading scipy.
+"""
+
+from __future__ import annotations
+
+import os
+from typing import TYPE_CHECKING, Any
+
+__version__ = "0.1.0"
+
+if TYPE_CHECKING:
+    from plyshear.mechanics.results import Solution
+    from plyshear.model.joint import Joint
+
+__all__ = [
+    "Joint",
+    "ModelError",
+    "SolveError",
+    "__version__",
+    "load_model",
+    "solve",
+]
+
+_LAZY = {
+    "Joint": ("plyshear.model.joint", "Joint"),
+    "Bolt": ("plyshear.model.joint", "Bolt"),
+    "Ply": ("plyshear.model.joint", "Ply"),
+    "Member": ("plyshear.model.joint", "Member"),
+    "ModelError": ("plyshear.model.modelfile", "ModelError"),
+    "SolveError": ("plyshear.mechanics.solve", "SolveError"),
+}
+
+
+def __getattr__(name: str) -> Any:
+    if name in _LAZY:
+        import importlib
+
+        module, attr = _LAZY[name]
+        return getattr(importlib.import_module(module), attr)
+    raise AttributeError(f"module 'plyshear' has no attribute {name!r}")
+
+
+def load_model(path: str | os.PathLike[str]) -> Joint:
+    """Read, validate and load-path-check a model file.
+
+    Args:
+        path: The TOML model file.
+
+    Returns:
+        The joint, in N, mm, MPa.
+
+    Raises:
+        ModelError: For bad input or a joint that is a mechanism.
+    """
+    from plyshear.mechanics.loadpath import require_load_path
+    from plyshear.model import modelfile
+
+    joint = modelfile.load(path)
+    require_load_path(joint)
+    return joint
+
+
+def solve(joint: Joint) -> Solution:
+    """Solve the plane shears, bolt moments and ply bearings of ``joint``.
+
+    Args:
+        joint: The joint.
+
+    Returns:
+        The linear solution.
+
+    Raises:
+        ModelError: If the joint is a mechanism.
+        SolveError: If the system cannot be solved.
+    """
+    from plyshear.mechanics.solve import solve as _solve
+
+    return _solve(joint)

@@ -1,0 +1,164 @@
+"""The ``plyshear`` command line: read arguments, call the API, print or write.
+
+Bad input ends in one line ``error: FILE: key: message`` and exit code 2; no
+traceback. Files are never overwritten without ``--force`` and are written
+through a temporary file renamed into place.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import sys
+import tempfile
+from collections.abc import Callable
+from pathlib import Path
+from typing import Any, NoReturn
+
+import click
+
+EXIT_BAD_INPUT = 2
+FIGURE_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
+
+
+def fail(message: str) -> NoReturn:
+    """Print one error line and exit with code 2."""
+    click.echo(f"error: {message}", err=True)
+    sys.exit(EXIT_BAD_INPUT)
+
+
+def write_atomic(path: Path, data: bytes, force: bool) -> None:
+    """Write ``data`` to ``path`` through a temporary file renamed into place.
+
+    Args:
+        path: The target file.
+        data: The bytes to write.
+        force: Replace an existing file.
+    """
+    if path.exists() and not force:
+        fail(f"{path}: exists; use --force to replace it")
+    directory = path.parent if str(path.parent) else Path(".")
+    if not directory.is_dir():
+        fail(f"{path}: folder {directory} does not exist")
+    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    try:
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(tmp, 0o666 & ~umask)
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(data)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.replace(tmp, path)
+    except BaseException:
+        Path(tmp).unlink(missing_ok=True)
+        raise
+
+
+def _guard(func: Callable[[], Any]) -> Any:
+    """Run ``func`` and turn model errors into the one-line error."""
+    from plyshear.model.modelfile import ModelError
+
+    try:
+        return func()
+    except ModelError as exc:
+        fail(str(exc))
+
+
+def _load(path: str) -> Any:
+    import plyshear
+
+    return _guard(lambda: plyshear.load_model(path))
+
+
+def _solve(joint: Any) -> Any:
+    import plyshear
+    from plyshear.mechanics.solve import SolveError
+
+    try:
+        return _guard(lambda: plyshear.solve(joint))
+    except SolveError as exc:
+        fail(f"{joint.source}: {exc}")
+
+
+def _plot_target(plot: str | None) -> tuple[Path, str] | None:
+    if plot is None:
+        return None
+    path = Path(plot)
+    fmt = FIGURE_FORMATS.get(path.suffix.lower())
+    if fmt is None:
+        fail(f"{plot}: --plot needs a .png, .svg or .pdf file name")
+    return path, fmt
+
+
+def _write_plot(sol: Any, target: tuple[Path, str], force: bool) -> None:
+    from plyshear.report import diagrams
+
+    fig = diagrams.solution_figure(sol)
+    write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
+    click.echo(f"figure written to {target[0]}", err=True)
+
+
+@click.group(context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(package_name="plyshear")
+def main() -> None:
+    """Shear in every plane of a bolt or pin through a stack of plies.
+
+    Results support, and never replace, the judgement of a licensed engineer
+    and the governing local code.
+    """
+
+
+@main.command("solve")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
+@click.option("--plot", type=click.Path(dir_okay=False), default=None,
+              help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
+    """Solve the shear in every plane of MODEL (a TOML model file)."""
+    target = _plot_target(plot)
+    joint = _load(model)
+    sol = _solve(joint)
+    if as_json:
+        click.echo(json.dumps(sol.to_dict(), indent=2))
+    else:
+        from plyshear.report.text import solution_text
+
+        click.echo(solution_text(sol))
+    if target is not None:
+        _write_plot(sol, target, force)
+
+
+@main.command("demo")
+@click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
+def demo_cmd(as_json: bool) -> None:
+    """Solve a packaged example: a three-leg fork pinned to a two-plate lug."""
+    from importlib import resources
+
+    ref = resources.files("plyshear") / "models" / DEMO_MODEL
+    with resources.as_file(ref) as path:
+        joint = _load(str(path))
+    joint = _with_source(joint, f"(demo) {DEMO_MODEL}")
+    sol = _solve(joint)
+    if as_json:
+        click.echo(json.dumps(sol.to_dict(), indent=2))
+        return
+    from plyshear.report.text import solution_text
+
+    click.echo(solution_text(sol))
+    click.echo(f"\nThe model file is {DEMO_MODEL} among the examples shipped with plyshear "
+               "(models/ in the source tree); try `plyshear solve models/<file>.toml`.")
+
+
+DEMO_MODEL = "fork-four-planes.toml"
+
+
+def _with_source(joint: Any, source: str) -> Any:
+    import dataclasses
+
+    return dataclasses.replace(joint, source=source)
+
+
+if __name__ == "__main__":  # pragma: no cover
+    main()

@@ -1,0 +1,286 @@
+"""Mesh, degree-of-freedom numbering and the global system of one bolt.
+
+The bolt is meshed along z with nodes on every ply face, every thread start and
+the middle of every gap. Unknowns:
+
+* bolt DOFs ``(w, θ)`` per node, in z order;
+* a ply's own displacement, for fillers and elastically linked plies, numbered
+  right after the last node of its ply, so it couples to a contiguous stretch;
+* one displacement per free (not supported) member, numbered last.
+
+The first two groups form a banded symmetric block ``A``; the member DOFs form a
+small border (``B``, ``C``). A rigidly linked ply shares its member's DOF;
+supported members have zero displacement and are not unknowns. For linear laws
+the x and y directions use the same matrix.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from plyshear.mechanics import beam, bearing
+from plyshear.model.joint import Joint
+
+FIXED = -1  # DOF index of a displacement held at zero
+
+
+@dataclass(frozen=True)
+class Mesh:
+    """The bolt mesh.
+
+    Attributes:
+        z: Node coordinates, mm, shape (nn,).
+        ply: Ply index (0-based) of each element, −1 in gaps, shape (ne,).
+        threaded: Whether each element lies in the threaded length.
+        plane_nodes: Node index of each shear plane (between consecutive plies).
+    """
+
+    z: np.ndarray
+    ply: np.ndarray
+    threaded: np.ndarray
+    plane_nodes: np.ndarray
+
+    @property
+    def lengths(self) -> np.ndarray:
+        """Element lengths, mm."""
+        return np.diff(self.z)
+
+
+def build_mesh(joint: Joint) -> Mesh:
+    """Mesh the bolt through the stack of ``joint``."""
+    n = joint.analysis.elements_per_ply
+    starts = joint.ply_starts()
+    bolt = joint.bolt
+    thread_z = bolt.thread_start if bolt.threads == "auto" else None
+    pieces: list[np.ndarray] = []
+    plies: list[np.ndarray] = []
+    plane_at: list[float] = []
+    prev_end = 0.0
+    for j, ply in enumerate(joint.plies):
+        z0, z1 = float(starts[j]), float(starts[j] + ply.thickness)
+        if ply.gap > 0:
+            m = 2 * ((n + 1) // 2)  # even, so the middle of the gap is a node
+            seg = _segment(prev_end, z0, m, thread_z)
+            pieces.append(seg[:-1])
+            plies.append(np.full(seg.size - 1, -1))
+            if j > 0:
+                plane_at.append(0.5 * (prev_end + z0))
+        elif j > 0:
+            plane_at.append(z0)
+        seg = _segment(z0, z1, n, thread_z)
+        pieces.append(seg[:-1])
+        plies.append(np.full(seg.size - 1, j))
+        prev_end = z1
+    z = np.concatenate([*pieces, [prev_end]])
+    ply_of = np.concatenate(plies)
+    mid = 0.5 * (z[:-1] + z[1:])
+    threaded = np.array([bolt.threaded_at(float(zm)) for zm in mid]) if thread_z is not None \
+        else np.full(mid.size, bolt.threaded_at(0.0))
+    plane_nodes = np.array([int(np.argmin(np.abs(z - zp))) for zp in plane_at], dtype=int)
+    return Mesh(z=z, ply=ply_of, threaded=threaded, plane_nodes=plane_nodes)
+
+
+def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
+    """Return n equal elements on [a, b] (nodes), split at ``split`` if it is inside."""
+    if split is not None and a + 1e-9 < split < b - 1e-9:
+        frac = (split - a) / (b - a)
+        n1 = max(1, int(np.ceil(n * frac)))
+        n2 = max(1, int(np.ceil(n * (1 - frac))))
+        return np.concatenate([np.linspace(a, split, n1 + 1)[:-1], np.linspace(split, b, n2 + 1)])
+    return np.linspace(a, b, n + 1)
+
+
+@dataclass(frozen=True)
+class System:
+    """The assembled linear system of one bolt.
+
+    Attributes:
+        mesh: The mesh.
+        ab: Upper banded storage of block ``A`` (bolt and own ply DOFs),
+            shape (bw + 1, nA), for :func:`scipy.linalg.cholesky_banded`.
+        B: Coupling of ``A`` DOFs to the free member DOFs, shape (nA, nm).
+        C: Member–member block, shape (nm, nm).
+        loads: Member loads, shape (nm, 2) (x and y).
+        bolt_dof: Index into ``A`` of (w, θ) per node, FIXED where restrained,
+            shape (nn, 2).
+        target: For each ply, ("a", i) its own DOF in A, ("m", i) a free member
+            DOF, or ("0", −1) a supported member.
+        member_dof: Free-member DOF index per member, FIXED for supported ones.
+        link_dof: For each elastically linked ply, (member DOF or FIXED).
+        k: Foundation modulus per ply, MPa.
+        EI, phi: Section bending stiffness and Φ per element.
+        kbb, kbu, kel: Element foundation and beam matrices, kept for results.
+    """
+
+    mesh: Mesh
+    ab: np.ndarray
+    B: np.ndarray
+    C: np.ndarray
+    loads: np.ndarray
+    bolt_dof: np.ndarray
+    target: tuple[tuple[str, int], ...]
+    member_dof: np.ndarray
+    link_dof: np.ndarray
+    k: np.ndarray
+    kel: np.ndarray
+    kbb: np.ndarray
+    kbu: np.ndarray
+
+
+def section(joint: Joint, mesh: Mesh) -> tuple[np.ndarray, np.ndarray]:
+    """Return EI (N·mm²) and Φ of every element from the bolt geometry."""
+    bolt = joint.bolt
+    d_thread = float(np.sqrt(4.0 * bolt.stress_area / np.pi))
+    d = np.where(mesh.threaded, d_thread, bolt.diameter)
+    area, inertia = beam.circle_properties(d)
+    EI = bolt.E * inertia
+    if joint.analysis.beam == "euler-bernoulli":
+        return EI, np.zeros_like(EI)
+    G = bolt.E / (2.0 * (1.0 + bolt.poisson))
+    kGA = beam.shear_coefficient_circle(bolt.poisson) * G * area
+    return EI, beam.phi_shear(EI, kGA, mesh.lengths)
+
+
+def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
+    """Assemble the banded system of ``joint``.
+
+    Args:
+        joint: The joint.
+        mesh: A mesh to reuse; built from the joint when omitted.
+
+    Returns:
+        The :class:`System`.
+    """
+    mesh = mesh or build_mesh(joint)
+    nn = mesh.z.size
+    nplies = len(joint.plies)
+    members = joint.members
+    midx = joint.member_index()
+
+    member_dof = np.full(len(members), FIXED)
+    nm = 0
+    for i, m in enumerate(members):
+        if not m.support:
+            member_dof[i] = nm
+            nm += 1
+
+    # Numbering of A: bolt DOFs by node; a ply's own DOF after its last node.
+    last_node = np.zeros(nplies, dtype=int)
+    for j in range(nplies):
+        last_node[j] = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
+    own = [p.is_filler or p.link_stiffness is not None for p in joint.plies]
+    bolt_dof = np.empty((nn, 2), dtype=int)
+    target: list[tuple[str, int]] = [("0", FIXED)] * nplies
+    next_dof = 0
+    own_after: dict[int, list[int]] = {}
+    for j in range(nplies):
+        if own[j]:
+            own_after.setdefault(int(last_node[j]), []).append(j)
+    for node in range(nn):
+        bolt_dof[node] = (next_dof, next_dof + 1)
+        next_dof += 2
+        for j in own_after.get(node, []):
+            target[j] = ("a", next_dof)
+            next_dof += 1
+    if joint.bolt.ends == "clamped":
+        bolt_dof, target, next_dof = _drop_rotations(bolt_dof, target, next_dof)
+    for j, ply in enumerate(joint.plies):
+        if not own[j]:
+            assert ply.member is not None
+            md = member_dof[midx[ply.member]]
+            target[j] = ("m", int(md)) if md != FIXED else ("0", FIXED)
+    na = next_dof
+
+    L = mesh.lengths
+    EI, phi = section(joint, mesh)
+    kel = beam.stiffness(EI, phi, L)
+    kply = np.array([bearing.modulus(joint.analysis.bearing, joint.bolt, p) for p in joint.plies])
+    k_el = np.where(mesh.ply >= 0, kply[np.maximum(mesh.ply, 0)], 0.0)
+    kbb, kbu = beam.foundation(k_el, phi, L)
+    ke = kel + kbb
+
+    # Scatter element matrices into A (upper band).
+    edofs = np.concatenate([bolt_dof[:-1], bolt_dof[1:]], axis=1)  # (ne, 4)
+    tgt_kind = np.array([target[j][0] if j >= 0 else "-" for j in mesh.ply])
+    tgt_idx = np.array([target[j][1] if j >= 0 else FIXED for j in mesh.ply])
+    bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx))
+    ab = np.zeros((bw + 1, na))
+    B = np.zeros((na, nm))
+    C = np.zeros((nm, nm))
+    for a in range(4):
+        for b in range(4):
+            i, j = edofs[:, a], edofs[:, b]
+            ok = (i >= 0) & (j >= 0) & (i <= j)
+            np.add.at(ab, (bw + i[ok] - j[ok], j[ok]), ke[ok, a, b])
+    # Bolt–ply coupling and ply–ply terms.
+    kl = k_el * L
+    for a in range(4):
+        i = edofs[:, a]
+        own_e = (tgt_kind == "a") & (i >= 0)
+        r, c = np.minimum(i[own_e], tgt_idx[own_e]), np.maximum(i[own_e], tgt_idx[own_e])
+        np.add.at(ab, (bw + r - c, c), kbu[own_e, a])
+        mem_e = (tgt_kind == "m") & (i >= 0)
+        np.add.at(B, (i[mem_e], tgt_idx[mem_e]), kbu[mem_e, a])
+    own_e = tgt_kind == "a"
+    np.add.at(ab, (bw, tgt_idx[own_e]), kl[own_e])
+    mem_e = tgt_kind == "m"
+    np.add.at(C, (tgt_idx[mem_e], tgt_idx[mem_e]), kl[mem_e])
+    # Elastic links between a ply's own DOF and its member.
+    link_dof = np.full(nplies, FIXED)
+    for j, ply in enumerate(joint.plies):
+        if ply.link_stiffness is None:
+            continue
+        assert ply.member is not None
+        pj = target[j][1]
+        md = member_dof[midx[ply.member]]
+        link_dof[j] = md
+        ab[bw, pj] += ply.link_stiffness
+        if md != FIXED:
+            C[md, md] += ply.link_stiffness
+            B[pj, md] -= ply.link_stiffness
+
+    loads = np.zeros((nm, 2))
+    for i, m in enumerate(members):
+        if member_dof[i] != FIXED:
+            loads[member_dof[i]] = m.load
+    return System(mesh=mesh, ab=ab, B=B, C=C, loads=loads, bolt_dof=bolt_dof,
+                  target=tuple(target), member_dof=member_dof, link_dof=link_dof, k=kply,
+                  kel=kel, kbb=kbb, kbu=kbu)
+
+
+def _element_bandwidth(edofs: np.ndarray) -> int:
+    """Return the largest |i − j| between the free DOFs of one bolt element."""
+    valid = edofs >= 0
+    hi = np.where(valid, edofs, np.iinfo(int).min).max(axis=1)
+    lo = np.where(valid, edofs, np.iinfo(int).max).min(axis=1)
+    return int(np.max(hi - lo))
+
+
+def _own_bandwidth(edofs: np.ndarray, kind: np.ndarray, idx: np.ndarray) -> int:
+    """Return the largest |i − j| between a bolt DOF and its ply's own DOF."""
+    sel = kind == "a"
+    if not np.any(sel):
+        return 0
+    e = edofs[sel]
+    t = idx[sel][:, None]
+    return int(np.max(np.where(e >= 0, np.abs(t - e), 0)))
+
+
+def _drop_rotations(
+    bolt_dof: np.ndarray, target: list[tuple[str, int]], n: int
+) -> tuple[np.ndarray, list[tuple[str, int]], int]:
+    """Restrain the rotation at the head and nut nodes and renumber A compactly."""
+    used = np.zeros(n, dtype=bool)
+    bolt_dof = bolt_dof.copy()
+    bolt_dof[0, 1] = FIXED
+    bolt_dof[-1, 1] = FIXED
+    used[bolt_dof[bolt_dof >= 0]] = True
+    for kind, i in target:
+        if kind == "a":
+            used[i] = True
+    new = np.cumsum(used) - 1
+    bolt_dof = np.where(bolt_dof >= 0, new[np.maximum(bolt_dof, 0)], FIXED)
+    target = [(kind, int(new[i])) if kind == "a" else (kind, i) for kind, i in target]
+    return bolt_dof, target, int(used.sum())

@@ -1,0 +1,171 @@
+"""Linear solve of one bolt on bearing springs.
+
+The banded block ``A`` (bolt and own ply DOFs) is factorised once with
+:func:`scipy.linalg.cholesky_banded`; the few free-member DOFs are solved from
+their Schur complement. x and y share the factorisation (two right-hand sides).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+from scipy.linalg import cho_factor, cho_solve, cho_solve_banded, cholesky_banded
+
+from plyshear.mechanics.assembly import FIXED, System, assemble
+from plyshear.mechanics.loadpath import require_load_path
+from plyshear.mechanics.results import (
+    BoltResult,
+    MemberResult,
+    PlaneShear,
+    PlyBearing,
+    Solution,
+)
+from plyshear.model.joint import Joint
+
+
+class SolveError(RuntimeError):
+    """The system could not be solved (singular or not positive definite)."""
+
+
+def banded_matvec(ab: np.ndarray, x: np.ndarray) -> np.ndarray:
+    """Multiply a symmetric matrix in upper banded storage by ``x`` (n or n×k)."""
+    u = ab.shape[0] - 1
+    n = ab.shape[1]
+    y = ab[u][:, None] * x if x.ndim == 2 else ab[u] * x
+    for k in range(1, u + 1):
+        d = ab[u - k, k:]
+        if x.ndim == 2:
+            d = d[:, None]
+        y[: n - k] += d * x[k:]
+        y[k:] += d * x[: n - k]
+    return y
+
+
+def solve(joint: Joint) -> Solution:
+    """Solve the plane shears, bolt moments and ply bearings of ``joint``.
+
+    Args:
+        joint: The joint (linear bearing law).
+
+    Returns:
+        The :class:`Solution`.
+
+    Raises:
+        plyshear.ModelError: If the joint is a mechanism.
+        SolveError: If the stiffness matrix cannot be factorised.
+    """
+    require_load_path(joint)
+    sys = assemble(joint)
+    x, y = _solve_system(sys)
+    return _results(joint, sys, x, y)
+
+
+def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray]:
+    """Return the A-block and member displacements, each with two columns (x, y)."""
+    try:
+        cb = cholesky_banded(sys.ab, lower=False, check_finite=False)
+    except np.linalg.LinAlgError as exc:
+        raise SolveError(f"the bolt stiffness matrix is singular ({exc})") from None
+    nm = sys.C.shape[0]
+    if nm == 0:
+        return np.zeros((sys.ab.shape[1], 2)), np.zeros((0, 2))
+    XB = cho_solve_banded((cb, False), sys.B, check_finite=False)
+    S = sys.C - sys.B.T @ XB
+    try:
+        y = cho_solve(cho_factor(S, check_finite=False), sys.loads, check_finite=False)
+    except np.linalg.LinAlgError as exc:
+        raise SolveError(f"the member system is singular ({exc})") from None
+    x = -XB @ y
+    return x, y
+
+
+def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solution:
+    mesh = sys.mesh
+    nn = mesh.z.size
+    # Bolt nodal displacements (w, θ) for both directions.
+    dof = sys.bolt_dof
+    d = np.zeros((nn, 2, 2))  # node, (w, θ), component
+    for c in range(2):
+        d[:, 0, c] = np.where(dof[:, 0] >= 0, x[np.maximum(dof[:, 0], 0), c], 0.0)
+        d[:, 1, c] = np.where(dof[:, 1] >= 0, x[np.maximum(dof[:, 1], 0), c], 0.0)
+    # Displacement of the body each ply bears against.
+    u_ply = np.zeros((len(joint.plies), 2))
+    for j, (kind, i) in enumerate(sys.target):
+        if kind == "a":
+            u_ply[j] = x[i]
+        elif kind == "m":
+            u_ply[j] = y[i]
+    de = np.concatenate([d[:-1], d[1:]], axis=1)  # (ne, 4, comp)
+    ke = sys.kel + sys.kbb
+    u_el = np.where(mesh.ply[:, None] >= 0, u_ply[np.maximum(mesh.ply, 0)], 0.0)  # (ne, comp)
+    fe = np.einsum("eij,ejc->eic", ke, de) + sys.kbu[:, :, None] * u_el[:, None, :]
+    V = np.empty((nn, 2))
+    M = np.empty((nn, 2))
+    V[:-1] = -fe[:, 0]
+    M[:-1] = fe[:, 1]
+    V[-1] = fe[-1, 2]
+    M[-1] = -fe[-1, 3]
+    w = d[:, 0, :]
+
+    # Ply bearing: force the ply applies to the bolt is Σ(k L u + Kub d) per element.
+    L = mesh.lengths
+    k_el = np.where(mesh.ply >= 0, sys.k[np.maximum(mesh.ply, 0)], 0.0)
+    on_bolt_el = (k_el * L)[:, None] * u_el + np.einsum("ei,eic->ec", sys.kbu, de)
+    on_bolt = np.zeros((len(joint.plies), 2))
+    np.add.at(on_bolt, np.maximum(mesh.ply, 0), np.where(mesh.ply[:, None] >= 0, on_bolt_el, 0.0))
+    # Mean bolt displacement over each ply, for the slip.
+    wmean = np.zeros((len(joint.plies), 2))
+    np.add.at(wmean, np.maximum(mesh.ply, 0),
+              np.where(mesh.ply[:, None] >= 0, 0.5 * (de[:, 0] + de[:, 2]) * L[:, None], 0.0))
+    tply = np.array([p.thickness for p in joint.plies])
+    wmean /= tply[:, None]
+    # Bearing pressure at the nodes (from the ply side of each node).
+    q = np.zeros((nn, 2))
+    for e in range(mesh.ply.size):
+        j = mesh.ply[e]
+        if j >= 0:
+            q[e] = sys.k[j] * (u_ply[j] - w[e])
+            q[e + 1] = sys.k[j] * (u_ply[j] - w[e + 1])
+
+    planes = tuple(
+        PlaneShear(index=i + 1, z=float(mesh.z[n]), above=i, below=i + 1,
+                   shear_xy=(float(V[n, 0]), float(V[n, 1])),
+                   moment_xy=(float(M[n, 0]), float(M[n, 1])),
+                   threads=joint.bolt.threaded_at(float(mesh.z[n])))
+        for i, n in enumerate(mesh.plane_nodes)
+    )
+    plies = tuple(
+        PlyBearing(ply=j, force_xy=(float(-on_bolt[j, 0]), float(-on_bolt[j, 1])),
+                   slip_xy=(float(u_ply[j, 0] - wmean[j, 0]), float(u_ply[j, 1] - wmean[j, 1])))
+        for j in range(len(joint.plies))
+    )
+    midx = joint.member_index()
+    reaction = np.zeros((len(joint.members), 2))
+    for j, ply in enumerate(joint.plies):
+        if ply.member is not None:
+            reaction[midx[ply.member]] += on_bolt[j]
+    members = []
+    for i, m in enumerate(joint.members):
+        md = sys.member_dof[i]
+        disp = y[md] if md != FIXED else np.zeros(2)
+        react = reaction[i] if m.support else np.zeros(2)
+        members.append(MemberResult(member=i, displacement_xy=(float(disp[0]), float(disp[1])),
+                                    reaction_xy=(float(react[0]), float(react[1]))))
+    residual = _residual(joint, sys, x, y, reaction)
+    bolt = BoltResult(x=0.0, z=mesh.z, V=V, M=M, w=w, q=q, planes=planes, plies=plies)
+    return Solution(joint=joint, bolts=(bolt,), members=tuple(members),
+                    equilibrium_residual=residual)
+
+
+def _residual(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,
+              reaction: np.ndarray) -> float:
+    """Return the largest out-of-balance force relative to the applied load."""
+    loads = np.array([m.load for m in joint.members], dtype=float)
+    scale = float(np.max(np.abs(loads))) if loads.size else 0.0
+    if scale == 0.0:
+        return 0.0
+    r_a = banded_matvec(sys.ab, x) + sys.B @ y
+    r_m = sys.B.T @ x + sys.C @ y - sys.loads
+    supports = np.array([m.support for m in joint.members])
+    total = loads.sum(axis=0) + reaction[supports].sum(axis=0)
+    parts = [np.abs(r_a).max(initial=0.0), np.abs(r_m).max(initial=0.0), np.abs(total).max()]
+    return float(max(parts) / scale)

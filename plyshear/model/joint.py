@@ -1,0 +1,263 @@
+"""The joint model: frozen dataclasses in N, mm and MPa.
+
+A model is never changed in place: an edit returns a copy
+(:meth:`Joint.with_ply`, :meth:`Joint.with_bolt`). No result is stored on a
+model object.
+
+Geometry: z runs along the bolt axis from under the head. Ply ``j`` occupies
+``[z_j, z_j + t_j]``, after a clear gap ``gap_j`` from the previous ply (or
+from the head). Plies are numbered from the head side.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+
+BEAM_THEORIES = ("timoshenko", "euler-bernoulli")
+THREAD_MODES = ("auto", "included", "excluded")
+END_FIXITIES = ("free", "clamped")
+HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
+#: Bearing-law names a model file may give; plyshear.mechanics.bearing implements each.
+BEARING_LAWS = ("component",)
+
+
+@dataclass(frozen=True)
+class Bolt:
+    """The bolt or pin (one shape for the whole joint).
+
+    Attributes:
+        diameter: Nominal (shank) diameter d, mm.
+        grade: Fastener catalogue key ("8.8", "A325", ...).
+        fyb: Yield strength, MPa.
+        fub: Tensile strength, MPa.
+        stress_area: Tensile stress area A_s, mm² (used where threaded).
+        E: Elastic modulus, MPa.
+        poisson: Poisson's ratio.
+        length: Under-head length, mm, or None if unknown.
+        thread_length: Threaded length from the end, mm, or None.
+        threads: "auto" (from geometry), "included" or "excluded".
+        ends: "free" or "clamped" (rotation tied to zero at head and nut).
+        pretension: Preload, N.
+        tension: External axial tension, N.
+        hole: Hole type, one of :data:`HOLE_TYPES`.
+    """
+
+    diameter: float
+    grade: str
+    fyb: float
+    fub: float
+    stress_area: float
+    E: float = 210000.0
+    poisson: float = 0.3
+    length: float | None = None
+    thread_length: float | None = None
+    threads: str = "auto"
+    ends: str = "free"
+    pretension: float = 0.0
+    tension: float = 0.0
+    hole: str = "standard"
+
+    @property
+    def gross_area(self) -> float:
+        """Nominal body area πd²/4, mm²."""
+        return float(np.pi * self.diameter**2 / 4.0)
+
+    @property
+    def thread_start(self) -> float | None:
+        """The z at which the thread begins, or None when the geometry is unknown."""
+        if self.length is None or self.thread_length is None:
+            return None
+        return self.length - self.thread_length
+
+    def threaded_at(self, z: float) -> bool:
+        """Say whether the bolt section at ``z`` is threaded.
+
+        With ``threads = "auto"`` and unknown geometry the answer is True
+        (threads in every plane: the conservative assumption).
+        """
+        if self.threads == "included":
+            return True
+        if self.threads == "excluded":
+            return False
+        start = self.thread_start
+        return True if start is None else z >= start - 1e-9
+
+    @property
+    def threads_assumed(self) -> bool:
+        """True when threads are assumed in every plane for want of geometry."""
+        return self.threads == "auto" and self.thread_start is None
+
+
+@dataclass(frozen=True)
+class Ply:
+    """One plate of the stack.
+
+    Attributes:
+        name: Unique name.
+        member: The member the ply belongs to, or None for a loose filler/pack.
+        thickness: t, mm.
+        fy: Yield strength, MPa.
+        fu: Tensile strength, MPa.
+        E: Elastic modulus, MPa.
+        steel: Plate-steel catalogue key, or None when fy/fu were given.
+        gap: Clear gap before this ply, mm.
+        edge: Edge distance along the ply's force, mm, or None.
+        width: Width across the force, mm, or None.
+        foundation_modulus: Override of the bearing law: stiffness per unit
+            thickness, MPa; None = use the analysis' bearing law.
+        link_stiffness: Elastic link to the member, N/mm; None = rigid link.
+    """
+
+    name: str
+    member: str | None
+    thickness: float
+    fy: float
+    fu: float
+    E: float = 210000.0
+    steel: str | None = None
+    gap: float = 0.0
+    edge: float | None = None
+    width: float | None = None
+    foundation_modulus: float | None = None
+    link_stiffness: float | None = None
+
+    @property
+    def is_filler(self) -> bool:
+        """True for a loose filler or pack (no member)."""
+        return self.member is None
+
+
+@dataclass(frozen=True)
+class Member:
+    """A member that owns one or more plies.
+
+    Attributes:
+        name: Member name.
+        support: True if the member is held (its reaction is computed).
+        load: In-plane force (Fx, Fy) on the member, N.
+    """
+
+    name: str
+    support: bool = False
+    load: tuple[float, float] = (0.0, 0.0)
+
+    @property
+    def is_loaded(self) -> bool:
+        """True if the member carries a non-zero force."""
+        return self.load != (0.0, 0.0)
+
+
+@dataclass(frozen=True)
+class Analysis:
+    """Analysis settings.
+
+    Attributes:
+        bearing: Bearing-law name (see :mod:`plyshear.mechanics.bearing`).
+        elements_per_ply: Bolt elements inside each ply and each gap.
+        beam: "timoshenko" or "euler-bernoulli".
+    """
+
+    bearing: str = "component"
+    elements_per_ply: int = 10
+    beam: str = "timoshenko"
+
+
+@dataclass(frozen=True)
+class CheckSettings:
+    """Design-check settings.
+
+    Attributes:
+        standard: "aisc360-22" or "en1993-1-8".
+        method: "lrfd" or "asd" (AISC only).
+    """
+
+    standard: str = "aisc360-22"
+    method: str = "lrfd"
+
+
+@dataclass(frozen=True)
+class Joint:
+    """A bolt through a stack of plies, with its members and settings.
+
+    Attributes:
+        bolt: The bolt.
+        plies: Plies from the head side.
+        members: Members named by the plies.
+        title: Free text shown in reports.
+        units: Name of the unit system results are written in.
+        analysis: Analysis settings.
+        check: Design-check settings.
+        source: The model file it was read from, if any.
+    """
+
+    bolt: Bolt
+    plies: tuple[Ply, ...]
+    members: tuple[Member, ...]
+    title: str = ""
+    units: str = "N-mm"
+    analysis: Analysis = field(default_factory=Analysis)
+    check: CheckSettings = field(default_factory=CheckSettings)
+    source: str | None = None
+
+    def ply_starts(self) -> np.ndarray:
+        """Return z of the head-side face of every ply, mm."""
+        gaps = np.array([p.gap for p in self.plies])
+        t = np.array([p.thickness for p in self.plies])
+        return np.cumsum(gaps) + np.concatenate(([0.0], np.cumsum(t)[:-1]))
+
+    @property
+    def grip(self) -> float:
+        """Total length of the stack including gaps, mm."""
+        return float(sum(p.gap + p.thickness for p in self.plies))
+
+    def member(self, name: str) -> Member:
+        """Return the member called ``name``."""
+        for m in self.members:
+            if m.name == name:
+                return m
+        raise KeyError(name)
+
+    def member_index(self) -> dict[str, int]:
+        """Map member names to their position in :attr:`members`."""
+        return {m.name: i for i, m in enumerate(self.members)}
+
+    def load_axis(self) -> np.ndarray:
+        """Return the unit direction of the largest member load (x if unloaded)."""
+        loads = np.array([m.load for m in self.members], dtype=float)
+        norms = np.hypot(loads[:, 0], loads[:, 1])
+        if norms.max() == 0.0:
+            return np.array([1.0, 0.0])
+        i = int(np.argmax(norms))
+        return loads[i] / norms[i]
+
+    def with_ply(self, index: int, **changes: Any) -> Joint:
+        """Return a copy with ply ``index`` (0-based) changed."""
+        plies = list(self.plies)
+        plies[index] = dataclasses.replace(plies[index], **changes)
+        return dataclasses.replace(self, plies=tuple(plies))
+
+    def with_bolt(self, **changes: Any) -> Joint:
+        """Return a copy with the bolt changed."""
+        return dataclasses.replace(self, bolt=dataclasses.replace(self.bolt, **changes))
+
+    def with_analysis(self, **changes: Any) -> Joint:
+        """Return a copy with the analysis settings changed."""
+        return dataclasses.replace(self, analysis=dataclasses.replace(self.analysis, **changes))
+
+    def mirrored(self) -> Joint:
+        """Return the stack seen from the nut side (head ↔ nut).
+
+        Gaps move with their plies so the geometry is the mirror image. The
+        thread geometry is dropped (it belongs to one orientation).
+        """
+        plies = list(reversed(self.plies))
+        gaps = [p.gap for p in self.plies[1:]][::-1]
+        new = [dataclasses.replace(p, gap=(0.0 if i == 0 else gaps[i - 1])) for i, p in
+               enumerate(plies)]
+        new[0] = dataclasses.replace(new[0], gap=self.plies[0].gap)
+        bolt = dataclasses.replace(self.bolt, length=None, thread_length=None)
+        return dataclasses.replace(self, plies=tuple(new), bolt=bolt)

@@ -1,0 +1,423 @@
+"""Read a model file (TOML) into a :class:`~plyshear.model.joint.Joint`.
+
+All validation lives here. Every problem raises :class:`ModelError` with the
+file, the key path (``ply[2].thickness``, plies counted from 1 on the head
+side) and what was expected, so the command line can print it as one line.
+"""
+
+from __future__ import annotations
+
+import difflib
+import math
+import os
+import tomllib
+from collections.abc import Mapping
+from pathlib import Path
+from typing import Any
+
+from plyshear import units as _units
+from plyshear.model import catalog
+from plyshear.model.joint import (
+    BEAM_THEORIES,
+    BEARING_LAWS,
+    END_FIXITIES,
+    HOLE_TYPES,
+    THREAD_MODES,
+    Analysis,
+    Bolt,
+    CheckSettings,
+    Joint,
+    Member,
+    Ply,
+)
+
+FORMAT_VERSION = 1
+MAX_FILE_BYTES = 4_000_000
+MAX_PLIES = 2000
+MAX_ELEMENTS_PER_PLY = 1000
+
+STANDARDS = ("aisc360-22", "en1993-1-8")
+METHODS = ("lrfd", "asd")
+
+TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check")
+BOLT_KEYS = (
+    "diameter", "grade", "length", "thread_length", "threads", "ends", "pretension",
+    "tension", "hole", "E", "poisson", "stress_area",
+)
+PLY_KEYS = (
+    "name", "member", "thickness", "steel", "fy", "fu", "gap", "edge", "width",
+    "foundation_modulus", "link_stiffness", "E",
+)
+MEMBER_KEYS = ("support", "load")
+ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam")
+CHECK_KEYS = ("standard", "method")
+
+
+class ModelError(ValueError):
+    """A model that cannot be used, with where and why.
+
+    Attributes:
+        path: The model file (or ``"<model>"``).
+        key: The key path, e.g. ``ply[2].thickness`` (may be empty).
+        message: What is wrong and what is expected.
+    """
+
+    def __init__(self, path: str, key: str, message: str) -> None:
+        self.path = path
+        self.key = key
+        self.message = message
+        super().__init__(str(self))
+
+    def __str__(self) -> str:
+        where = f"{self.path}: {self.key}: " if self.key else f"{self.path}: "
+        return where + self.message
+
+
+class _Reader:
+    """Typed access to one table of the file, with key paths for errors."""
+
+    def __init__(self, path: str, system: _units.UnitSystem) -> None:
+        self.path = path
+        self.system = system
+
+    def fail(self, key: str, message: str) -> ModelError:
+        return ModelError(self.path, key, message)
+
+    def table(self, data: Any, key: str) -> Mapping[str, Any]:
+        if not isinstance(data, Mapping):
+            raise self.fail(key, f"must be a table (got {_kind(data)})")
+        return data
+
+    def only(self, data: Mapping[str, Any], allowed: tuple[str, ...], prefix: str) -> None:
+        for k in data:
+            if k not in allowed:
+                hint = difflib.get_close_matches(k, allowed, n=1)
+                extra = f"; did you mean '{hint[0]}'?" if hint else f"; known: {', '.join(allowed)}"
+                raise self.fail(_join(prefix, k), "unknown key" + extra)
+
+    def quantity(self, value: Any, key: str, dimension: str) -> float:
+        if isinstance(value, bool):
+            raise self.fail(key, f"must be a number or a {dimension} with a unit (got a boolean)")
+        if isinstance(value, int | float):
+            number = float(value)
+            if not math.isfinite(number):
+                raise self.fail(key, f"must be finite (got {value})")
+            return self.system.to_internal(number, dimension)
+        if isinstance(value, str):
+            try:
+                return _units.parse_quantity(value, dimension)
+            except ValueError as exc:
+                raise self.fail(key, str(exc)) from None
+        raise self.fail(key, f"must be a number or a {dimension} with a unit (got {_kind(value)})")
+
+    def number(self, value: Any, key: str) -> float:
+        if isinstance(value, bool) or not isinstance(value, int | float):
+            raise self.fail(key, f"must be a plain number (got {_kind(value)})")
+        if not math.isfinite(value):
+            raise self.fail(key, f"must be finite (got {value})")
+        return float(value)
+
+    def positive(self, value: Any, key: str, dimension: str, *, zero_ok: bool = False) -> float:
+        number = self.quantity(value, key, dimension)
+        if number < 0 or (number == 0 and not zero_ok):
+            shown = self.system.from_internal(number, dimension) if not isinstance(value, str) \
+                else value
+            rule = "≥ 0" if zero_ok else "> 0"
+            raise self.fail(key, f"must be {rule} (got {_fmt(shown)})")
+        return number
+
+    def choice(self, value: Any, key: str, allowed: tuple[str, ...]) -> str:
+        if not isinstance(value, str) or value not in allowed:
+            hint = difflib.get_close_matches(str(value), allowed, n=1)
+            extra = f"; did you mean '{hint[0]}'?" if hint else ""
+            raise self.fail(key, f"must be one of {', '.join(allowed)} (got {value!r}){extra}")
+        return value
+
+    def text(self, value: Any, key: str) -> str:
+        if not isinstance(value, str):
+            raise self.fail(key, f"must be a string (got {_kind(value)})")
+        return value
+
+
+def _kind(value: Any) -> str:
+    return {dict: "a table", list: "an array", str: "a string", bool: "a boolean",
+            int: "an integer", float: "a number"}.get(type(value), type(value).__name__)
+
+
+def _fmt(value: Any) -> str:
+    return f"{value:g}" if isinstance(value, float) else str(value)
+
+
+def _join(prefix: str, key: str) -> str:
+    return f"{prefix}.{key}" if prefix else key
+
+
+def load(path: str | os.PathLike[str]) -> Joint:
+    """Read and validate a model file.
+
+    Args:
+        path: The TOML model file.
+
+    Returns:
+        The joint in N, mm, MPa.
+
+    Raises:
+        ModelError: For any problem, naming the file and key.
+    """
+    name = str(path)
+    p = Path(path)
+    try:
+        size = p.stat().st_size
+    except OSError as exc:
+        raise ModelError(name, "", f"cannot read the file ({exc.strerror or exc})") from None
+    if not p.is_file():
+        raise ModelError(name, "", "is not a file")
+    if size > MAX_FILE_BYTES:
+        raise ModelError(name, "", f"file too large ({size} bytes; at most {MAX_FILE_BYTES})")
+    try:
+        raw = p.read_bytes()
+    except OSError as exc:
+        raise ModelError(name, "", f"cannot read the file ({exc.strerror or exc})") from None
+    try:
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError as exc:
+        raise ModelError(name, "", f"not UTF-8 text (byte {exc.start})") from None
+    return loads(text, name)
+
+
+def loads(text: str, path: str = "<model>") -> Joint:
+    """Parse and validate model-file text.
+
+    Args:
+        text: The TOML text.
+        path: Name used in error messages.
+
+    Returns:
+        The joint.
+
+    Raises:
+        ModelError: For any problem.
+    """
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise ModelError(path, "", f"not valid TOML: {exc}") from None
+    except RecursionError:
+        raise ModelError(path, "", "not valid TOML: nested too deeply") from None
+    return from_dict(data, path)
+
+
+def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
+    """Validate a parsed model file (a dict as TOML gives it) into a Joint.
+
+    Args:
+        data: The parsed file.
+        path: Name used in error messages.
+
+    Returns:
+        The joint.
+
+    Raises:
+        ModelError: For any problem.
+    """
+    r = _Reader(path, _units.SYSTEMS["N-mm"])
+    r.table(data, "")
+    r.only(data, TOP_KEYS, "")
+    if "format" not in data:
+        raise r.fail("format", f"missing; this reader expects format = {FORMAT_VERSION}")
+    if isinstance(data["format"], bool) or data["format"] != FORMAT_VERSION:
+        raise r.fail("format", f"must be {FORMAT_VERSION} (got {data['format']!r})")
+    if "units" not in data:
+        raise r.fail("units", f"missing; give one of {', '.join(_units.SYSTEMS)}")
+    units_name = r.choice(data["units"], "units", tuple(_units.SYSTEMS))
+    r.system = _units.SYSTEMS[units_name]
+    title = r.text(data.get("title", ""), "title")
+    if "project" in data:
+        r.text(data["project"], "project")
+
+    if "bolt" not in data:
+        raise r.fail("bolt", "missing; the joint needs a [bolt] table")
+    bolt = _bolt(r, r.table(data["bolt"], "bolt"))
+
+    plies_raw = data.get("ply")
+    if plies_raw is None:
+        raise r.fail("ply", "missing; give at least two [[ply]] tables")
+    if not isinstance(plies_raw, list):
+        raise r.fail("ply", f"must be an array of tables [[ply]] (got {_kind(plies_raw)})")
+    if len(plies_raw) < 2:
+        raise r.fail("ply", f"needs at least two plies (got {len(plies_raw)})")
+    if len(plies_raw) > MAX_PLIES:
+        raise r.fail("ply", f"at most {MAX_PLIES} plies (got {len(plies_raw)})")
+    plies = tuple(_ply(r, raw, i) for i, raw in enumerate(plies_raw, start=1))
+    seen: dict[str, int] = {}
+    for i, ply in enumerate(plies, start=1):
+        if ply.name in seen:
+            raise r.fail(f"ply[{i}].name",
+                         f"'{ply.name}' is already the name of ply[{seen[ply.name]}]")
+        seen[ply.name] = i
+
+    members = _members(r, data.get("member", {}), plies)
+    analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
+    check = _check(r, r.table(data.get("check", {}), "check"))
+    return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
+                 analysis=analysis, check=check, source=path)
+
+
+def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
+    r.only(b, BOLT_KEYS, "bolt")
+    if "diameter" not in b:
+        raise r.fail("bolt.diameter", "missing; the nominal diameter is required")
+    d = r.positive(b["diameter"], "bolt.diameter", "length")
+    if "grade" not in b:
+        raise r.fail("bolt.grade", f"missing; known: {', '.join(catalog.fastener_keys())}")
+    grade_key = r.text(b["grade"], "bolt.grade")
+    try:
+        grade = catalog.fastener(grade_key)
+    except catalog.CatalogError as exc:
+        raise r.fail("bolt.grade", str(exc)) from None
+    threads = r.choice(b.get("threads", "auto"), "bolt.threads", THREAD_MODES)
+    ends = r.choice(b.get("ends", "free"), "bolt.ends", END_FIXITIES)
+    hole = r.choice(b.get("hole", "standard"), "bolt.hole", HOLE_TYPES)
+    length = r.positive(b["length"], "bolt.length", "length") if "length" in b else None
+    thread_length = None
+    if "thread_length" in b:
+        if length is None:
+            raise r.fail("bolt.thread_length", "needs bolt.length to place the threads")
+        thread_length = r.positive(b["thread_length"], "bolt.thread_length", "length")
+        if thread_length > length:
+            raise r.fail("bolt.thread_length", "must not exceed bolt.length")
+    elif length is not None:
+        try:
+            thread_length = min(length, catalog.thread_length(d, grade.key, length))
+        except catalog.CatalogError as exc:
+            raise r.fail("bolt.thread_length", f"not given and {exc}") from None
+    if "stress_area" in b:
+        stress_area = r.positive(b["stress_area"], "bolt.stress_area", "area")
+        if stress_area > math.pi * d * d / 4:
+            raise r.fail("bolt.stress_area", "must not exceed the gross area πd²/4")
+    else:
+        found = catalog.stress_area(d)
+        if found is None:
+            if threads == "excluded":
+                found = math.pi * d * d / 4
+            else:
+                raise r.fail("bolt.diameter", f"no thread data for a {_fmt(d)} mm diameter; "
+                             "give bolt.stress_area, or threads = \"excluded\" for a pin")
+        stress_area = found
+    e_mod = r.positive(b["E"], "bolt.E", "stress") if "E" in b else grade.E
+    nu = r.number(b["poisson"], "bolt.poisson") if "poisson" in b else 0.3
+    if not -1.0 < nu < 0.5:
+        raise r.fail("bolt.poisson", f"must lie in (-1, 0.5) (got {nu:g})")
+    pretension = r.positive(b.get("pretension", 0), "bolt.pretension", "force", zero_ok=True)
+    tension = r.positive(b.get("tension", 0), "bolt.tension", "force", zero_ok=True)
+    return Bolt(diameter=d, grade=grade.key, fyb=grade.fyb, fub=grade.fub,
+                stress_area=stress_area, E=e_mod, poisson=nu, length=length,
+                thread_length=thread_length, threads=threads, ends=ends,
+                pretension=pretension, tension=tension, hole=hole)
+
+
+def _ply(r: _Reader, raw: Any, i: int) -> Ply:
+    key = f"ply[{i}]"
+    p = r.table(raw, key)
+    r.only(p, PLY_KEYS, key)
+    name = r.text(p.get("name", f"ply{i}"), f"{key}.name")
+    if not name.strip():
+        raise r.fail(f"{key}.name", "must not be empty")
+    member = r.text(p["member"], f"{key}.member") if "member" in p else None
+    if "thickness" not in p:
+        raise r.fail(f"{key}.thickness", "missing; every ply needs a thickness")
+    t = r.positive(p["thickness"], f"{key}.thickness", "length")
+    steel_key = r.text(p["steel"], f"{key}.steel") if "steel" in p else None
+    fy = r.positive(p["fy"], f"{key}.fy", "stress") if "fy" in p else None
+    fu = r.positive(p["fu"], f"{key}.fu", "stress") if "fu" in p else None
+    e_mod = r.positive(p["E"], f"{key}.E", "stress") if "E" in p else None
+    if steel_key is not None:
+        try:
+            grade = catalog.steel(steel_key)
+        except catalog.CatalogError as exc:
+            raise r.fail(f"{key}.steel", str(exc)) from None
+        try:
+            fy_cat, fu_cat = grade.strength(t)
+        except ValueError as exc:
+            raise r.fail(f"{key}.thickness", str(exc)) from None
+        fy = fy if fy is not None else fy_cat
+        fu = fu if fu is not None else fu_cat
+        e_mod = e_mod if e_mod is not None else grade.E
+    if fy is None or fu is None:
+        missing = "fy" if fy is None else "fu"
+        raise r.fail(f"{key}.{missing}", f"missing; give {key}.steel "
+                     f"(known: {', '.join(catalog.steel_keys())}) or both fy and fu")
+    if fu < fy:
+        raise r.fail(f"{key}.fu", "must not be less than fy")
+    gap = r.positive(p.get("gap", 0), f"{key}.gap", "length", zero_ok=True)
+    edge = r.positive(p["edge"], f"{key}.edge", "length") if "edge" in p else None
+    width = r.positive(p["width"], f"{key}.width", "length") if "width" in p else None
+    k = r.positive(p.get("foundation_modulus", 0), f"{key}.foundation_modulus", "stress",
+                   zero_ok=True)
+    link = r.positive(p.get("link_stiffness", 0), f"{key}.link_stiffness", "stiffness",
+                      zero_ok=True)
+    if link > 0 and member is None:
+        raise r.fail(f"{key}.link_stiffness", "a filler ply (no member) has no link")
+    return Ply(name=name, member=member, thickness=t, fy=fy, fu=fu,
+               E=e_mod if e_mod is not None else 210000.0, steel=steel_key, gap=gap,
+               edge=edge,
+               width=width, foundation_modulus=k if k > 0 else None,
+               link_stiffness=link if link > 0 else None)
+
+
+def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...]) -> tuple[Member, ...]:
+    table = r.table(raw, "member")
+    used = [p.member for p in plies if p.member is not None]
+    for i, ply in enumerate(plies, start=1):
+        if ply.member is not None and ply.member not in table:
+            hint = difflib.get_close_matches(ply.member, list(table), n=1)
+            extra = f"; did you mean '{hint[0]}'?" if hint else ""
+            raise r.fail(f"ply[{i}].member",
+                         f"member '{ply.member}' is not declared as [member.{ply.member}]{extra}")
+    members = []
+    for name, body in table.items():
+        key = f"member.{name}"
+        m = r.table(body, key)
+        r.only(m, MEMBER_KEYS, key)
+        if name not in used:
+            raise r.fail(key, "declared but no ply belongs to it")
+        support = m.get("support", False)
+        if not isinstance(support, bool):
+            raise r.fail(f"{key}.support", f"must be true or false (got {_kind(support)})")
+        load = (0.0, 0.0)
+        if "load" in m:
+            if support:
+                raise r.fail(f"{key}.load", "a supported member cannot also be loaded")
+            load = _load(r, m["load"], f"{key}.load")
+        members.append(Member(name=name, support=support, load=load))
+    if not any(m.support for m in members):
+        raise r.fail("member", "no supported member; mark at least one with support = true")
+    return tuple(members)
+
+
+def _load(r: _Reader, raw: Any, key: str) -> tuple[float, float]:
+    if isinstance(raw, list):
+        if len(raw) != 2:
+            raise r.fail(key, f"must be a scalar (along x) or [Fx, Fy] (got {len(raw)} values)")
+        return (r.quantity(raw[0], f"{key}[1]", "force"), r.quantity(raw[1], f"{key}[2]", "force"))
+    return (r.quantity(raw, key, "force"), 0.0)
+
+
+def _analysis(r: _Reader, a: Mapping[str, Any]) -> Analysis:
+    r.only(a, ANALYSIS_KEYS, "analysis")
+    bearing = r.choice(a.get("bearing", "component"), "analysis.bearing", BEARING_LAWS)
+    n = a.get("elements_per_ply", 10)
+    if isinstance(n, bool) or not isinstance(n, int):
+        raise r.fail("analysis.elements_per_ply", f"must be an integer (got {_kind(n)})")
+    if not 1 <= n <= MAX_ELEMENTS_PER_PLY:
+        raise r.fail("analysis.elements_per_ply",
+                     f"must lie in 1..{MAX_ELEMENTS_PER_PLY} (got {n})")
+    beam = r.choice(a.get("beam", "timoshenko"), "analysis.beam", BEAM_THEORIES)
+    return Analysis(bearing=bearing, elements_per_ply=n, beam=beam)
+
+
+def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
+    r.only(c, CHECK_KEYS, "check")
+    standard = r.choice(c.get("standard", "aisc360-22"), "check.standard", STANDARDS)
+    method = r.choice(c.get("method", "lrfd"), "check.method", METHODS)
+    return CheckSettings(standard=standard, method=method)

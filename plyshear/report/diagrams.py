@@ -1,0 +1,189 @@
+"""Figures for the terminal's ``--plot`` and the calculation report.
+
+Free functions that draw on an Axes (``plot_shear(solution, ax=None)``) and
+return it; :func:`solution_figure` composes the stack and the diagrams. Figures
+are built with :class:`matplotlib.figure.Figure` (no pyplot state, no
+``show()``), legible in greyscale: plies are told apart by hatching and grey
+level, curves by line style.
+"""
+
+from __future__ import annotations
+
+import io
+from typing import Any
+
+import matplotlib
+
+matplotlib.use("Agg")
+
+from matplotlib.axes import Axes  # noqa: E402
+from matplotlib.figure import Figure  # noqa: E402
+from matplotlib.patches import Rectangle  # noqa: E402
+from matplotlib.ticker import MaxNLocator  # noqa: E402
+
+from plyshear import units as _units  # noqa: E402
+from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
+from plyshear.model.joint import Joint  # noqa: E402
+from plyshear.report.text import fmt  # noqa: E402
+
+INK = "#1b1b1b"
+GREYS = ("#d9d9d9", "#9e9e9e", "#f2f2f2", "#6e6e6e", "#bdbdbd", "#ffffff")
+HATCHES = ("", "///", "...", "\\\\\\", "xx", "--")
+FILLER_HATCH = "oo"
+
+
+def _new_axes(ax: Axes | None) -> Axes:
+    if ax is not None:
+        return ax
+    fig = Figure(figsize=(4, 5), layout="constrained")
+    return fig.add_subplot()
+
+
+def _style(ax: Axes) -> None:
+    ax.xaxis.set_major_locator(MaxNLocator(nbins=4))
+    ax.grid(True, color="#cccccc", linewidth=0.5)
+    for side in ("top", "right"):
+        ax.spines[side].set_visible(False)
+    ax.tick_params(labelsize=8)
+
+
+def member_styles(joint: Joint) -> dict[str | None, tuple[str, str]]:
+    """Return (fill grey, hatch) for each member name, and for fillers (None)."""
+    styles: dict[str | None, tuple[str, str]] = {
+        m.name: (GREYS[i % len(GREYS)], HATCHES[i % len(HATCHES)])
+        for i, m in enumerate(joint.members)
+    }
+    styles[None] = ("#ffffff", FILLER_HATCH)
+    return styles
+
+
+def plot_stack(joint: Joint, ax: Axes | None = None) -> Axes:
+    """Draw the stack elevation: plies as bars across the bolt, z downwards.
+
+    Args:
+        joint: The joint.
+        ax: Axes to draw on (a new figure when omitted).
+
+    Returns:
+        The Axes.
+    """
+    ax = _new_axes(ax)
+    u = _units.system(joint.units)
+    ln = u.factor("length")
+    styles = member_styles(joint)
+    d = joint.bolt.diameter / ln
+    starts = joint.ply_starts() / ln
+    width = 6.0 * d
+    for j, ply in enumerate(joint.plies):
+        fill, hatch = styles[ply.member]
+        ax.add_patch(Rectangle((-width / 2, starts[j]), width, ply.thickness / ln,
+                               facecolor=fill, edgecolor=INK, hatch=hatch, linewidth=0.8))
+        label = ply.name if ply.member is None else f"{ply.name} ({ply.member})"
+        ax.text(width / 2 + 0.3 * d, starts[j] + ply.thickness / ln / 2, label,
+                va="center", fontsize=7, color=INK)
+    grip = joint.grip / ln
+    ax.add_patch(Rectangle((-d / 2, -0.1 * d), d, grip + 0.2 * d, facecolor="none",
+                           edgecolor=INK, linewidth=1.2, linestyle="-"))
+    ax.axvline(0.0, color=INK, linewidth=0.5, linestyle="-.")
+    ax.set_xlim(-width / 2 - d, width / 2 + 4 * d)
+    ax.set_ylim(grip + 0.3 * d, -0.3 * d)
+    ax.set_xticks([])
+    ax.set_ylabel(f"z along bolt [{u.label('length')}]")
+    ax.set_title("stack", fontsize=9)
+    for side in ("top", "right", "bottom"):
+        ax.spines[side].set_visible(False)
+    return ax
+
+
+def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -> Axes:
+    ax = _new_axes(ax)
+    joint = sol.joint
+    u = _units.system(joint.units)
+    b = sol.bolts[bolt]
+    dim = {"shear": "force", "moment": "moment", "deflection": "length"}[which]
+    arr = {"shear": b.V, "moment": b.M, "deflection": b.w}[which]
+    values = signed_resultant(arr, joint.load_axis()) / u.factor(dim)
+    z = b.z / u.factor("length")
+    style = {"color": INK, "linewidth": 1.4, **kw}
+    ax.plot(values, z, **style)
+    ax.fill_betweenx(z, 0.0, values, color="#bbbbbb", alpha=0.5, linewidth=0)
+    ax.axvline(0.0, color=INK, linewidth=0.6)
+    if which != "deflection":
+        for p in b.planes:
+            ax.axhline(p.z / u.factor("length"), color="#888888", linewidth=0.5, linestyle=":")
+    ax.set_ylim(z[-1] + 0.05 * (z[-1] - z[0]), z[0] - 0.05 * (z[-1] - z[0]))
+    symbol = {"shear": "V", "moment": "M", "deflection": "w"}[which]
+    ax.set_xlabel(f"bolt {which} {symbol} [{u.label(dim)}]")
+    ax.set_ylabel(f"z along bolt [{u.label('length')}]")
+    _style(ax)
+    return ax
+
+
+def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: Any) -> Axes:
+    """Draw the bolt shear V(z) (signed resultant); plane shears are labelled.
+
+    Args:
+        solution: The solution.
+        ax: Axes to draw on (a new figure when omitted).
+        bolt: Which bolt.
+        **kw: Passed to ``Axes.plot``.
+
+    Returns:
+        The Axes; its first line holds (V, z) in the joint's units.
+    """
+    ax = _diagram(solution, "shear", ax, bolt, **kw)
+    u = _units.system(solution.joint.units)
+    for p in solution.bolts[bolt].planes:
+        v = signed_resultant(_as_row(p.shear_xy), solution.joint.load_axis())[0]
+        ax.annotate(fmt(p.shear / u.factor("force"), 3), (v / u.factor("force"),
+                    p.z / u.factor("length")), fontsize=7, xytext=(3, -3),
+                    textcoords="offset points", color=INK)
+    return ax
+
+
+def plot_moment(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: Any) -> Axes:
+    """Draw the bolt bending moment M(z) (signed resultant).
+
+    Returns:
+        The Axes; its first line holds (M, z) in the joint's units.
+    """
+    return _diagram(solution, "moment", ax, bolt, **kw)
+
+
+def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0,
+                    **kw: Any) -> Axes:
+    """Draw the bolt deflection w(z).
+
+    Returns:
+        The Axes; its first line holds (w, z) in the joint's units.
+    """
+    return _diagram(solution, "deflection", ax, bolt, **kw)
+
+
+def _as_row(v: tuple[float, float]) -> Any:
+    import numpy as np
+
+    return np.array([v])
+
+
+def solution_figure(solution: Solution) -> Figure:
+    """Return a figure with the stack beside the bolt's shear and moment diagrams."""
+    fig = Figure(figsize=(10, 5), layout="constrained")
+    axs = fig.subplots(1, 3, sharey=True, gridspec_kw={"width_ratios": [1.2, 1, 1]})
+    plot_stack(solution.joint, axs[0])
+    plot_shear(solution, axs[1])
+    plot_moment(solution, axs[2])
+    axs[1].set_ylabel("")
+    axs[2].set_ylabel("")
+    axs[1].set_title("shear", fontsize=9)
+    axs[2].set_title("bending moment", fontsize=9)
+    if solution.joint.title:
+        fig.suptitle(solution.joint.title, fontsize=10)
+    return fig
+
+
+def figure_bytes(fig: Figure, fmt: str) -> bytes:
+    """Render a figure to PNG, SVG or PDF bytes (the caller writes the file)."""
+    buf = io.BytesIO()
+    fig.savefig(buf, format=fmt, dpi=150)
+    return buf.getvalue()

@@ -1,0 +1,144 @@
+"""Terminal tables: plain text, fixed-width columns, the joint's own units."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from plyshear import units as _units
+from plyshear.mechanics.results import Solution
+
+CAUTION = (
+    "Caution: plyshear supports, and never replaces, the judgement of a licensed "
+    "engineer and the governing local code. Check every input and result."
+)
+
+
+def fmt(value: float, digits: int = 4) -> str:
+    """Format a number with ``digits`` significant figures, without ``-0``."""
+    if value == 0 or abs(value) < 1e-12:
+        return "0"
+    if 10**digits <= abs(value) < 1e10:
+        return f"{value:.0f}"
+    return f"{value:.{digits}g}"
+
+
+def table(headers: Sequence[str], rows: Sequence[Sequence[str]],
+          align: str | None = None) -> str:
+    """Return a fixed-width table.
+
+    Args:
+        headers: Column titles.
+        rows: Cells as strings.
+        align: One character per column, ``l`` or ``r`` (default: first
+            column left, the rest right).
+
+    Returns:
+        The table as text, one line per row, with a rule under the header.
+    """
+    align = align or "l" + "r" * (len(headers) - 1)
+    widths = [max(len(h), *(len(r[i]) for r in rows)) if rows else len(h)
+              for i, h in enumerate(headers)]
+
+    def line(cells: Sequence[str]) -> str:
+        return "  ".join(c.ljust(w) if a == "l" else c.rjust(w)
+                         for c, w, a in zip(cells, widths, align, strict=True)).rstrip()
+
+    out = [line(headers), line(["-" * w for w in widths])]
+    out += [line(r) for r in rows]
+    return "\n".join(out)
+
+
+def solution_text(sol: Solution) -> str:
+    """Return the terminal report of a linear solution.
+
+    Plane shears (resultant and x/y), ply bearings with each ply's share of its
+    member, members, the largest bolt moment and the equilibrium residual.
+    """
+    joint = sol.joint
+    u = _units.system(joint.units)
+    lf, ll, lm = u.label("force"), u.label("length"), u.label("moment")
+    f, ln, mo = u.factor("force"), u.factor("length"), u.factor("moment")
+    out: list[str] = []
+    title = joint.title or (joint.source or "joint")
+    bolt = joint.bolt
+    out.append(f"{title}")
+    out.append(f"bolt: d = {fmt(bolt.diameter / ln)} {ll}, grade {bolt.grade}, "
+               f"ends {bolt.ends}, {len(joint.plies)} plies, {len(sol.planes)} planes, "
+               f"units {joint.units}")
+    out.append("")
+    for b in sol.bolts:
+        rows = []
+        for p in b.planes:
+            rows.append([
+                str(p.index), fmt(p.z / ln), f"{joint.plies[p.above].name} / "
+                f"{joint.plies[p.below].name}", fmt(p.shear / f), fmt(p.shear_xy[0] / f),
+                fmt(p.shear_xy[1] / f), fmt(p.moment / mo), "in" if p.threads else "out",
+            ])
+        out.append(table(["plane", f"z [{ll}]", "between", f"V [{lf}]", f"Vx [{lf}]",
+                          f"Vy [{lf}]", f"M [{lm}]", "threads"], rows, "lrlrrrrl"))
+        out.append("")
+        member_total: dict[str, float] = {}
+        for pb in b.plies:
+            m = joint.plies[pb.ply].member
+            if m is not None:
+                member_total[m] = member_total.get(m, 0.0) + pb.force
+        rows = []
+        for pb in b.plies:
+            ply = joint.plies[pb.ply]
+            share = "-"
+            if ply.member is not None and member_total[ply.member] > 0:
+                share = f"{100 * pb.force / member_total[ply.member]:.1f} %"
+            rows.append([
+                ply.name, ply.member or "(filler)", fmt(ply.thickness / ln), fmt(pb.force / f),
+                fmt(pb.force_xy[0] / f), fmt(pb.force_xy[1] / f), share,
+            ])
+        out.append(table(["ply", "member", f"t [{ll}]", f"bearing [{lf}]", f"x [{lf}]",
+                          f"y [{lf}]", "share of member"], rows, "llrrrrr"))
+        out.append("")
+        out.append(f"max bolt moment: {fmt(b.max_moment / mo)} {lm} at z = "
+                   f"{fmt(b.max_moment_z / ln)} {ll}")
+    rows = []
+    for m in sol.members:
+        mem = joint.members[m.member]
+        if mem.support:
+            rows.append([mem.name, "support", fmt(m.reaction_xy[0] / f),
+                         fmt(m.reaction_xy[1] / f), "0", "0"])
+        else:
+            rows.append([mem.name, "loaded" if mem.is_loaded else "free",
+                         fmt(mem.load[0] / f), fmt(mem.load[1] / f),
+                         fmt(m.displacement_xy[0] / ln, 3), fmt(m.displacement_xy[1] / ln, 3)])
+    out.append("")
+    out.append(table(["member", "role", f"Fx [{lf}]", f"Fy [{lf}]", f"ux [{ll}]", f"uy [{ll}]"],
+                     rows, "llrrrr"))
+    out.append("")
+    out.append(equal_split_line(sol))
+    out.append(f"equilibrium residual: {sol.equilibrium_residual:.1e} (relative to the load)")
+    out.append("")
+    out.append(CAUTION)
+    return "\n".join(out)
+
+
+def equal_split_line(sol: Solution) -> str:
+    """Contrast the worst solved plane with the total load shared equally by the planes.
+
+    The "equal split" is the hand-method assumption: the loaded members' total
+    force divided by the number of planes that separate different members.
+    """
+    joint = sol.joint
+    u = _units.system(joint.units)
+    lf, f = u.label("force"), u.factor("force")
+    planes = [p for p in sol.planes if _separates(sol, p.above, p.below)]
+    total = sum(float((m.load[0] ** 2 + m.load[1] ** 2) ** 0.5) for m in joint.members)
+    if not planes or total == 0:
+        return "equal split: not applicable (no load or no plane between members)"
+    worst = max(sol.planes, key=lambda p: p.shear)
+    equal = total / len(planes)
+    ratio = worst.shear / equal
+    return (f"worst plane {worst.index}: {fmt(worst.shear / f)} {lf} = {ratio:.2f} x the equal "
+            f"split {fmt(total / f)} {lf} / {len(planes)} planes = {fmt(equal / f)} {lf}")
+
+
+def _separates(sol: Solution, above: int, below: int) -> bool:
+    plies = sol.joint.plies
+    a, b = plies[above].member, plies[below].member
+    return a is None or b is None or a != b
