@@ -46,7 +46,7 @@ _T_B_KN = {
 }
 _SIZE_MATCH_MM = 0.05  # how close (mm) d must be to a tabulated size
 #: Long-joint limit of J3.6: pattern length 38 in (printed metric: 965 mm).
-L_LONG_JOINT = 38.0 * INCH
+L_LONG_JOINT = 965.2  # 38 in x 25.4 mm/in, exact in decimal
 METHODS = ("lrfd", "asd")
 HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
 

@@ -95,15 +95,8 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
         elif kind == "m":
             u_ply[j] = y[i]
     de = np.concatenate([d[:-1], d[1:]], axis=1)  # (ne, 4, comp)
-    ke = sys.kel + sys.kbb
     u_el = np.where(mesh.ply[:, None] >= 0, u_ply[np.maximum(mesh.ply, 0)], 0.0)  # (ne, comp)
-    fe = np.einsum("eij,ejc->eic", ke, de) + sys.kbu[:, :, None] * u_el[:, None, :]
-    V = np.empty((nn, 2))
-    M = np.empty((nn, 2))
-    V[:-1] = -fe[:, 0]
-    M[:-1] = fe[:, 1]
-    V[-1] = fe[-1, 2]
-    M[-1] = -fe[-1, 3]
+    V, M = _internal_forces(sys, de, u_el, clamped=joint.bolt.ends == "clamped")
     w = d[:, 0, :]
 
     # Ply bearing: force the ply applies to the bolt is Σ(k L u + Kub d) per element.
@@ -154,6 +147,30 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
     bolt = BoltResult(x=0.0, z=mesh.z, V=V, M=M, w=w, q=q, planes=planes, plies=plies)
     return Solution(joint=joint, bolts=(bolt,), members=tuple(members),
                     equilibrium_residual=residual)
+
+
+def _internal_forces(sys: System, de: np.ndarray, u_el: np.ndarray,
+                     clamped: bool) -> tuple[np.ndarray, np.ndarray]:
+    """Return the bolt shear V and moment M at the nodes, shape (nn, 2) each.
+
+    Both follow from equilibrium of the foundation forces, element by element
+    from the head, where the bolt is free in translation (V = 0) and, unless
+    clamped, in rotation (M = 0). Working from the foundation forces rather
+    than from the beam stiffness times displacements avoids the cancellation
+    of very stiff short elements, so statics hold to round-off.
+    """
+    L = sys.mesh.lengths
+    ff = np.einsum("eij,ejc->eic", sys.kbb, de) + sys.kbu[:, :, None] * u_el[:, None, :]
+    nn = L.size + 1
+    V = np.zeros((nn, 2))
+    V[1:] = np.cumsum(ff[:, 0] + ff[:, 2], axis=0)
+    M = np.zeros((nn, 2))
+    if clamped:
+        M[0] = np.einsum("ij,jc->ic", sys.kel[0] + sys.kbb[0], de[0])[1] \
+            + sys.kbu[0, 1] * u_el[0]
+    step = L[:, None] * V[1:] - (ff[:, 1] + ff[:, 3] + L[:, None] * ff[:, 2])
+    M[1:] = M[0] + np.cumsum(step, axis=0)
+    return V, M
 
 
 def _residual(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,

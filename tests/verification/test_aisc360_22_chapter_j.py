@@ -265,6 +265,4 @@ def test_design_example_d7_pin_bearing_asd() -> None:
 
 def test_plastic_moment_of_solid_circle() -> None:
     # derived: Z = d³/6 for a solid circle; 1 in A36: 36 ksi * 1/6 in³ = 6.0 kip-in
-    assert aisc.M_p_circle(1.0 * IN, 36.0 * KSI) / (KIP * IN) == pytest.approx(
-        6.0, rel=REL_EXACT
-    )
+    assert aisc.M_p_circle(1.0 * IN, 36.0 * KSI) / (KIP * IN) == pytest.approx(6.0, rel=REL_EXACT)

@@ -84,7 +84,7 @@ def test_table_3_4_tension_m20_8_8() -> None:
 
 def test_table_3_4_combined_shear_tension_at_limit() -> None:
     # derived: Table 3.4: Fv/FvRd + Ft/(1.4 FtRd) = 0.5 + 0.7/1.4 = 1.0
-    ratio = ec.shear_tension_interaction(50.0, 100.0, 70.0, 50.0)
+    ratio = ec.shear_tension_interaction(50.0, 100.0, 70.0, 100.0)
     assert ratio == pytest.approx(1.0, rel=REL_EXACT)
 
 
