@@ -37,8 +37,10 @@ ELEMENTS = 10  # even: a node at the middle of the inner plate, where M peaks
 
 def _clevis(gap: float, k: float = K_SOFT) -> Solution:
     def ply(name: str, member: str, t: float, g: float) -> str:
-        return (f'[[ply]]\nname = "{name}"\nmember = "{member}"\nthickness = {t!r}\n'
-                f"gap = {g!r}\nfy = 355\nfu = 490\nfoundation_modulus = {k!r}\n")
+        return (
+            f'[[ply]]\nname = "{name}"\nmember = "{member}"\nthickness = {t!r}\n'
+            f"gap = {g!r}\nfy = 355\nfu = 490\nfoundation_modulus = {k!r}\n"
+        )
 
     text = (
         'format = 1\nunits = "N-mm"\n'
@@ -71,6 +73,7 @@ def test_table_3_10_pin_moment_uniform_bearing(gap: float) -> None:
 def test_table_3_10_clevis_plane_shears_are_half_the_load(gap: float) -> None:
     sol = _clevis(gap)
     # statics, symmetric clevis: each plane carries F/2
-    assert [p.shear for p in sol.bolts[0].planes] == pytest.approx([F / 2.0, F / 2.0],
-                                                                   rel=REL_STATICS)
+    assert [p.shear for p in sol.bolts[0].planes] == pytest.approx(
+        [F / 2.0, F / 2.0], rel=REL_STATICS
+    )
     assert sol.equilibrium_residual == pytest.approx(0.0, abs=REL_STATICS)

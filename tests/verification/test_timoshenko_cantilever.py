@@ -51,7 +51,7 @@ def _cantilever_tip(n: int, shear: bool) -> tuple[float, float]:
     k_el = beam.stiffness(ei, beam.phi_shear(ei, kga, lengths), lengths)
     k = np.zeros((2 * (n + 1), 2 * (n + 1)))
     for e in range(n):
-        k[2 * e:2 * e + 4, 2 * e:2 * e + 4] += k_el[e]
+        k[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += k_el[e]
     f = np.zeros(2 * (n + 1))
     f[-2] = P
     u = np.linalg.solve(k[2:, 2:], f[2:])  # node 0 clamped: w = θ = 0
@@ -89,8 +89,9 @@ def test_shear_deformation_matters_for_this_cantilever() -> None:
     # term for this stubby beam, so the two tests above tell Φ ≠ 0 from Φ = 0.
     w_t, _ = _cantilever_tip(4, shear=True)
     w_eb, _ = _cantilever_tip(4, shear=False)
-    assert w_t / w_eb - 1.0 == pytest.approx(3.0 * _ei() / (_kga() * LENGTH**2),
-                                             rel=REL_EXACT_ELEMENT)
+    assert w_t / w_eb - 1.0 == pytest.approx(
+        3.0 * _ei() / (_kga() * LENGTH**2), rel=REL_EXACT_ELEMENT
+    )
 
 
 def test_cowper_1966_shear_coefficient_solid_circle() -> None:
