@@ -48,9 +48,21 @@ class Mesh:
         return np.diff(self.z)
 
 
+#: Shortest element, as a fraction of the bolt diameter. Thin plies and narrow gaps
+#: get fewer elements than ``elements_per_ply`` so that no element is shorter: a very
+#: short element is far stiffer (12EI/h³) than its bearing (k·h), and the system's
+#: condition number grows as 1/h⁴. Within a ply this thin the bolt is straight anyway.
+MIN_ELEMENT_FRACTION = 1.0 / 40.0
+
+
 def build_mesh(joint: Joint) -> Mesh:
-    """Mesh the bolt through the stack of ``joint``."""
+    """Mesh the bolt through the stack of ``joint``.
+
+    Every ply and every gap gets ``elements_per_ply`` equal elements, fewer where
+    they would be shorter than :data:`MIN_ELEMENT_FRACTION` of the diameter.
+    """
     n = joint.analysis.elements_per_ply
+    h_min = MIN_ELEMENT_FRACTION * joint.bolt.diameter
     starts = joint.ply_starts()
     bolt = joint.bolt
     thread_z = bolt.thread_start if bolt.threads == "auto" else None
@@ -61,7 +73,8 @@ def build_mesh(joint: Joint) -> Mesh:
     for j, ply in enumerate(joint.plies):
         z0, z1 = float(starts[j]), float(starts[j] + ply.thickness)
         if ply.gap > 0:
-            m = 2 * ((n + 1) // 2)  # even, so the middle of the gap is a node
+            m = _count(n, z0 - prev_end, h_min)
+            m = 2 * ((m + 1) // 2)  # even, so the middle of the gap is a node
             seg = _segment(prev_end, z0, m, thread_z)
             pieces.append(seg[:-1])
             plies.append(np.full(seg.size - 1, -1))
@@ -69,7 +82,7 @@ def build_mesh(joint: Joint) -> Mesh:
                 plane_at.append(0.5 * (prev_end + z0))
         elif j > 0:
             plane_at.append(z0)
-        seg = _segment(z0, z1, n, thread_z)
+        seg = _segment(z0, z1, _count(n, ply.thickness, h_min), thread_z)
         pieces.append(seg[:-1])
         plies.append(np.full(seg.size - 1, j))
         prev_end = z1
@@ -80,6 +93,11 @@ def build_mesh(joint: Joint) -> Mesh:
         else np.full(mid.size, bolt.threaded_at(0.0))
     plane_nodes = np.array([int(np.argmin(np.abs(z - zp))) for zp in plane_at], dtype=int)
     return Mesh(z=z, ply=ply_of, threaded=threaded, plane_nodes=plane_nodes)
+
+
+def _count(n: int, length: float, h_min: float) -> int:
+    """Return n, or fewer elements so that none is shorter than ``h_min`` (at least 1)."""
+    return max(1, min(n, int(length / h_min)))
 
 
 def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:

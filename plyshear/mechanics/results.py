@@ -147,12 +147,14 @@ class Solution:
         members: One result per member.
         equilibrium_residual: Largest out-of-balance force of the solved
             system, relative to the applied load (round-off level when sound).
+        warnings: Things the engineer must know about this solution.
     """
 
     joint: Joint
     bolts: tuple[BoltResult, ...]
     members: tuple[MemberResult, ...]
     equilibrium_residual: float
+    warnings: tuple[str, ...] = ()
 
     @property
     def planes(self) -> tuple[PlaneShear, ...]:
@@ -219,4 +221,5 @@ class Solution:
                 for m in self.members
             ],
             "equilibrium_residual": self.equilibrium_residual,
+            "warnings": list(self.warnings),
         }

@@ -22,6 +22,11 @@ from plyshear.mechanics.results import (
 from plyshear.model.joint import Joint
 
 
+#: Above this equilibrium residual the solution is flagged: round-off amplified by
+#: an ill-conditioned system (extreme stiffness contrasts) has eaten the digits.
+RESIDUAL_WARN = 1e-6
+
+
 class SolveError(RuntimeError):
     """The system could not be solved (singular or not positive definite)."""
 
@@ -145,8 +150,12 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
                                     reaction_xy=(float(react[0]), float(react[1]))))
     residual = _residual(joint, sys, x, y, reaction)
     bolt = BoltResult(x=0.0, z=mesh.z, V=V, M=M, w=w, q=q, planes=planes, plies=plies)
+    warnings: list[str] = []
+    if not residual <= RESIDUAL_WARN:
+        warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
+                        "stiffness contrasts in the stack are extreme, treat results with care")
     return Solution(joint=joint, bolts=(bolt,), members=tuple(members),
-                    equilibrium_residual=residual)
+                    equilibrium_residual=residual, warnings=tuple(warnings))
 
 
 def _internal_forces(sys: System, de: np.ndarray, u_el: np.ndarray,

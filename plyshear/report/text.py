@@ -113,6 +113,7 @@ def solution_text(sol: Solution) -> str:
     out.append("")
     out.append(equal_split_line(sol))
     out.append(f"equilibrium residual: {sol.equilibrium_residual:.1e} (relative to the load)")
+    out += [f"WARNING: {w}" for w in sol.warnings]
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)
