@@ -21,7 +21,6 @@ from plyshear.mechanics.results import (
 )
 from plyshear.model.joint import Joint
 
-
 #: Above this equilibrium residual the solution is flagged: round-off amplified by
 #: an ill-conditioned system (extreme stiffness contrasts) has eaten the digits.
 RESIDUAL_WARN = 1e-6
