@@ -6,6 +6,7 @@ The stable Python API::
     joint = plyshear.load_model("models/x.toml")   # raises plyshear.ModelError
     sol = plyshear.solve(joint)                    # linear solution
     sol.to_dict()                                  # the JSON result
+    res = plyshear.check(joint, sol)               # .to_dict() gives the "check" section
 
 Imports are lazy so that ``plyshear --help`` starts without loading scipy.
 """
@@ -18,6 +19,7 @@ from typing import TYPE_CHECKING, Any
 __version__ = "0.1.0"
 
 if TYPE_CHECKING:
+    from plyshear.codes.check import CheckResult
     from plyshear.mechanics.results import Solution
     from plyshear.model.joint import Joint
 
@@ -26,6 +28,7 @@ __all__ = [
     "ModelError",
     "SolveError",
     "__version__",
+    "check",
     "load_model",
     "solve",
 ]
@@ -85,3 +88,21 @@ def solve(joint: Joint) -> Solution:
     from plyshear.mechanics.solve import solve as _solve
 
     return _solve(joint)
+
+
+def check(joint: Joint, solution: Solution, standard: str | None = None,
+          method: str | None = None) -> CheckResult:
+    """Check a solved joint against a design standard.
+
+    Args:
+        joint: The joint.
+        solution: Its solution.
+        standard: ``"aisc360-22"`` or ``"en1993-1-8"`` (default: the model's).
+        method: ``"lrfd"`` or ``"asd"`` for AISC (default: the model's).
+
+    Returns:
+        The check result; ``.to_dict()`` gives the JSON ``check`` section.
+    """
+    from plyshear.codes.check import check as _check
+
+    return _check(joint, solution, standard, method)

@@ -130,6 +130,46 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
         _write_plot(sol, target, force)
 
 
+@main.command("check")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("--standard", type=click.Choice(["aisc360-22", "en1993-1-8"]), default=None,
+              help="Design standard (default: the model's [check] standard).")
+@click.option("--method", type=click.Choice(["lrfd", "asd"]), default=None,
+              help="AISC method (default: the model's [check] method).")
+@click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its check.")
+@click.option("--plot", type=click.Path(dir_okay=False), default=None,
+              help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+def check_cmd(model: str, standard: str | None, method: str | None, as_json: bool,
+              plot: str | None, force: bool) -> None:
+    """Check every plane, ply and the bolt of MODEL against a design standard.
+
+    Exit code 0 when every item passes, 1 when one fails, 2 on bad input.
+    """
+    import plyshear
+
+    target = _plot_target(plot)
+    joint = _load(model)
+    sol = _solve(joint)
+    if method is not None and (standard or joint.check.standard) != "aisc360-22":
+        fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
+    try:
+        result = plyshear.check(joint, sol, standard, method)
+    except ValueError as exc:
+        fail(f"{model}: check: {exc}")
+    if as_json:
+        data = sol.to_dict()
+        data["check"] = result.to_dict()
+        click.echo(json.dumps(data, indent=2))
+    else:
+        from plyshear.report.text import check_text
+
+        click.echo(check_text(result, sol))
+    if target is not None:
+        _write_plot(sol, target, force)
+    sys.exit(0 if result.passes else 1)
+
+
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 def demo_cmd(as_json: bool) -> None:

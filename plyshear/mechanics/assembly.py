@@ -229,18 +229,19 @@ def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
     C = np.zeros((nm, nm))
     for a in range(4):
         for b in range(4):
-            i, j = edofs[:, a], edofs[:, b]
-            ok = (i >= 0) & (j >= 0) & (i <= j)
-            np.add.at(ab, (bw + i[ok] - j[ok], j[ok]), ke[ok, a, b])
+            rows, cols = edofs[:, a], edofs[:, b]
+            ok = (rows >= 0) & (cols >= 0) & (rows <= cols)
+            np.add.at(ab, (bw + rows[ok] - cols[ok], cols[ok]), ke[ok, a, b])
     # Bolt–ply coupling and ply–ply terms.
     kl = k_el * L
     for a in range(4):
-        i = edofs[:, a]
-        own_e = (tgt_kind == "a") & (i >= 0)
-        r, c = np.minimum(i[own_e], tgt_idx[own_e]), np.maximum(i[own_e], tgt_idx[own_e])
+        bdof = edofs[:, a]
+        own_e = (tgt_kind == "a") & (bdof >= 0)
+        r = np.minimum(bdof[own_e], tgt_idx[own_e])
+        c = np.maximum(bdof[own_e], tgt_idx[own_e])
         np.add.at(ab, (bw + r - c, c), kbu[own_e, a])
-        mem_e = (tgt_kind == "m") & (i >= 0)
-        np.add.at(B, (i[mem_e], tgt_idx[mem_e]), kbu[mem_e, a])
+        mem_e = (tgt_kind == "m") & (bdof >= 0)
+        np.add.at(B, (bdof[mem_e], tgt_idx[mem_e]), kbu[mem_e, a])
     own_e = tgt_kind == "a"
     np.add.at(ab, (bw, tgt_idx[own_e]), kl[own_e])
     mem_e = tgt_kind == "m"

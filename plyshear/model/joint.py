@@ -173,10 +173,25 @@ class CheckSettings:
     Attributes:
         standard: "aisc360-22" or "en1993-1-8".
         method: "lrfd" or "asd" (AISC only).
+        connector: "bolt" or "pin" (pins use the standards' pin rules).
+        deformation_considered: AISC J3.10: deformation at the bolt hole at
+            service load is a design consideration (2.4dtFu) or not (3.0dtFu).
+        fillers: "undeveloped" or "developed" (AISC J5.2; h_f of J3.8).
+        slip_critical: Check slip resistance (also when the bolt is pretensioned).
+        slip_class: Faying-surface class; None = the standard's lowest
+            (AISC Class A, EN Class D).
+        joint_length: Length of the bolt pattern along the force, mm, for the
+            long-joint rules (0 for a single bolt).
     """
 
     standard: str = "aisc360-22"
     method: str = "lrfd"
+    connector: str = "bolt"
+    deformation_considered: bool = True
+    fillers: str = "undeveloped"
+    slip_critical: bool = False
+    slip_class: str | None = None
+    joint_length: float = 0.0
 
 
 @dataclass(frozen=True)

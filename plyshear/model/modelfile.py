@@ -38,6 +38,8 @@ MAX_ELEMENTS_PER_PLY = 1000
 
 STANDARDS = ("aisc360-22", "en1993-1-8")
 METHODS = ("lrfd", "asd")
+#: Faying-surface classes: AISC 360-22 J3.8 (A, B); EN 1993-1-8 Table 3.7 (A to D).
+SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
 TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check")
 BOLT_KEYS = (
@@ -50,7 +52,8 @@ PLY_KEYS = (
 )
 MEMBER_KEYS = ("support", "load")
 ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam")
-CHECK_KEYS = ("standard", "method")
+CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
+              "slip_critical", "slip_class", "joint_length")
 
 
 class ModelError(ValueError):
@@ -420,4 +423,18 @@ def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
     r.only(c, CHECK_KEYS, "check")
     standard = r.choice(c.get("standard", "aisc360-22"), "check.standard", STANDARDS)
     method = r.choice(c.get("method", "lrfd"), "check.method", METHODS)
-    return CheckSettings(standard=standard, method=method)
+    connector = r.choice(c.get("connector", "bolt"), "check.connector", ("bolt", "pin"))
+    fillers = r.choice(c.get("fillers", "undeveloped"), "check.fillers",
+                       ("undeveloped", "developed"))
+    flags = {}
+    for key, default in (("deformation_considered", True), ("slip_critical", False)):
+        value = c.get(key, default)
+        if not isinstance(value, bool):
+            raise r.fail(f"check.{key}", f"must be true or false (got {_kind(value)})")
+        flags[key] = value
+    classes = SLIP_CLASSES[standard]
+    slip_class = r.choice(c["slip_class"], "check.slip_class", classes) \
+        if "slip_class" in c else None
+    length = r.positive(c.get("joint_length", 0), "check.joint_length", "length", zero_ok=True)
+    return CheckSettings(standard=standard, method=method, connector=connector,
+                         fillers=fillers, slip_class=slip_class, joint_length=length, **flags)

@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from plyshear import units as _units
+from plyshear.codes.check import CheckResult
 from plyshear.mechanics.results import Solution
 
 CAUTION = (
@@ -79,9 +80,9 @@ def solution_text(sol: Solution) -> str:
         out.append("")
         member_total: dict[str, float] = {}
         for pb in b.plies:
-            m = joint.plies[pb.ply].member
-            if m is not None:
-                member_total[m] = member_total.get(m, 0.0) + pb.force
+            owner = joint.plies[pb.ply].member
+            if owner is not None:
+                member_total[owner] = member_total.get(owner, 0.0) + pb.force
         rows = []
         for pb in b.plies:
             ply = joint.plies[pb.ply]
@@ -123,23 +124,64 @@ def equal_split_line(sol: Solution) -> str:
     """Contrast the worst solved plane with the total load shared equally by the planes.
 
     The "equal split" is the hand-method assumption: the loaded members' total
-    force divided by the number of planes that separate different members.
+    force divided by the number of planes between different members (a filler
+    pack between two members counts as one plane, as in the design tables).
     """
     joint = sol.joint
     u = _units.system(joint.units)
     lf, f = u.label("force"), u.factor("force")
-    planes = [p for p in sol.planes if _separates(sol, p.above, p.below)]
+    owners = [p.member for p in joint.plies if p.member is not None]
+    n_planes = sum(1 for a, b in zip(owners, owners[1:], strict=False) if a != b)
     total = sum(float((m.load[0] ** 2 + m.load[1] ** 2) ** 0.5) for m in joint.members)
-    if not planes or total == 0:
+    if n_planes == 0 or total == 0:
         return "equal split: not applicable (no load or no plane between members)"
     worst = max(sol.planes, key=lambda p: p.shear)
-    equal = total / len(planes)
+    equal = total / n_planes
     ratio = worst.shear / equal
     return (f"worst plane {worst.index}: {fmt(worst.shear / f)} {lf} = {ratio:.2f} x the equal "
-            f"split {fmt(total / f)} {lf} / {len(planes)} planes = {fmt(equal / f)} {lf}")
+            f"split {fmt(total / f)} {lf} / {n_planes} planes = {fmt(equal / f)} {lf}")
 
 
-def _separates(sol: Solution, above: int, below: int) -> bool:
-    plies = sol.joint.plies
-    a, b = plies[above].member, plies[below].member
-    return a is None or b is None or a != b
+def check_text(result: CheckResult, solution: Solution) -> str:
+    """Return the terminal table of a design check, sorted by utilization.
+
+    The governing item is marked ``<< governing``; informative items (outside the
+    standard's text) are marked ``(info)`` and do not decide pass or fail.
+    """
+    u = _units.system(result.units)
+    gov = result.governing
+    rows = []
+    for item in result.sorted_items():
+        if item.dimension == "ratio":
+            demand, capacity, unit = fmt(item.demand, 3), fmt(item.capacity, 3), ""
+        else:
+            k = u.factor(item.dimension)
+            demand, capacity = fmt(item.demand / k), fmt(item.capacity / k)
+            unit = u.label(item.dimension)
+        util = item.utilization
+        flag = "<< governing" if item is gov else ("(info)" if item.informative else "")
+        if util > 1.0 and not item.informative:
+            flag = ("FAILS " + flag).strip()
+        rows.append([item.what, item.place(result.units), demand, capacity, unit,
+                     f"{util:.3f}" if util != float("inf") else "inf", item.clause, flag])
+    method = {"lrfd": "LRFD", "asd": "ASD"}.get(result.method, "partial factors")
+    title = solution.joint.title or (solution.joint.source or "joint")
+    capacity_word = {"lrfd": "design strength", "asd": "allowable strength"}.get(
+        result.method, "design resistance")
+    out = [title, f"check: {result.edition}, {method} (capacity = {capacity_word})", ""]
+    out.append(table(["check", "where", "demand", "capacity", "unit", "util.", "clause", ""],
+                     rows, "llrrlrll"))
+    out.append("")
+    if gov is not None:
+        verdict = "PASSES" if result.passes else "FAILS"
+        out.append(f"{verdict}: governing {gov.what} at {gov.place(result.units)}, utilization "
+                   f"{gov.utilization:.3f} ({gov.clause})")
+    out.append(equal_split_line(solution))
+    for note in result.notes:
+        out.append(f"note: {note}")
+    out += [f"WARNING: {w}" for w in solution.warnings]
+    out.append("Demands are the model's loads as given: factored for LRFD and EN, "
+               "service-level for ASD.")
+    out.append("")
+    out.append(CAUTION)
+    return "\n".join(out)

@@ -1,0 +1,260 @@
+"""Check a solved joint against a design standard.
+
+Every demand comes from the stiffness solution: each plane's own shear, each
+ply's own bearing, the bolt's solved moment diagram; never from an assumed
+equal split. The standard is passed in; there is no global "current standard".
+
+The result is a list of :class:`CheckItem` (what, where, demand, capacity,
+utilization, clause) and the governing item. Items marked ``informative`` are
+reported but lie outside the standard's text; they do not decide pass or fail.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+
+from plyshear import units as _units
+from plyshear.codes.clause import Clause
+from plyshear.mechanics.results import BoltResult, Solution
+from plyshear.model.joint import Joint
+
+STANDARDS = ("aisc360-22", "en1993-1-8")
+#: Planes whose shear is below this fraction of the load transfer nothing (slip).
+SLIP_PLANE_MIN_SHARE = 1e-6
+
+
+@dataclass(frozen=True)
+class CheckItem:
+    """One limit state at one place.
+
+    Attributes:
+        what: The limit state, e.g. ``"bolt shear"``, ``"bearing"``.
+        where: ``"plane 2"``, ``"ply fork-outer-1"`` or ``"bolt"``.
+        demand: Required strength (N, N·mm) or, for an interaction, its value.
+        capacity: Design / allowable strength in the same unit, or 1.0.
+        dimension: ``"force"``, ``"moment"`` or ``"ratio"`` (for unit conversion).
+        clauses: Citation records of the clauses used.
+        informative: True when the item lies outside the standard's text.
+        note: A short remark shown beside the item.
+        z: Position along the bolt, mm, for items on the bolt's diagram.
+    """
+
+    what: str
+    where: str
+    demand: float
+    capacity: float
+    dimension: str
+    clauses: tuple[Clause, ...]
+    informative: bool = False
+    note: str = ""
+    z: float | None = None
+
+    def place(self, units: str) -> str:
+        """Return ``where``, with the position along the bolt in ``units``."""
+        if self.z is None:
+            return self.where
+        return f"{self.where} at z = {length_str(units, self.z)}"
+
+    @property
+    def utilization(self) -> float:
+        """Demand over capacity (inf if the capacity is zero)."""
+        if self.capacity <= 0.0:
+            return float("inf") if self.demand > 0 else 0.0
+        return self.demand / self.capacity
+
+    @property
+    def clause(self) -> str:
+        """The clause references, without the standard's name."""
+        seen: list[str] = []
+        for c in self.clauses:
+            if c.ref not in seen:
+                seen.append(c.ref)
+        return "; ".join(seen)
+
+
+@dataclass(frozen=True)
+class CheckResult:
+    """All checks of one joint to one standard.
+
+    Attributes:
+        standard: ``"aisc360-22"`` or ``"en1993-1-8"``.
+        method: ``"lrfd"``, ``"asd"`` or ``"partial-factors"`` (EN).
+        edition: The standard with its edition, as printed.
+        items: Every check item.
+        notes: Assumptions and omissions the engineer must know.
+        units: Unit system of the output.
+    """
+
+    standard: str
+    method: str
+    edition: str
+    items: tuple[CheckItem, ...]
+    notes: tuple[str, ...] = field(default_factory=tuple)
+    units: str = "N-mm"
+
+    @property
+    def governing(self) -> CheckItem | None:
+        """The normative item with the largest utilization."""
+        normative = [i for i in self.items if not i.informative]
+        return max(normative, key=lambda i: i.utilization) if normative else None
+
+    @property
+    def passes(self) -> bool:
+        """True when every normative item has utilization ≤ 1."""
+        return all(i.utilization <= 1.0 for i in self.items if not i.informative)
+
+    def sorted_items(self) -> list[CheckItem]:
+        """Items by utilization, largest first."""
+        return sorted(self.items, key=lambda i: -i.utilization)
+
+    def to_dict(self) -> dict[str, Any]:
+        """Return the contract's ``check`` section, in the joint's units."""
+        u = _units.system(self.units)
+
+        def conv(value: float, dim: str) -> float:
+            return value if dim == "ratio" else value / u.factor(dim)
+
+        gov = self.governing
+        return {
+            "standard": self.standard,
+            "method": self.method,
+            "edition": self.edition,
+            "items": [
+                {"what": i.what, "where": i.place(self.units),
+                 "demand": conv(i.demand, i.dimension),
+                 "capacity": conv(i.capacity, i.dimension),
+                 "utilization": _finite(i.utilization), "clause": i.clause,
+                 "unit": "" if i.dimension == "ratio" else u.label(i.dimension),
+                 "informative": i.informative, "note": i.note}
+                for i in self.sorted_items()
+            ],
+            "governing": None if gov is None else {
+                "what": gov.what, "where": gov.place(self.units),
+                "utilization": _finite(gov.utilization),
+                "clause": gov.clause},
+            "passes": self.passes,
+            "notes": list(self.notes),
+        }
+
+
+def _finite(value: float) -> float | None:
+    return value if np.isfinite(value) else None
+
+
+def check(joint: Joint, solution: Solution, standard: str | None = None,
+          method: str | None = None) -> CheckResult:
+    """Check every plane, ply and the bolt of a solved joint.
+
+    Args:
+        joint: The joint.
+        solution: Its solution (demands at the design load level of the method:
+            factored for LRFD and EN, service for ASD).
+        standard: ``"aisc360-22"`` or ``"en1993-1-8"``; the model's by default.
+        method: ``"lrfd"`` or ``"asd"`` (AISC); the model's by default.
+
+    Returns:
+        The :class:`CheckResult`.
+    """
+    standard = standard or joint.check.standard
+    method = method or joint.check.method
+    if standard == "aisc360-22":
+        from plyshear.codes import check_aisc
+
+        return check_aisc.check(joint, solution, method)
+    if standard == "en1993-1-8":
+        from plyshear.codes import check_en
+
+        return check_en.check(joint, solution)
+    raise ValueError(f"unknown standard '{standard}'; known: {', '.join(STANDARDS)}")
+
+
+# Helpers shared by the standards ------------------------------------------------
+
+
+def packs(joint: Joint) -> list[tuple[list[int], float]]:
+    """Return the filler packs: runs of consecutive filler plies and their thickness, mm."""
+    out: list[tuple[list[int], float]] = []
+    run: list[int] = []
+    for j, ply in enumerate(joint.plies + (None,)):  # type: ignore[operator]
+        if ply is not None and ply.is_filler:
+            run.append(j)
+        elif run:
+            out.append((run, sum(joint.plies[i].thickness for i in run)))
+            run = []
+    return out
+
+
+def pack_at_plane(joint: Joint, above: int, below: int) -> float:
+    """Return the thickness of the filler pack that a plane bounds (0 if none), mm."""
+    for members, t in packs(joint):
+        if above in members or below in members:
+            return t
+    return 0.0
+
+
+def separates_members(joint: Joint, above: int, below: int) -> bool:
+    """True if a plane lies between plies that can move relative to each other."""
+    a, b = joint.plies[above].member, joint.plies[below].member
+    return a is None or b is None or a != b
+
+
+def slip_planes(joint: Joint, bolt: BoltResult) -> int:
+    """Count the planes that transfer load between different members or packs."""
+    load = max((float(np.hypot(*m.load)) for m in joint.members), default=0.0)
+    return sum(1 for p in bolt.planes if separates_members(joint, p.above, p.below)
+               and p.shear > SLIP_PLANE_MIN_SHARE * load)
+
+
+def transferred_force(joint: Joint, bolt: BoltResult) -> float:
+    """The largest force one member passes through the bolt, N (slip demand)."""
+    totals: dict[str, np.ndarray] = {}
+    for pb in bolt.plies:
+        m = joint.plies[pb.ply].member
+        if m is not None:
+            totals[m] = totals.get(m, np.zeros(2)) + np.array(pb.force_xy)
+    return max((float(np.hypot(*v)) for v in totals.values()), default=0.0)
+
+
+def bolt_section_diameter(joint: Joint, threaded: bool) -> float:
+    """Diameter of the bolt section: the shank, or the stress-area equivalent, mm."""
+    if threaded:
+        return float(np.sqrt(4.0 * joint.bolt.stress_area / np.pi))
+    return joint.bolt.diameter
+
+
+def node_threads(joint: Joint, bolt: BoltResult) -> np.ndarray:
+    """Whether the bolt is threaded at each node."""
+    return np.array([joint.bolt.threaded_at(float(z)) for z in bolt.z])
+
+
+def resultants(values: np.ndarray) -> np.ndarray:
+    """Resultant magnitudes of (n, 2) vectors."""
+    return np.hypot(values[:, 0], values[:, 1])
+
+
+def length_str(units: str, value: float) -> str:
+    """Format a length given in mm in the unit system ``units``."""
+    u = _units.system(units)
+    return f"{value / u.factor('length'):.4g} {u.label('length')}"
+
+
+def force_str(units: str, value: float) -> str:
+    """Format a force given in N in the unit system ``units``."""
+    u = _units.system(units)
+    return f"{value / u.factor('force'):.4g} {u.label('force')}"
+
+
+def geometry_notes(joint: Joint) -> list[str]:
+    """Notes on what the model file leaves to assumption."""
+    notes = []
+    if joint.bolt.threads_assumed:
+        notes.append("thread position unknown (no bolt.length): threads assumed in every "
+                     "plane, which is conservative")
+    for ply in joint.plies:
+        if ply.edge is None and not ply.is_filler:
+            notes.append(f"ply {ply.name}: no edge distance given; tear-out and edge "
+                         "effects not checked")
+    return notes

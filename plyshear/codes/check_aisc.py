@@ -1,0 +1,214 @@
+"""AISC 360-22 checks of a solved joint (LRFD or ASD).
+
+Per plane: bolt shear (J3.6, Table J3.2) with threads included or excluded from
+the geometry, the J5.2 filler factor on planes that bound a filler pack, the
+long-joint factor. Per ply: bearing and tear-out (J3.10) with the ply's own
+solved bearing force, or pin bearing (J7). The bolt: tension and combined
+tension–shear (J3.7), slip (J3.8), and, as an informative item outside the
+standard's text, bending against the plastic moment of the bolt section.
+"""
+
+from __future__ import annotations
+
+from plyshear.codes import aisc360 as aisc
+from plyshear.codes.check import (
+    CheckItem,
+    CheckResult,
+    bolt_section_diameter,
+    force_str,
+    geometry_notes,
+    length_str,
+    node_threads,
+    pack_at_plane,
+    packs,
+    resultants,
+    slip_planes,
+    transferred_force,
+)
+from plyshear.codes.clause import Clause, cited
+from plyshear.mechanics.results import BoltResult, Solution
+from plyshear.model import catalog
+from plyshear.model.joint import Joint
+
+PHI_BOLT, OMEGA_BOLT = 0.75, 2.00  # J3.6, J3.7, J3.10 and J7
+PHI_FLEXURE, OMEGA_FLEXURE = 0.90, 1.67  # F1, used for the informative bending item
+MU = {"A": 0.30, "B": 0.50}  # J3.8 Class A and Class B surfaces
+
+
+def _noun(joint: Joint) -> str:
+    return "pin" if joint.check.connector == "pin" else "bolt"
+
+
+def check(joint: Joint, solution: Solution, method: str) -> CheckResult:
+    """Check ``joint`` to AISC 360-22 by ``method`` ("lrfd" or "asd")."""
+    notes = geometry_notes(joint)
+    grade = catalog.fastener(joint.bolt.grade)
+    group = grade.aisc_group if grade.key != "A307" else "A307"
+    if group is None:
+        notes.append(f"grade {grade.key} is not an ASTM structural bolt: Table J3.2 "
+                     "threaded-part strengths with Fu = fub are used")
+    else:
+        notes.append(f"bolt group: {aisc.EDITION_GROUP_NAMES.get(group, group)} "
+                     f"(model key {grade.key})")
+    items: list[CheckItem] = []
+    for bolt in solution.bolts:
+        items += _shear(joint, bolt, method, group, notes)
+        items += _bearing(joint, bolt, method)
+        items += _bolt_items(joint, bolt, method, group, notes)
+    return CheckResult(standard="aisc360-22", method=method, edition=aisc.STANDARD,
+                       items=tuple(items), notes=tuple(dict.fromkeys(notes)),
+                       units=joint.units)
+
+
+def _avail(rn: float, method: str, phi: float = PHI_BOLT, omega: float = OMEGA_BOLT) -> float:
+    return aisc.available(rn, method, phi, omega)
+
+
+def _fnv(group: str | None, fub: float, threads: bool) -> tuple[float, Clause]:
+    if group is None:
+        fnv = aisc.F_nv_threaded_part(fub, threads_excluded=not threads)
+        return fnv, cited(aisc.F_nv_threaded_part)
+    return aisc.F_nv(group, threads_excluded=not threads), cited(aisc.F_nv)
+
+
+def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
+           notes: list[str]) -> list[CheckItem]:
+    b = joint.bolt
+    ab = b.gross_area  # J3.6: nominal unthreaded body area, also through threads
+    items = []
+    long_factor = aisc.long_joint_factor(joint.check.joint_length) \
+        if joint.check.joint_length > 0 else 1.0
+    developed = joint.check.fillers == "developed"
+    for p in bolt.planes:
+        fnv, fnv_clause = _fnv(group, b.fub, p.threads)
+        clauses = [cited(aisc.R_n_shear), fnv_clause]
+        rn = aisc.R_n_shear(fnv, ab) * long_factor
+        if long_factor < 1.0:
+            clauses.append(cited(aisc.long_joint_factor))
+        note = "threads included" if p.threads else "threads excluded"
+        t_pack = pack_at_plane(joint, p.above, p.below)
+        if t_pack > 0:
+            try:
+                factor = aisc.filler_factor(t_pack, developed=developed)
+            except ValueError as exc:
+                items.append(CheckItem("filler thickness", f"plane {p.index}", t_pack,
+                                       19.05, "length", (cited(aisc.filler_factor),),
+                                       note=str(exc)))
+                factor = 1.0
+            rn *= factor
+            clauses.append(cited(aisc.filler_factor))
+            note += f", filler {length_str(joint.units, t_pack)}: factor {factor:.3f}"
+        items.append(CheckItem(f"{_noun(joint)} shear", f"plane {p.index}", p.shear,
+                               _avail(rn, method), "force", tuple(clauses), note=note))
+    if packs(joint) and not developed:
+        notes.append("fillers taken as not developed (J5.2); set [check] fillers = "
+                     "\"developed\" if they are extended and bolted or welded")
+    return items
+
+
+def _hole(joint: Joint) -> float:
+    d = joint.bolt.diameter
+    try:
+        return catalog.hole_diameter(d, joint.bolt.hole, "aisc360-22")
+    except catalog.CatalogError:
+        return d + (1.0 / 16.0 * aisc.INCH if catalog.is_inch_size(d) else 2.0)
+
+
+def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
+    b = joint.bolt
+    pin = joint.check.connector == "pin"
+    long_slot = b.hole == "long-slot"
+    deform = joint.check.deformation_considered
+    dh = _hole(joint)
+    items = []
+    for pb in bolt.plies:
+        ply = joint.plies[pb.ply]
+        if ply.is_filler:
+            continue
+        where = f"ply {ply.name}"
+        if pin:
+            rn = aisc.R_n_pin_bearing(ply.thickness * b.diameter, ply.fy)
+            items.append(CheckItem("pin bearing", where, pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_pin_bearing),)))
+        else:
+            rn = aisc.R_n_bearing(b.diameter, ply.thickness, ply.fu, deform, long_slot)
+            note = "deformation at service considered" if deform else "deformation not considered"
+            items.append(CheckItem("bearing", where, pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_bearing),), note=note))
+        if ply.edge is not None:
+            lc = aisc.l_c_edge(ply.edge, dh) if ply.edge > dh / 2 else 0.0
+            rn = aisc.R_n_tearout(lc, ply.thickness, ply.fu, deform, long_slot) if lc > 0 else 0.0
+            items.append(CheckItem("tear-out", where, pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_tearout), cited(aisc.l_c_edge)),
+                                   note=f"lc = {length_str(joint.units, lc)}, hole "
+                                        f"{length_str(joint.units, dh)}"))
+    return items
+
+
+def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
+                notes: list[str]) -> list[CheckItem]:
+    b = joint.bolt
+    items = []
+    # Bending: informative, the plastic moment of the section where M is largest.
+    m = resultants(bolt.M)
+    i = int(m.argmax())
+    threaded = bool(node_threads(joint, bolt)[i])
+    mp = aisc.M_p_circle(bolt_section_diameter(joint, threaded), b.fyb)
+    items.append(CheckItem(
+        f"{_noun(joint)} bending", "bolt", float(m[i]),
+        _avail(mp, method, PHI_FLEXURE, OMEGA_FLEXURE), "moment", (cited(aisc.M_p_circle),),
+        informative=True, z=float(bolt.z[i]),
+        note="outside the standard's text: plastic moment of the "
+             + ("threaded" if threaded else "shank") + " section, phi 0.90 / Omega 1.67"))
+    # Tension and combined tension and shear (J3.7).
+    if b.tension > 0:
+        fnt = aisc.F_nt(group) if group is not None else aisc.F_nt_threaded_part(b.fub)
+        worst = max(bolt.planes, key=lambda p: p.shear)
+        fnv, _ = _fnv(group, b.fub, worst.threads)
+        frv = worst.shear / b.gross_area
+        fnt_p = aisc.F_nt_prime(fnt, fnv, frv, method, PHI_BOLT, OMEGA_BOLT)
+        items.append(CheckItem("bolt tension", "bolt", b.tension,
+                               _avail(fnt * b.gross_area, method), "force",
+                               (cited(aisc.F_nt),)))
+        items.append(CheckItem("tension + shear", f"bolt, plane {worst.index}", b.tension,
+                               _avail(fnt_p * b.gross_area, method), "force",
+                               (cited(aisc.F_nt_prime),), note=f"frv = {frv:.0f} MPa"))
+    # Slip (J3.8).
+    if joint.check.slip_critical or b.pretension > 0:
+        items += _slip(joint, bolt, method, group, notes)
+    return items
+
+
+def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
+          notes: list[str]) -> list[CheckItem]:
+    b = joint.bolt
+    tb = b.pretension
+    if tb <= 0:
+        if group not in ("A", "B"):
+            notes.append("slip not checked: no pretension given and Table J3.1 covers "
+                         "Group A and B bolts only")
+            return []
+        try:
+            tb = aisc.T_b_min(b.diameter, group)
+        except ValueError as exc:
+            notes.append(f"slip not checked: {exc}")
+            return []
+    surface = joint.check.slip_class or "A"
+    n_fillers = sum(len(run) for run, _ in packs(joint))
+    hf = aisc.h_f(n_fillers, developed=joint.check.fillers == "developed")
+    ns = slip_planes(joint, bolt)
+    if ns == 0:
+        return []
+    rn = aisc.R_n_slip(MU[surface], tb, ns, hf)
+    clauses = [cited(aisc.R_n_slip), cited(aisc.h_f)]
+    if b.tension > 0:
+        rn *= aisc.k_sc(b.tension, tb, 1, method)
+        clauses.append(cited(aisc.k_sc))
+    avail = _avail(rn, method, aisc.phi_slip(b.hole), aisc.omega_slip(b.hole))
+    return [CheckItem("slip", "bolt", transferred_force(joint, bolt), avail, "force",
+                      tuple(clauses),
+                      note=f"Class {surface}, mu {MU[surface]}, Tb {force_str(joint.units, tb)}, "
+                           f"ns {ns}, hf {hf}")]
+
+
+__all__ = ["check"]

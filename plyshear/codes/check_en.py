@@ -1,0 +1,197 @@
+"""EN 1993-1-8:2005 checks of a solved joint (partial factors γM0, γM2, γM3).
+
+Per plane: shear resistance (Table 3.4) through the threads (A_s, αv by class)
+or the shank (gross area, αv 0.6), times βp for a plane that bounds a pack
+(3.6.1(12)) and βLf for long joints (3.8). Per ply: bearing (Table 3.4, k1 and
+αb from the ply's edge distance and width). Pins (3.13, Table 3.10): shear,
+bearing, bending and the bending–shear interaction along the solved moment
+diagram. Bolts: tension and its interaction with shear, slip (3.9); bending and
+its interaction as informative items.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from plyshear.codes import en1993_1_8 as en
+from plyshear.codes.check import (
+    CheckItem,
+    CheckResult,
+    bolt_section_diameter,
+    force_str,
+    geometry_notes,
+    length_str,
+    node_threads,
+    pack_at_plane,
+    resultants,
+    slip_planes,
+    transferred_force,
+)
+from plyshear.codes.clause import cited
+from plyshear.mechanics.results import BoltResult, Solution
+from plyshear.model import catalog
+from plyshear.model.joint import Joint
+
+SURFACE_DEFAULT = "D"  # Table 3.7: the lowest class, when none is given
+
+
+def _noun(joint: Joint) -> str:
+    return "pin" if joint.check.connector == "pin" else "bolt"
+
+
+def check(joint: Joint, solution: Solution) -> CheckResult:
+    """Check ``joint`` to EN 1993-1-8:2005 with the recommended partial factors."""
+    notes = geometry_notes(joint)
+    grade = joint.bolt.grade
+    if grade not in en.BOLT_CLASSES:
+        notes.append(f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
+                     "alpha_v taken as for class 10.9 (0.5 through threads)")
+    items: list[CheckItem] = []
+    for bolt in solution.bolts:
+        items += _shear(joint, bolt)
+        items += _bearing(joint, bolt)
+        items += _bolt_items(joint, bolt, notes)
+    return CheckResult(standard="en1993-1-8", method="partial-factors", edition=en.STANDARD,
+                       items=tuple(items), notes=tuple(dict.fromkeys(notes)),
+                       units=joint.units)
+
+
+def _alpha_v(grade: str, threads: bool) -> float:
+    if grade in en.BOLT_CLASSES:
+        return en.alpha_v(grade, threads)
+    return en.alpha_v("10.9", threads)
+
+
+def plane_resistance(joint: Joint, threads: bool) -> tuple[float, list]:
+    """Return F_v,Rd of one plane (N) and the clauses used, before βp and βLf."""
+    b = joint.bolt
+    area = b.stress_area if threads else b.gross_area
+    if joint.check.connector == "pin":
+        return en.F_v_Rd_pin(area, b.fub), [cited(en.F_v_Rd_pin)]
+    return en.F_v_Rd(_alpha_v(b.grade, threads), b.fub, area), [cited(en.alpha_v), cited(en.F_v_Rd)]
+
+
+def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
+    d = joint.bolt.diameter
+    length = joint.check.joint_length
+    beta_lf = en.beta_Lf(length, d) if length > 15 * d else 1.0
+    items = []
+    for p in bolt.planes:
+        frd, clauses = plane_resistance(joint, p.threads)
+        note = "through threads (As)" if p.threads else "through shank (gross area)"
+        tp = pack_at_plane(joint, p.above, p.below)
+        if tp > 0:
+            bp = en.beta_p(d, tp)
+            frd *= bp
+            clauses.append(cited(en.beta_p))
+            note += f", pack {length_str(joint.units, tp)}: beta_p {bp:.3f}"
+        if beta_lf < 1.0:
+            frd *= beta_lf
+            clauses.append(cited(en.beta_Lf))
+            note += f", beta_Lf {beta_lf:.3f}"
+        items.append(CheckItem(f"{_noun(joint)} shear", f"plane {p.index}", p.shear, frd, "force",
+                               tuple(clauses), note=note))
+    return items
+
+
+def _hole(joint: Joint) -> float:
+    d = joint.bolt.diameter
+    try:
+        return catalog.hole_diameter(d, joint.bolt.hole, "en1993-1-8")
+    except catalog.CatalogError:
+        return d + 2.0
+
+
+def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
+    b = joint.bolt
+    d0 = _hole(joint)
+    items = []
+    for pb in bolt.plies:
+        ply = joint.plies[pb.ply]
+        if ply.is_filler:
+            continue
+        where = f"ply {ply.name}"
+        if joint.check.connector == "pin":
+            frd = en.F_b_Rd_pin(ply.thickness, b.diameter, ply.fy)
+            items.append(CheckItem("pin bearing", where, pb.force, frd, "force",
+                                   (cited(en.F_b_Rd_pin),)))
+            continue
+        e2 = ply.width / 2.0 if ply.width is not None else None
+        try:
+            if ply.edge is not None:
+                ab = en.alpha_b(ply.edge, None, d0, b.fub, ply.fu, end_bolt=True)
+            else:
+                ab = min(b.fub / ply.fu, 1.0)
+            k1 = en.k_1(e2, None, d0, edge_bolt=e2 is not None)
+        except ValueError as exc:
+            items.append(CheckItem("edge distance", where, en.e_min(d0),
+                                   min(v for v in (ply.edge, e2) if v is not None), "length",
+                                   (cited(en.e_min),), note=str(exc)))
+            continue
+        factor = en.bearing_hole_factor(b.hole)
+        frd = en.F_b_Rd(k1, ab, ply.fu, b.diameter, ply.thickness) * factor
+        clauses = [cited(en.alpha_b), cited(en.k_1), cited(en.F_b_Rd)]
+        if factor < 1.0:
+            clauses.append(cited(en.bearing_hole_factor))
+        items.append(CheckItem("bearing", where, pb.force, frd, "force", tuple(clauses),
+                               note=f"k1 {k1:.2f}, alpha_b {ab:.2f}, "
+                                    f"d0 {length_str(joint.units, d0)}"))
+    return items
+
+
+def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckItem]:
+    b = joint.bolt
+    pin = joint.check.connector == "pin"
+    items = []
+    # Bending and bending + shear along the bolt (Table 3.10; for bolts informative).
+    m = resultants(bolt.M)
+    v = resultants(bolt.V)
+    threads = node_threads(joint, bolt)
+    mrd = np.array([en.M_Rd_pin(bolt_section_diameter(joint, bool(t)), b.fyb) for t in threads])
+    vrd = np.array([plane_resistance(joint, bool(t))[0] for t in threads])
+    i = int(np.argmax(m / mrd))
+    informative = not pin
+    tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
+    items.append(CheckItem(f"{_noun(joint)} bending", "bolt", float(m[i]),
+                           float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
+                           informative=informative, z=float(bolt.z[i]),
+                           note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
+    inter = np.array([en.pin_interaction(m[k], mrd[k], v[k], vrd[k]) for k in range(m.size)])
+    k = int(np.argmax(inter))
+    items.append(CheckItem("bending + shear", "bolt",
+                           float(inter[k]), 1.0, "ratio", (cited(en.pin_interaction),),
+                           informative=informative, z=float(bolt.z[k]),
+                           note="(M/MRd)^2 + (Fv/FvRd)^2" + tail))
+    # Tension and combined (Table 3.4).
+    if b.tension > 0:
+        ftrd = en.F_t_Rd(b.fub, b.stress_area)
+        items.append(CheckItem("bolt tension", "bolt", b.tension, ftrd, "force",
+                               (cited(en.F_t_Rd),)))
+        worst = max(bolt.planes, key=lambda p: p.shear / plane_resistance(joint, p.threads)[0])
+        fvrd = plane_resistance(joint, worst.threads)[0]
+        value = en.shear_tension_interaction(worst.shear, fvrd, b.tension, ftrd)
+        items.append(CheckItem("tension + shear", f"bolt, plane {worst.index}", value, 1.0,
+                               "ratio", (cited(en.shear_tension_interaction),)))
+    # Slip (3.9).
+    if joint.check.slip_critical or b.pretension > 0:
+        fpc = b.pretension if b.pretension > 0 else en.F_p_C(b.fub, b.stress_area)
+        surface = joint.check.slip_class or SURFACE_DEFAULT
+        mu = en.mu_class(surface)
+        n = slip_planes(joint, bolt)
+        if n > 0:
+            ks = en.k_s(b.hole if b.hole != "standard" else "normal")
+            if b.tension > 0:
+                frd = en.F_s_Rd_with_tension(ks, n, mu, fpc, b.tension)
+                clauses = (cited(en.F_s_Rd_with_tension), cited(en.k_s), cited(en.mu_class))
+            else:
+                frd = en.F_s_Rd(ks, n, mu, fpc)
+                clauses = (cited(en.F_s_Rd), cited(en.k_s), cited(en.mu_class))
+            items.append(CheckItem("slip", "bolt", transferred_force(joint, bolt), frd, "force",
+                                   clauses, note=f"Class {surface}, mu {mu}, "
+                                   f"Fp,C {force_str(joint.units, fpc)}, n {n}, ks {ks}"))
+        if b.pretension <= 0:
+            notes.append("slip: preload taken as Fp,C = 0.7 fub As (3.9.1(2))")
+    return items
+
+
+__all__ = ["check", "plane_resistance"]
