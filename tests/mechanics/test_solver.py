@@ -22,10 +22,9 @@ from plyshear.model import modelfile
 from tests.conftest import FORK, MODELS
 
 REL_ROUNDOFF = 1e-9  # statics hold exactly; this allows round-off only
-# Round-off amplified by the condition number of a nearly rigid bolt: a 20 mm bolt
-# through 1 mm plies meshed in 0.25 mm elements has K entries of 1e12 N/mm against
-# bearing springs of 1e4 N/mm, so the bolt rows carry residuals of eps * 1e12 * u.
-REL_STATICS_STIFF = 1e-6
+# A nearly rigid bolt on soft bearing (1 mm plies, 10 MPa springs) leaves bolt-row
+# residuals of eps * |K| * |u|, far above eps * load; the solver must then warn.
+RESIDUAL_WARN = 1e-6
 ABS_ROUNDOFF_N = 1e-6  # N, for components that statics makes zero
 REL_MESH = 1e-3  # DESIGN.md: doubling the mesh changes plane shears by < 0.1 %
 RESIDUAL_MAX = 1e-10
@@ -73,9 +72,9 @@ def test_determinate_stack_gives_statics_for_any_stiffness(case) -> None:
     expected = np.cumsum(on_ply, axis=0)[:-1]
     scale = np.abs(applied).max()
     for plane, ref in zip(sol.planes, expected, strict=True):
-        assert plane.shear_xy == pytest.approx(ref, rel=REL_STATICS_STIFF,
-                                               abs=REL_STATICS_STIFF * scale)
-    assert sol.equilibrium_residual < REL_STATICS_STIFF
+        assert plane.shear_xy == pytest.approx(ref, rel=REL_ROUNDOFF, abs=REL_ROUNDOFF * scale)
+    assert sol.equilibrium_residual < RESIDUAL_WARN or any(
+        "ill-conditioned" in w for w in sol.warnings)
 
 
 def test_gusset_example_is_determinate() -> None:
