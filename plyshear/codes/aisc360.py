@@ -532,7 +532,7 @@ def l_c_inner(pitch: float, d_hole: float) -> float:
 
 
 @clause(STANDARD, "J5.2(b)")
-def filler_factor(t: float, developed: bool = False) -> float:
+def filler_factor(t: float, developed: bool = False, form: str = "si") -> float:
     r"""Reduction of bolt shear strength for fillers in bearing-type connections.
 
     No reduction up to 6 mm (1/4 in) or for developed fillers (extended and
@@ -542,18 +542,27 @@ def filler_factor(t: float, developed: bool = False) -> float:
 
     .. math:: f = 1 - 0.0154\,(t - 6) \ge 0.85 \qquad (6 < t \le 19\ \text{mm})
 
+    The standard prints the factor in both unit forms; ``form = "us"`` uses
+    1 − 0.4(t − 0.25) with t in inches (no reduction up to 1/4 in exactly).
+
     Args:
         t: Total thickness of the fillers in the shear plane's load path, mm (>= 0).
         developed: True when the fillers are developed.
+        form: ``"si"`` (t in mm form) or ``"us"`` (t in inches form).
 
     Returns:
         The factor on the bolt shear strength, dimensionless, in [0.85, 1].
     """
     _non_negative(t=t)
+    if form not in ("si", "us"):
+        raise ValueError(f"form must be 'si' or 'us', got {form!r}")
+    if t > 0.75 * INCH and not developed:
+        raise ValueError(f"filler t = {t} mm > 3/4 in (19 mm): such fillers must be developed")
+    if form == "us":
+        t_in = t / INCH
+        return 1.0 if developed or t_in <= 0.25 else max(0.85, 1.0 - 0.4 * (t_in - 0.25))
     if developed or t <= 6.0:
         return 1.0
-    if t > 0.75 * INCH:
-        raise ValueError(f"filler t = {t} mm > 3/4 in (19 mm): such fillers must be developed")
     return max(0.85, 1.0 - 0.0154 * (t - 6.0))
 
 

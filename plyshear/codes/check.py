@@ -157,9 +157,19 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
 
     Returns:
         The :class:`CheckResult`.
+
+    Raises:
+        ValueError: For an unknown standard, or a slip class given for another
+            standard.
     """
     standard = standard or joint.check.standard
     method = method or joint.check.method
+    if standard != joint.check.standard and joint.check.slip_class is not None:
+        # The classes share letters but not friction coefficients (AISC Class A is
+        # mu 0.30, EN Class A is mu 0.5): never carry one across.
+        raise ValueError(f"check.slip_class '{joint.check.slip_class}' is a class of "
+                         f"{joint.check.standard}, not of {standard}; check with the "
+                         "model's standard or change [check]")
     if standard == "aisc360-22":
         from plyshear.codes import check_aisc
 
@@ -202,10 +212,24 @@ def separates_members(joint: Joint, above: int, below: int) -> bool:
 
 
 def slip_planes(joint: Joint, bolt: BoltResult) -> int:
-    """Count the planes that transfer load between different members or packs."""
+    """Count the slip planes that transfer load.
+
+    A slip plane lies between consecutive plies of different members; a filler
+    pack between them is transparent (its two faces act in series: slip on
+    either lets the joint slip), so it adds no plane. A plane counts when the
+    bolt shear across it is not negligible.
+    """
     load = max((float(np.hypot(*m.load)) for m in joint.members), default=0.0)
-    return sum(1 for p in bolt.planes if separates_members(joint, p.above, p.below)
-               and p.shear > SLIP_PLANE_MIN_SHARE * load)
+    shear = {(p.above, p.below): p.shear for p in bolt.planes}
+    real = [j for j, p in enumerate(joint.plies) if not p.is_filler]
+    count = 0
+    for a, b in zip(real, real[1:], strict=False):
+        if joint.plies[a].member == joint.plies[b].member:
+            continue
+        across = min(shear[(j, j + 1)] for j in range(a, b))
+        if across > SLIP_PLANE_MIN_SHARE * load:
+            count += 1
+    return count
 
 
 def transferred_force(joint: Joint, bolt: BoltResult) -> float:

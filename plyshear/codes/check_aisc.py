@@ -78,18 +78,22 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     items = []
     long_factor = aisc.long_joint_factor(joint.check.joint_length) \
         if joint.check.joint_length > 0 else 1.0
+    grip_factor = aisc.A307_long_grip_factor(joint.grip, b.diameter) if group == "A307" else 1.0
     developed = joint.check.fillers == "developed"
     for p in bolt.planes:
         fnv, fnv_clause = _fnv(group, b.fub, p.threads)
         clauses = [cited(aisc.R_n_shear), fnv_clause]
-        rn = aisc.R_n_shear(fnv, ab) * long_factor
+        rn = aisc.R_n_shear(fnv, ab) * long_factor * grip_factor
         if long_factor < 1.0:
             clauses.append(cited(aisc.long_joint_factor))
+        if grip_factor < 1.0:
+            clauses.append(cited(aisc.A307_long_grip_factor))
         note = "threads included" if p.threads else "threads excluded"
         t_pack = pack_at_plane(joint, p.above, p.below)
         if t_pack > 0:
             try:
-                factor = aisc.filler_factor(t_pack, developed=developed)
+                form = "us" if joint.units == "kip-in" else "si"
+                factor = aisc.filler_factor(t_pack, developed=developed, form=form)
             except ValueError as exc:
                 items.append(CheckItem("filler thickness", f"plane {p.index}", t_pack,
                                        19.05, "length", (cited(aisc.filler_factor),),
@@ -194,6 +198,7 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
             notes.append(f"slip not checked: {exc}")
             return []
     surface = joint.check.slip_class or "A"
+
     n_fillers = sum(len(run) for run, _ in packs(joint))
     hf = aisc.h_f(n_fillers, developed=joint.check.fillers == "developed")
     ns = slip_planes(joint, bolt)

@@ -112,7 +112,8 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             continue
         where = f"ply {ply.name}"
         if joint.check.connector == "pin":
-            frd = en.F_b_Rd_pin(ply.thickness, b.diameter, ply.fy)
+            # Table 3.10: fy is the lower of the pin's and the plate's yield strength
+            frd = en.F_b_Rd_pin(ply.thickness, b.diameter, min(ply.fy, b.fyb))
             items.append(CheckItem("pin bearing", where, pb.force, frd, "force",
                                    (cited(en.F_b_Rd_pin),)))
             continue

@@ -111,40 +111,74 @@ def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
 
 
 @dataclass(frozen=True)
+class Layout:
+    """The numbering of one bolt's unknowns and the law-independent parts of its system.
+
+    Attributes:
+        mesh: The mesh.
+        na: Number of unknowns in the banded block ``A`` (bolt and own ply DOFs).
+        nm: Number of free-member unknowns (the border).
+        bw: Upper bandwidth of ``A``.
+        bolt_dof: Index into ``A`` of (w, θ) per node, FIXED where restrained,
+            shape (nn, 2).
+        edofs: The four ``A`` indices of each element, shape (ne, 4).
+        target: For each ply, ("a", i) its own DOF in A, ("m", i) a free member
+            DOF, or ("0", −1) a supported member.
+        tgt_kind, tgt_idx: ``target`` per element ("-" and FIXED in gaps).
+        member_dof: Free-member DOF index per member, FIXED for supported ones.
+        links: (ply, own DOF, member DOF or FIXED, stiffness) of each elastic link.
+        loads: Member loads on the border, shape (nm, 2) (x and y).
+        kel: Beam stiffness of each element, shape (ne, 4, 4).
+        phi: Φ of each element.
+    """
+
+    mesh: Mesh
+    na: int
+    nm: int
+    bw: int
+    bolt_dof: np.ndarray
+    edofs: np.ndarray
+    target: tuple[tuple[str, int], ...]
+    tgt_kind: np.ndarray
+    tgt_idx: np.ndarray
+    member_dof: np.ndarray
+    links: tuple[tuple[int, int, int, float], ...]
+    loads: np.ndarray
+    kel: np.ndarray
+    phi: np.ndarray
+
+
+@dataclass(frozen=True)
 class System:
     """The assembled linear system of one bolt.
 
     Attributes:
-        mesh: The mesh.
-        ab: Upper banded storage of block ``A`` (bolt and own ply DOFs),
-            shape (bw + 1, nA), for :func:`scipy.linalg.cholesky_banded`.
-        B: Coupling of ``A`` DOFs to the free member DOFs, shape (nA, nm).
+        layout: The numbering.
+        ab: Upper banded storage of block ``A``, shape (bw + 1, na), for
+            :func:`scipy.linalg.cholesky_banded`.
+        B: Coupling of ``A`` DOFs to the free member DOFs, shape (na, nm).
         C: Member–member block, shape (nm, nm).
-        loads: Member loads, shape (nm, 2) (x and y).
-        bolt_dof: Index into ``A`` of (w, θ) per node, FIXED where restrained,
-            shape (nn, 2).
-        target: For each ply, ("a", i) its own DOF in A, ("m", i) a free member
-            DOF, or ("0", −1) a supported member.
-        member_dof: Free-member DOF index per member, FIXED for supported ones.
-        link_dof: For each elastically linked ply, (member DOF or FIXED).
         k: Foundation modulus per ply, MPa.
-        EI, phi: Section bending stiffness and Φ per element.
-        kbb, kbu, kel: Element foundation and beam matrices, kept for results.
+        kbb, kbu: Element foundation matrices, kept for the results.
     """
 
-    mesh: Mesh
+    layout: Layout
     ab: np.ndarray
     B: np.ndarray
     C: np.ndarray
-    loads: np.ndarray
-    bolt_dof: np.ndarray
-    target: tuple[tuple[str, int], ...]
-    member_dof: np.ndarray
-    link_dof: np.ndarray
     k: np.ndarray
-    kel: np.ndarray
     kbb: np.ndarray
     kbu: np.ndarray
+
+    @property
+    def mesh(self) -> Mesh:
+        """The mesh."""
+        return self.layout.mesh
+
+    @property
+    def loads(self) -> np.ndarray:
+        """Member loads on the border, shape (nm, 2)."""
+        return self.layout.loads
 
 
 def section(joint: Joint, mesh: Mesh) -> tuple[np.ndarray, np.ndarray]:
@@ -161,15 +195,21 @@ def section(joint: Joint, mesh: Mesh) -> tuple[np.ndarray, np.ndarray]:
     return EI, beam.phi_shear(EI, kGA, mesh.lengths)
 
 
-def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
-    """Assemble the banded system of ``joint``.
+def ply_moduli(joint: Joint) -> np.ndarray:
+    """Return the linear foundation modulus of every ply, MPa."""
+    return np.array([bearing.modulus(joint.analysis.bearing, joint.bolt, p)
+                     for p in joint.plies])
+
+
+def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
+    """Number the unknowns of ``joint`` and compute the beam stiffness.
 
     Args:
         joint: The joint.
         mesh: A mesh to reuse; built from the joint when omitted.
 
     Returns:
-        The :class:`System`.
+        The :class:`Layout`.
     """
     mesh = mesh or build_mesh(joint)
     nn = mesh.z.size
@@ -185,17 +225,15 @@ def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
             nm += 1
 
     # Numbering of A: bolt DOFs by node; a ply's own DOF after its last node.
-    last_node = np.zeros(nplies, dtype=int)
-    for j in range(nplies):
-        last_node[j] = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
     own = [p.is_filler or p.link_stiffness is not None for p in joint.plies]
-    bolt_dof = np.empty((nn, 2), dtype=int)
-    target: list[tuple[str, int]] = [("0", FIXED)] * nplies
-    next_dof = 0
     own_after: dict[int, list[int]] = {}
     for j in range(nplies):
         if own[j]:
-            own_after.setdefault(int(last_node[j]), []).append(j)
+            last_node = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
+            own_after.setdefault(last_node, []).append(j)
+    bolt_dof = np.empty((nn, 2), dtype=int)
+    target: list[tuple[str, int]] = [("0", FIXED)] * nplies
+    next_dof = 0
     for node in range(nn):
         bolt_dof[node] = (next_dof, next_dof + 1)
         next_dof += 2
@@ -209,64 +247,115 @@ def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
             assert ply.member is not None
             md = member_dof[midx[ply.member]]
             target[j] = ("m", int(md)) if md != FIXED else ("0", FIXED)
-    na = next_dof
-
-    L = mesh.lengths
-    EI, phi = section(joint, mesh)
-    kel = beam.stiffness(EI, phi, L)
-    kply = np.array([bearing.modulus(joint.analysis.bearing, joint.bolt, p) for p in joint.plies])
-    k_el = np.where(mesh.ply >= 0, kply[np.maximum(mesh.ply, 0)], 0.0)
-    kbb, kbu = beam.foundation(k_el, phi, L)
-    ke = kel + kbb
-
-    # Scatter element matrices into A (upper band).
+    links = tuple(
+        (j, target[j][1], int(member_dof[midx[ply.member]]), ply.link_stiffness)
+        for j, ply in enumerate(joint.plies)
+        if ply.link_stiffness is not None and ply.member is not None
+    )
     edofs = np.concatenate([bolt_dof[:-1], bolt_dof[1:]], axis=1)  # (ne, 4)
     tgt_kind = np.array([target[j][0] if j >= 0 else "-" for j in mesh.ply])
     tgt_idx = np.array([target[j][1] if j >= 0 else FIXED for j in mesh.ply])
     bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx))
-    ab = np.zeros((bw + 1, na))
-    B = np.zeros((na, nm))
-    C = np.zeros((nm, nm))
+    loads = np.zeros((nm, 2))
+    for i, m in enumerate(members):
+        if member_dof[i] != FIXED:
+            loads[member_dof[i]] = m.load
+    EI, phi = section(joint, mesh)
+    kel = beam.stiffness(EI, phi, mesh.lengths)
+    return Layout(mesh=mesh, na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof, edofs=edofs,
+                  target=tuple(target), tgt_kind=tgt_kind, tgt_idx=tgt_idx,
+                  member_dof=member_dof, links=links, loads=loads, kel=kel, phi=phi)
+
+
+def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
+            kuu: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Assemble the beam and the given foundation matrices into (ab, B, C).
+
+    Args:
+        lay: The numbering.
+        kbb: Foundation bolt–bolt block of each element, shape (ne, 4, 4).
+        kbu: Foundation bolt–ply coupling of each element, shape (ne, 4).
+        kuu: Foundation ply–ply term of each element, shape (ne,).
+
+    Returns:
+        The upper-banded block ``A``, the border ``B`` and the block ``C``.
+    """
+    bw, edofs, kind, idx = lay.bw, lay.edofs, lay.tgt_kind, lay.tgt_idx
+    ke = lay.kel + kbb
+    ab = np.zeros((bw + 1, lay.na))
+    B = np.zeros((lay.na, lay.nm))
+    C = np.zeros((lay.nm, lay.nm))
     for a in range(4):
         for b in range(4):
             rows, cols = edofs[:, a], edofs[:, b]
             ok = (rows >= 0) & (cols >= 0) & (rows <= cols)
             np.add.at(ab, (bw + rows[ok] - cols[ok], cols[ok]), ke[ok, a, b])
     # Bolt–ply coupling and ply–ply terms.
-    kl = k_el * L
     for a in range(4):
         bdof = edofs[:, a]
-        own_e = (tgt_kind == "a") & (bdof >= 0)
-        r = np.minimum(bdof[own_e], tgt_idx[own_e])
-        c = np.maximum(bdof[own_e], tgt_idx[own_e])
+        own_e = (kind == "a") & (bdof >= 0)
+        r = np.minimum(bdof[own_e], idx[own_e])
+        c = np.maximum(bdof[own_e], idx[own_e])
         np.add.at(ab, (bw + r - c, c), kbu[own_e, a])
-        mem_e = (tgt_kind == "m") & (bdof >= 0)
-        np.add.at(B, (bdof[mem_e], tgt_idx[mem_e]), kbu[mem_e, a])
-    own_e = tgt_kind == "a"
-    np.add.at(ab, (bw, tgt_idx[own_e]), kl[own_e])
-    mem_e = tgt_kind == "m"
-    np.add.at(C, (tgt_idx[mem_e], tgt_idx[mem_e]), kl[mem_e])
+        mem_e = (kind == "m") & (bdof >= 0)
+        np.add.at(B, (bdof[mem_e], idx[mem_e]), kbu[mem_e, a])
+    own_e = kind == "a"
+    np.add.at(ab, (bw, idx[own_e]), kuu[own_e])
+    mem_e = kind == "m"
+    np.add.at(C, (idx[mem_e], idx[mem_e]), kuu[mem_e])
     # Elastic links between a ply's own DOF and its member.
-    link_dof = np.full(nplies, FIXED)
-    for j, ply in enumerate(joint.plies):
-        if ply.link_stiffness is None:
-            continue
-        assert ply.member is not None
-        pj = target[j][1]
-        md = member_dof[midx[ply.member]]
-        link_dof[j] = md
-        ab[bw, pj] += ply.link_stiffness
+    for _, pj, md, stiffness in lay.links:
+        ab[bw, pj] += stiffness
         if md != FIXED:
-            C[md, md] += ply.link_stiffness
-            B[pj, md] -= ply.link_stiffness
+            C[md, md] += stiffness
+            B[pj, md] -= stiffness
+    return ab, B, C
 
-    loads = np.zeros((nm, 2))
-    for i, m in enumerate(members):
-        if member_dof[i] != FIXED:
-            loads[member_dof[i]] = m.load
-    return System(mesh=mesh, ab=ab, B=B, C=C, loads=loads, bolt_dof=bolt_dof,
-                  target=tuple(target), member_dof=member_dof, link_dof=link_dof, k=kply,
-                  kel=kel, kbb=kbb, kbu=kbu)
+
+def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
+    """Assemble the banded linear system of ``joint``.
+
+    Args:
+        joint: The joint.
+        mesh: A mesh to reuse; built from the joint when omitted.
+
+    Returns:
+        The :class:`System`.
+    """
+    lay = layout(joint, mesh)
+    kply = ply_moduli(joint)
+    mesh = lay.mesh
+    k_el = np.where(mesh.ply >= 0, kply[np.maximum(mesh.ply, 0)], 0.0)
+    kbb, kbu = beam.foundation(k_el, lay.phi, mesh.lengths)
+    ab, B, C = scatter(lay, kbb, kbu, k_el * mesh.lengths)
+    return System(layout=lay, ab=ab, B=B, C=C, k=kply, kbb=kbb, kbu=kbu)
+
+
+def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
+                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Spread solved unknowns onto the elements.
+
+    Args:
+        lay: The numbering.
+        x: ``A`` unknowns, shape (na, c) for c components.
+        y: Member unknowns, shape (nm, c).
+
+    Returns:
+        ``(de, u_el, u_ply)``: element bolt DOFs (ne, 4, c), the displacement
+        of the body each element bears against (ne, c), and per ply (np, c).
+    """
+    c = x.shape[1]
+    ed = lay.edofs
+    de = np.where((ed >= 0)[:, :, None], x[np.maximum(ed, 0)], 0.0)
+    u_ply = np.zeros((len(lay.target), c))
+    for j, (kind, i) in enumerate(lay.target):
+        if kind == "a":
+            u_ply[j] = x[i]
+        elif kind == "m":
+            u_ply[j] = y[i]
+    ply = lay.mesh.ply
+    u_el = np.where(ply[:, None] >= 0, u_ply[np.maximum(ply, 0)], 0.0)
+    return de, u_el, u_ply
 
 
 def _element_bandwidth(edofs: np.ndarray) -> int:

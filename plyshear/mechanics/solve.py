@@ -10,7 +10,7 @@ from __future__ import annotations
 import numpy as np
 from scipy.linalg import cho_factor, cho_solve, cho_solve_banded, cholesky_banded
 
-from plyshear.mechanics.assembly import FIXED, System, assemble
+from plyshear.mechanics.assembly import FIXED, System, assemble, element_displacements
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.results import (
     BoltResult,
@@ -85,21 +85,8 @@ def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray]:
 def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solution:
     mesh = sys.mesh
     nn = mesh.z.size
-    # Bolt nodal displacements (w, θ) for both directions.
-    dof = sys.bolt_dof
-    d = np.zeros((nn, 2, 2))  # node, (w, θ), component
-    for c in range(2):
-        d[:, 0, c] = np.where(dof[:, 0] >= 0, x[np.maximum(dof[:, 0], 0), c], 0.0)
-        d[:, 1, c] = np.where(dof[:, 1] >= 0, x[np.maximum(dof[:, 1], 0), c], 0.0)
-    # Displacement of the body each ply bears against.
-    u_ply = np.zeros((len(joint.plies), 2))
-    for j, (kind, i) in enumerate(sys.target):
-        if kind == "a":
-            u_ply[j] = x[i]
-        elif kind == "m":
-            u_ply[j] = y[i]
-    de = np.concatenate([d[:-1], d[1:]], axis=1)  # (ne, 4, comp)
-    u_el = np.where(mesh.ply[:, None] >= 0, u_ply[np.maximum(mesh.ply, 0)], 0.0)  # (ne, comp)
+    de, u_el, u_ply = element_displacements(sys.layout, x, y)
+    d = np.concatenate([de[:, :2], de[-1:, 2:]], axis=0)  # node, (w, θ), component
     L = mesh.lengths
     # Foundation forces on the element DOFs; their w-sum is the force the bolt applies
     # to the ply over the element.
@@ -142,7 +129,7 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
             reaction[midx[ply.member]] += on_bolt[j]
     members = []
     for i, m in enumerate(joint.members):
-        md = sys.member_dof[i]
+        md = sys.layout.member_dof[i]
         disp = y[md] if md != FIXED else np.zeros(2)
         react = reaction[i] if m.support else np.zeros(2)
         members.append(MemberResult(member=i, displacement_xy=(float(disp[0]), float(disp[1])),
@@ -169,7 +156,7 @@ def _balance_supports(joint: Joint, sys: System, ff: np.ndarray) -> None:
     gives the statics shears to round-off) and changes nothing a sound solve
     would show.
     """
-    held = np.array([kind == "0" for kind, _ in sys.target])
+    held = np.array([kind == "0" for kind, _ in sys.layout.target])
     if not held.any():
         return
     ply = sys.mesh.ply
@@ -197,7 +184,7 @@ def _internal_forces(sys: System, ff: np.ndarray, de: np.ndarray, u_el: np.ndarr
     V[1:] = np.cumsum(ff[:, 0] + ff[:, 2], axis=0)
     M = np.zeros((nn, 2))
     if clamped:
-        M[0] = np.einsum("ij,jc->ic", sys.kel[0] + sys.kbb[0], de[0])[1] \
+        M[0] = np.einsum("ij,jc->ic", sys.layout.kel[0] + sys.kbb[0], de[0])[1] \
             + sys.kbu[0, 1] * u_el[0]
     step = L[:, None] * V[1:] - (ff[:, 1] + ff[:, 3] + L[:, None] * ff[:, 2])
     M[1:] = M[0] + np.cumsum(step, axis=0)
