@@ -170,6 +170,73 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     sys.exit(0 if result.passes else 1)
 
 
+def _summarize(joint: Any) -> Any:
+    from plyshear.mechanics.capacity import CapacityError, summarize
+
+    try:
+        return _guard(lambda: summarize(joint))
+    except CapacityError as exc:
+        fail(f"{joint.source}: capacity: {exc}")
+
+
+def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
+    """The JSON ``capacity`` section, in the joint's units."""
+    from plyshear import units
+
+    u = units.system(joint.units)
+    f, ln = u.factor("force"), u.factor("length")
+
+    def answer(a: Any) -> dict[str, Any]:
+        where = a.where if a.z is None else f"{a.where} at z = {a.z / ln:.4g} {u.label('length')}"
+        return {"load": a.load / f, "event": a.event, "where": where}
+
+    hist = summary.analysis.history
+    return {
+        "planes": summary.planes,
+        "plane_strength": summary.plane_strength / f,
+        "elastic": answer(summary.elastic),
+        "nonlinear": answer(summary.nonlinear),
+        "plastic": {"load": summary.plastic.load / f, "cut": list(summary.cut)},
+        "efficiency": {k: summary.efficiency(getattr(summary, k).load)
+                       for k in ("elastic", "nonlinear", "plastic")},
+        "bearing": joint.analysis.bearing,
+        "clearance": joint.analysis.clearance,
+        "curve": {"slip": [s.slip / ln for s in hist], "load": [s.load / f for s in hist],
+                  "plane_shear": [[v / f for v in s.plane_shear] for s in hist]},
+    }
+
+
+@main.command("capacity")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its capacity.")
+@click.option("--plot", type=click.Path(dir_okay=False), default=None,
+              help="Write the load-slip curve and plane shears against load.")
+@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
+    """Find the ultimate capacity of MODEL: elastic, nonlinear and plastic.
+
+    Nominal strengths, no resistance factors. The bearing law is the model's
+    [analysis] bearing (a nonlinear law such as "plate-bearing" for redistribution).
+    """
+    target = _plot_target(plot)
+    joint = _load(model)
+    summary = _summarize(joint)
+    if as_json:
+        data = _solve(joint).to_dict(diagram=False)
+        data["capacity"] = capacity_dict(summary, joint)
+        click.echo(json.dumps(data, indent=2))
+    else:
+        from plyshear.report.text import capacity_text
+
+        click.echo(capacity_text(summary, joint))
+    if target is not None:
+        from plyshear.report import diagrams
+
+        fig = diagrams.capacity_figure(summary, joint)
+        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
+        click.echo(f"figure written to {target[0]}", err=True)
+
+
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 def demo_cmd(as_json: bool) -> None:

@@ -4,9 +4,11 @@ A law returns the foundation modulus of a ply, k (N/mm of force per mm of bolt
 length per mm of relative displacement, i.e. MPa), which the assembly spreads
 over the ply thickness. A ply's own ``foundation_modulus`` overrides the law.
 
-To add a law: write a function ``(bolt, ply) -> float`` here, citing its
+To add a linear law: write a function ``(bolt, ply) -> float`` here, citing its
 source, add it to :data:`LAWS`, and add its name to
-:data:`plyshear.model.joint.BEARING_LAWS` so model files may name it.
+:data:`plyshear.model.joint.BEARING_LAWS` so model files may name it. Nonlinear
+laws live in :mod:`plyshear.mechanics.laws`; their initial slope serves the
+linear solve.
 """
 
 from __future__ import annotations
@@ -57,7 +59,19 @@ LAWS: dict[str, Callable[[Bolt, Ply], float]] = {"component": component}
 
 
 def modulus(law: str, bolt: Bolt, ply: Ply) -> float:
-    """Return the foundation modulus of ``ply``, MPa: its override, else the law's."""
-    if ply.foundation_modulus is not None:
-        return ply.foundation_modulus
-    return LAWS[law](bolt, ply)
+    """Return the linear foundation modulus of ``ply``, MPa.
+
+    The ply's override, else the law's. A nonlinear law (see
+    :mod:`plyshear.mechanics.laws`) contributes its initial slope; the elastic
+    parts of those laws start from the component stiffness.
+    """
+    k_component = ply.foundation_modulus if ply.foundation_modulus is not None \
+        else LAWS["component"](bolt, ply)
+    if law in LAWS:
+        return ply.foundation_modulus if ply.foundation_modulus is not None \
+            else LAWS[law](bolt, ply)
+    from plyshear.mechanics import laws
+
+    if law in ("elastic-plastic",):
+        return k_component
+    return laws.curve(law, bolt, ply, k_component).k0

@@ -277,7 +277,7 @@ def rex_easterling_peak() -> tuple[float, float]:
     r"""Return the peak (x*, R/R_n at x*) of the Rex & Easterling normalised curve.
 
     Setting the slope to zero, :math:`1.74/(1+\sqrt{x})^3 = 0.009`, gives
-    :math:`x^* = ((1.74/0.009)^{1/3} - 1)^2 \approx 22.86` and R/R_n ≈ 0.9845.
+    :math:`x^* = ((1.74/0.009)^{1/3} - 1)^2 \approx 22.87` and R/R_n ≈ 0.9844.
 
     Returns:
         (x*, R(x*)/R_n), both dimensionless.
@@ -299,7 +299,7 @@ def curve(law: str, bolt: Bolt, ply: Ply, k_linear: float) -> BearingCurve:
       tied to (AISC 360-22 Commentary J3.10).
     * ``"plate-bearing"``: Rex & Easterling (2003), :class:`PlateBearingCurve`
       with K_i from :func:`rex_easterling_stiffness` and R_n from
-      :func:`nominal_bearing`. q_max is the curve's peak, 0.9845·R_n/t.
+      :func:`nominal_bearing`. q_max is the curve's peak, 0.9844·R_n/t.
       delta_limit = min(1/4 in, Δ at the peak): the curve is normalised by a
       nominal strength tied to 1/4 in of hole elongation, and past the peak
       the ply softens (a plyshear choice, not the paper's).

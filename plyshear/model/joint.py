@@ -22,7 +22,8 @@ THREAD_MODES = ("auto", "included", "excluded")
 END_FIXITIES = ("free", "clamped")
 HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
 #: Bearing-law names a model file may give; plyshear.mechanics.bearing implements each.
-BEARING_LAWS = ("component",)
+BEARING_LAWS = ("component", "elastic-plastic", "plate-bearing", "bolt-shear")
+CLEARANCE_MODES = ("fitted", "concentric", "offset")
 
 
 @dataclass(frozen=True)
@@ -110,6 +111,8 @@ class Ply:
         foundation_modulus: Override of the bearing law: stiffness per unit
             thickness, MPa; None = use the analysis' bearing law.
         link_stiffness: Elastic link to the member, N/mm; None = rigid link.
+        hole_offset: Offset of the ply's hole centre from the bolt axis along
+            the load, mm (used with ``[analysis] clearance = "offset"``).
     """
 
     name: str
@@ -124,6 +127,7 @@ class Ply:
     width: float | None = None
     foundation_modulus: float | None = None
     link_stiffness: float | None = None
+    hole_offset: float = 0.0
 
     @property
     def is_filler(self) -> bool:
@@ -159,11 +163,17 @@ class Analysis:
         bearing: Bearing-law name (see :mod:`plyshear.mechanics.bearing`).
         elements_per_ply: Bolt elements inside each ply and each gap.
         beam: "timoshenko" or "euler-bernoulli".
+        clearance: Hole clearance in the capacity analysis: "fitted" (every ply
+            bears from the start), "concentric" or "offset".
+        hole_clearance: Diametral hole clearance, mm; None = from the hole
+            table of the check standard for the bolt's hole type.
     """
 
     bearing: str = "component"
     elements_per_ply: int = 10
     beam: str = "timoshenko"
+    clearance: str = "fitted"
+    hole_clearance: float | None = None
 
 
 @dataclass(frozen=True)

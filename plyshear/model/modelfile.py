@@ -20,6 +20,7 @@ from plyshear.model import catalog
 from plyshear.model.joint import (
     BEAM_THEORIES,
     BEARING_LAWS,
+    CLEARANCE_MODES,
     END_FIXITIES,
     HOLE_TYPES,
     THREAD_MODES,
@@ -48,10 +49,10 @@ BOLT_KEYS = (
 )
 PLY_KEYS = (
     "name", "member", "thickness", "steel", "fy", "fu", "gap", "edge", "width",
-    "foundation_modulus", "link_stiffness", "E",
+    "foundation_modulus", "link_stiffness", "E", "hole_offset",
 )
 MEMBER_KEYS = ("support", "load")
-ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam")
+ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
               "slip_critical", "slip_class", "joint_length")
 
@@ -359,13 +360,14 @@ def _ply(r: _Reader, raw: Any, i: int) -> Ply:
                    zero_ok=True)
     link = r.positive(p.get("link_stiffness", 0), f"{key}.link_stiffness", "stiffness",
                       zero_ok=True)
+    offset = r.quantity(p.get("hole_offset", 0), f"{key}.hole_offset", "length")
     if link > 0 and member is None:
         raise r.fail(f"{key}.link_stiffness", "a filler ply (no member) has no link")
     return Ply(name=name, member=member, thickness=t, fy=fy, fu=fu,
                E=e_mod if e_mod is not None else 210000.0, steel=steel_key, gap=gap,
                edge=edge,
                width=width, foundation_modulus=k if k > 0 else None,
-               link_stiffness=link if link > 0 else None)
+               link_stiffness=link if link > 0 else None, hole_offset=offset)
 
 
 def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...]) -> tuple[Member, ...]:
@@ -416,7 +418,11 @@ def _analysis(r: _Reader, a: Mapping[str, Any]) -> Analysis:
         raise r.fail("analysis.elements_per_ply",
                      f"must lie in 1..{MAX_ELEMENTS_PER_PLY} (got {n})")
     beam = r.choice(a.get("beam", "timoshenko"), "analysis.beam", BEAM_THEORIES)
-    return Analysis(bearing=bearing, elements_per_ply=n, beam=beam)
+    clearance = r.choice(a.get("clearance", "fitted"), "analysis.clearance", CLEARANCE_MODES)
+    hole = r.positive(a["hole_clearance"], "analysis.hole_clearance", "length", zero_ok=True) \
+        if "hole_clearance" in a else None
+    return Analysis(bearing=bearing, elements_per_ply=n, beam=beam, clearance=clearance,
+                    hole_clearance=hole)
 
 
 def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:

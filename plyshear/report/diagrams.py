@@ -21,7 +21,10 @@ from matplotlib.figure import Figure  # noqa: E402
 from matplotlib.patches import Rectangle  # noqa: E402
 from matplotlib.ticker import MaxNLocator  # noqa: E402
 
+import numpy as np  # noqa: E402
+
 from plyshear import units as _units  # noqa: E402
+from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
 from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
 from plyshear.model.joint import Joint  # noqa: E402
 from plyshear.report.text import fmt  # noqa: E402
@@ -161,8 +164,6 @@ def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0,
 
 
 def _as_row(v: tuple[float, float]) -> Any:
-    import numpy as np
-
     return np.array([v])
 
 
@@ -187,3 +188,65 @@ def figure_bytes(fig: Figure, fmt: str) -> bytes:
     buf = io.BytesIO()
     fig.savefig(buf, format=fmt, dpi=150)
     return buf.getvalue()
+
+
+LINESTYLES = ("-", "--", "-.", ":", (0, (5, 1, 1, 1)), (0, (1, 2)))
+
+
+def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = None) -> Axes:
+    """Draw the joint's load against its slip (generalised displacement along the load).
+
+    Returns:
+        The Axes; its first line holds (slip, load) in the joint's units.
+    """
+    ax = _new_axes(ax)
+    u = _units.system(joint.units)
+    hist = summary.analysis.history
+    slip = [s.slip / u.factor("length") for s in hist]
+    load = [s.load / u.factor("force") for s in hist]
+    ax.plot(slip, load, color=INK, linewidth=1.4, marker=".", markersize=3)
+    ax.axhline(summary.plastic.load / u.factor("force"), color=INK, linestyle="--",
+               linewidth=0.8)
+    ax.annotate("plastic bound", (slip[-1], summary.plastic.load / u.factor("force")),
+                fontsize=7, xytext=(-60, 3), textcoords="offset points")
+    ax.plot([slip[-1]], [load[-1]], marker="x", color=INK)
+    ax.set_xlabel(f"slip along the load [{u.label('length')}]")
+    ax.set_ylabel(f"load [{u.label('force')}]")
+    ax.set_title("load–slip", fontsize=9)
+    _style(ax)
+    return ax
+
+
+def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = None) -> Axes:
+    """Draw every plane's shear against the joint load (which plane saturates first).
+
+    Returns:
+        The Axes; line k holds (load, shear of plane k+1) in the joint's units.
+    """
+    ax = _new_axes(ax)
+    u = _units.system(joint.units)
+    f = u.factor("force")
+    hist = summary.analysis.history
+    load = np.array([s.load for s in hist]) / f
+    shear = np.array([s.plane_shear for s in hist]) / f
+    for k in range(shear.shape[1]):
+        ax.plot(load, shear[:, k], color=INK, linestyle=LINESTYLES[k % len(LINESTYLES)],
+                linewidth=1.2, label=f"plane {k + 1}")
+    ax.axhline(summary.plane_strength / f, color="#777777", linewidth=0.8)
+    ax.set_xlabel(f"joint load [{u.label('force')}]")
+    ax.set_ylabel(f"plane shear [{u.label('force')}]")
+    ax.set_title("plane shears", fontsize=9)
+    ax.legend(fontsize=7, frameon=False)
+    _style(ax)
+    return ax
+
+
+def capacity_figure(summary: CapacitySummary, joint: Joint) -> Figure:
+    """Return the load–slip curve beside the plane shears against load."""
+    fig = Figure(figsize=(10, 4.2), layout="constrained")
+    axs = fig.subplots(1, 2)
+    plot_load_slip(summary, joint, axs[0])
+    plot_plane_shares(summary, joint, axs[1])
+    if joint.title:
+        fig.suptitle(joint.title, fontsize=10)
+    return fig

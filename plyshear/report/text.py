@@ -6,7 +6,9 @@ from collections.abc import Sequence
 
 from plyshear import units as _units
 from plyshear.codes.check import CheckResult
+from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
+from plyshear.model.joint import Joint
 
 CAUTION = (
     "Caution: plyshear supports, and never replaces, the judgement of a licensed "
@@ -182,6 +184,45 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     out += [f"WARNING: {w}" for w in solution.warnings]
     out.append("Demands are the model's loads as given: factored for LRFD and EN, "
                "service-level for ASD.")
+    out.append("")
+    out.append(CAUTION)
+    return "\n".join(out)
+
+
+def capacity_text(summary: CapacitySummary, joint: Joint) -> str:
+    """Return the terminal report of the capacity analysis."""
+    u = _units.system(joint.units)
+    f, lf = u.factor("force"), u.label("force")
+
+    def place(a: Answer) -> str:
+        if a.z is not None:
+            return f"{a.where} at z = {fmt(a.z / u.factor('length'))} {u.label('length')}"
+        return a.where
+
+    rows = [
+        ["elastic (linear, first event)", fmt(summary.elastic.load / f),
+         f"{summary.efficiency(summary.elastic.load):.2f}",
+         f"{summary.elastic.event}, {place(summary.elastic)}"],
+        ["nonlinear (first event)", fmt(summary.nonlinear.load / f),
+         f"{summary.efficiency(summary.nonlinear.load):.2f}",
+         f"{summary.nonlinear.event}, {place(summary.nonlinear)}"],
+        ["plastic bound (max flow)", fmt(summary.plastic.load / f),
+         f"{summary.efficiency(summary.plastic.load):.2f}", f"cut: {summary.plastic.where}"],
+    ]
+    title = joint.title or (joint.source or "joint")
+    out = [title,
+           f"capacity: bearing law {joint.analysis.bearing}, clearance "
+           f"{joint.analysis.clearance}, nominal strengths (no resistance factors)",
+           f"{summary.planes} planes between members; one plane's rupture strength "
+           f"0.62 fub A = {fmt(summary.plane_strength / f)} {lf}", ""]
+    out.append(table(["answer", f"load [{lf}]", "efficiency", "first event / mechanism"],
+                     rows, "lrrl"))
+    out.append("")
+    out.append("efficiency = load / (planes x one plane's strength): 1.00 means every plane "
+               "pulls its full weight")
+    peak = summary.analysis.peak
+    out.append(f"nonlinear analysis: {len(summary.analysis.history)} states, peak load "
+               f"{fmt(peak / f)} {lf}")
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)
