@@ -16,12 +16,11 @@ import matplotlib
 
 matplotlib.use("Agg")
 
+import numpy as np  # noqa: E402
 from matplotlib.axes import Axes  # noqa: E402
 from matplotlib.figure import Figure  # noqa: E402
 from matplotlib.patches import Rectangle  # noqa: E402
 from matplotlib.ticker import MaxNLocator  # noqa: E402
-
-import numpy as np  # noqa: E402
 
 from plyshear import units as _units  # noqa: E402
 from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
