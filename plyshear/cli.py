@@ -212,14 +212,25 @@ def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the load-slip curve and plane shears against load.")
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
-def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
+@click.option("--scatter", type=click.IntRange(min=1, max=100000), default=None,
+              help="Monte Carlo of hole positions within the clearance: number of samples "
+                   "(about 0.2 s each).")
+@click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
+def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
+                 scatter: int | None, seed: int) -> None:
     """Find the ultimate capacity of MODEL: elastic, nonlinear and plastic.
 
     Nominal strengths, no resistance factors. The bearing law is the model's
     [analysis] bearing (a nonlinear law such as "plate-bearing" for redistribution).
+    With --scatter, the plies' holes are placed at random within the clearance and
+    the spread of the worst plane shear and of the capacity is reported; --plot then
+    draws their histograms.
     """
     target = _plot_target(plot)
     joint = _load(model)
+    if scatter is not None:
+        _scatter(joint, scatter, seed, as_json, target, force)
+        return
     summary = _summarize(joint)
     if as_json:
         data = _solve(joint).to_dict(diagram=False)
@@ -233,6 +244,88 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> No
         from plyshear.report import diagrams
 
         fig = diagrams.capacity_figure(summary, joint)
+        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
+        click.echo(f"figure written to {target[0]}", err=True)
+
+
+def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
+             target: tuple[Path, str] | None, force: bool) -> None:
+    from plyshear import units
+    from plyshear.mechanics.studies import hole_scatter
+
+    try:
+        result = _guard(lambda: hole_scatter(joint, samples, seed))
+    except ValueError as exc:
+        fail(f"{joint.source}: {exc}")
+    if as_json:
+        f = units.system(joint.units).factor("force")
+        data = {"format": 1, "units": units.system(joint.units).labels(),
+                "scatter": {
+                    "samples": samples, "seed": seed, "failed": result.failed,
+                    "clearance": result.clearance / units.system(joint.units).factor("length"),
+                    "service_load": result.service_load / f,
+                    "worst_plane_shear": {f"p{q}": v / f for q, v in zip(
+                        (5, 50, 95), result.percentiles(result.service_shear), strict=True)},
+                    "capacity": {f"p{q}": v / f for q, v in zip(
+                        (5, 50, 95), result.percentiles(result.capacity), strict=True)},
+                }}
+        click.echo(json.dumps(data, indent=2))
+    else:
+        from plyshear.report.text import scatter_text
+
+        click.echo(scatter_text(result, joint))
+    if target is not None:
+        from plyshear.report import diagrams
+
+        fig = diagrams.scatter_figure(result, joint)
+        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
+        click.echo(f"figure written to {target[0]}", err=True)
+
+
+@main.command("planes")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("--max", "max_planes", type=click.IntRange(min=2, max=40), required=True,
+              help="Largest number of shear planes to try (from 2).")
+@click.option("--keep", type=click.Choice(["total", "ply"]), default="total", show_default=True,
+              help="total: each member keeps its total thickness; ply: each ply keeps its own.")
+@click.option("--json", "as_json", is_flag=True, help="Print the study as JSON.")
+@click.option("--plot", type=click.Path(dir_okay=False), default=None,
+              help="Write capacity and efficiency against the number of planes.")
+@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str | None,
+               force: bool) -> None:
+    """Does an extra plane pay? Rebuild MODEL with 2 … --max planes and compare.
+
+    The stack must have two members; their plies alternate (A B A B ...).
+    """
+    from plyshear.mechanics.capacity import CapacityError
+    from plyshear.mechanics.studies import planes_study
+
+    target = _plot_target(plot)
+    joint = _load(model)
+    try:
+        rows = _guard(lambda: planes_study(joint, max_planes, keep))
+    except (ValueError, CapacityError) as exc:
+        fail(f"{model}: planes: {exc}")
+    if as_json:
+        from plyshear import units
+
+        variants = []
+        for r in rows:
+            entry = {"planes": r.planes, **capacity_dict(r.summary, r.joint)}
+            entry.pop("curve")
+            variants.append(entry)
+        data = {"format": 1, "units": units.system(joint.units).labels(), "keep": keep,
+                "planes": variants}
+        click.echo(json.dumps(data, indent=2))
+    else:
+        from plyshear.report.text import planes_text
+
+        click.echo(planes_text(rows, joint, keep))
+    if target is not None:
+        from plyshear.report import diagrams
+
+        fig = diagrams.planes_figure(rows, joint)
         write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
         click.echo(f"figure written to {target[0]}", err=True)
 

@@ -13,7 +13,8 @@ Failure events, with nominal strengths (no resistance factors):
   Criteria for Bolted and Riveted Joints*, 2nd ed. (1987), §4.2;
 * ply bearing deformation: the contact deformation reaches the law's limit;
 * bolt bending and shear: (M/M_p)² + (V/V_u)² = 1 along the bolt, M_p =
-  fyb·d³/6 (plastic moment of a solid circle).
+  fyb·d³/6 (plastic moment of a solid circle); its measure is the square root,
+  so that every measure grows in proportion to the load while elastic.
 
 The capacity is the load at the first event, located by bisection between
 converged steps.
@@ -21,6 +22,7 @@ converged steps.
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass
 
 import numpy as np
@@ -329,7 +331,7 @@ def events(joint: Joint, model: _Model, st: State, lim: Limits) -> list[Event]:
         if np.isfinite(cv.delta_limit):
             out.append(Event("ply bearing deformation", f"ply {joint.plies[j].name}",
                              float(dl / cv.delta_limit)))
-    inter = (st.M / lim.moment) ** 2 + (st.V / lim.shear) ** 2
+    inter = np.sqrt((st.M / lim.moment) ** 2 + (st.V / lim.shear) ** 2)
     k = int(np.argmax(inter))
     out.append(Event("bolt bending and shear", "bolt", float(inter[k]),
                      float(model.lay.mesh.z[k])))
@@ -359,11 +361,16 @@ def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
     x = np.zeros(model.lay.na)
     y = np.zeros(model.lay.nm)
     lam = 0.0
-    # Size the steps from a unit-displacement elastic state.
-    x1, y1, lam1, _ = _newton(model, x, y, lam, 1e-3)
-    st1 = model.state(x1, y1, lam1)
-    worst = max(e.measure for e in events(joint, model, st1, lim))
-    du = 1e-3 / max(worst, 1e-12) / steps * 2.0
+    # Size the steps from the fitted elastic state: the slip at its first event,
+    # plus the widest gap to close.
+    fitted = model if joint.analysis.clearance == "fitted" else _Model(
+        dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
+                                                                clearance="fitted")))
+    x1, y1, lam1, _ = _newton(fitted, x, y, lam, 1e-3)
+    st1 = fitted.state(x1, y1, lam1)
+    worst = max(e.measure for e in events(joint, fitted, st1, lim))
+    gap = float(max(model.gap_plus.max(), model.gap_minus.max()))
+    du = (1e-3 / max(worst, 1e-12) + gap) / steps
     history = [model.state(x, y, lam)]
     iterations: list[tuple[float, ...]] = []
     target = 0.0

@@ -25,6 +25,7 @@ from matplotlib.ticker import MaxNLocator  # noqa: E402
 from plyshear import units as _units  # noqa: E402
 from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
 from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
+from plyshear.mechanics.studies import PlanesRow, ScatterResult  # noqa: E402
 from plyshear.model.joint import Joint  # noqa: E402
 from plyshear.report.text import fmt  # noqa: E402
 
@@ -248,4 +249,56 @@ def capacity_figure(summary: CapacitySummary, joint: Joint) -> Figure:
     plot_plane_shares(summary, joint, axs[1])
     if joint.title:
         fig.suptitle(joint.title, fontsize=10)
+    return fig
+
+
+def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
+    """Capacity and plane efficiency against the number of planes (the study's chart)."""
+    u = _units.system(joint.units)
+    f = u.factor("force")
+    n = [r.planes for r in rows]
+    fig = Figure(figsize=(10, 4.2), layout="constrained")
+    axs = fig.subplots(1, 2)
+    marks = {"elastic": ("o", ":"), "nonlinear": ("s", "-"), "plastic": ("^", "--")}
+    for key, (marker, style) in marks.items():
+        loads = [getattr(r.summary, key).load / f for r in rows]
+        eff = [r.summary.efficiency(getattr(r.summary, key).load) for r in rows]
+        axs[0].plot(n, loads, color=INK, marker=marker, linestyle=style, label=key)
+        axs[1].plot(n, eff, color=INK, marker=marker, linestyle=style, label=key)
+    ideal = [r.planes * r.summary.plane_strength / f for r in rows]
+    axs[0].plot(n, ideal, color="#888888", linewidth=0.8, label="planes x one plane")
+    axs[0].set_ylabel(f"capacity [{u.label('force')}]")
+    axs[1].set_ylabel("plane efficiency [-]")
+    axs[1].axhline(1.0, color="#888888", linewidth=0.8)
+    for ax in axs:
+        ax.set_xlabel("number of shear planes [-]")
+        ax.set_xticks(n)
+        ax.legend(fontsize=7, frameon=False)
+        _style(ax)
+        ax.xaxis.set_major_locator(MaxNLocator(integer=True))
+    axs[0].set_title("capacity", fontsize=9)
+    axs[1].set_title("does the extra plane pay?", fontsize=9)
+    if joint.title:
+        fig.suptitle(joint.title, fontsize=10)
+    return fig
+
+
+def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
+    """Histograms of the worst plane shear at the model's load and of the capacity."""
+    u = _units.system(joint.units)
+    f = u.factor("force")
+    fig = Figure(figsize=(10, 4.0), layout="constrained")
+    axs = fig.subplots(1, 2)
+    panels = ((axs[0], result.service_shear, "worst plane shear at the model's load"),
+              (axs[1], result.capacity, "capacity"))
+    for ax, values, label in panels:
+        finite = values[np.isfinite(values)] / f
+        if finite.size:
+            ax.hist(finite, bins=min(30, max(5, finite.size // 10)), color="#bbbbbb",
+                    edgecolor=INK, linewidth=0.6)
+        ax.set_xlabel(f"{label} [{u.label('force')}]")
+        ax.set_ylabel("samples [-]")
+        _style(ax)
+    fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "
+                 f"({result.service_shear.size} samples)", fontsize=10)
     return fig

@@ -4,10 +4,13 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
+import numpy as np
+
 from plyshear import units as _units
 from plyshear.codes.check import CheckResult
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
+from plyshear.mechanics.studies import PlanesRow, ScatterResult
 from plyshear.model.joint import Joint
 
 CAUTION = (
@@ -225,4 +228,56 @@ def capacity_text(summary: CapacitySummary, joint: Joint) -> str:
                f"{fmt(peak / f)} {lf}")
     out.append("")
     out.append(CAUTION)
+    return "\n".join(out)
+
+
+def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
+    """Return the planes study as a table: capacity and efficiency per number of planes."""
+    u = _units.system(joint.units)
+    f, lf = u.factor("force"), u.label("force")
+    table_rows = []
+    for r in rows:
+        s = r.summary
+        table_rows.append([
+            str(r.planes), fmt(s.plane_strength * r.planes / f), fmt(s.elastic.load / f),
+            fmt(s.nonlinear.load / f), fmt(s.plastic.load / f),
+            f"{s.efficiency(s.elastic.load):.2f}", f"{s.efficiency(s.nonlinear.load):.2f}",
+            f"{s.efficiency(s.plastic.load):.2f}", s.nonlinear.event,
+        ])
+    what = "each member keeps its total thickness" if keep == "total" \
+        else "each ply keeps its thickness"
+    out = [joint.title or (joint.source or "joint"),
+           f"planes study: the stack rebuilt with 2 to {rows[-1].planes} planes ({what}); "
+           "nominal strengths", ""]
+    out.append(table(["planes", f"n x plane [{lf}]", f"elastic [{lf}]", f"nonlinear [{lf}]",
+                      f"plastic [{lf}]", "eff. el.", "eff. nl.", "eff. pl.",
+                      "first event (nonlinear)"], table_rows, "rrrrrrrrl"))
+    gains = [(b.planes, b.summary.nonlinear.load - a.summary.nonlinear.load)
+             for a, b in zip(rows, rows[1:], strict=False)]
+    out.append("")
+    for n, gain in gains:
+        verb = "adds" if gain > 0 else "loses"
+        out.append(f"plane {n}: {verb} {fmt(abs(gain) / f)} {lf} of nonlinear capacity")
+    out.append("")
+    out.append(CAUTION)
+    return "\n".join(out)
+
+
+def scatter_text(result: ScatterResult, joint: Joint) -> str:
+    """Return the percentiles of the hole-position Monte Carlo."""
+    u = _units.system(joint.units)
+    f, lf = u.factor("force"), u.label("force")
+    rows = []
+    for label, values in (("worst plane shear at the model's load", result.service_shear),
+                          ("capacity (nonlinear)", result.capacity)):
+        p5, p50, p95 = result.percentiles(values)
+        rows.append([label, fmt(p5 / f), fmt(p50 / f), fmt(p95 / f),
+                     str(int(np.isfinite(values).sum()))])
+    out = [f"hole positions scattered uniformly within the clearance "
+           f"({fmt(result.clearance / u.factor('length'))} {u.label('length')} diametral), "
+           f"{result.service_shear.size} samples; model load {fmt(result.service_load / f)} {lf}",
+           "", table(["quantity", f"5 % [{lf}]", f"50 % [{lf}]", f"95 % [{lf}]", "samples"],
+                     rows, "lrrrr")]
+    if result.failed:
+        out.append(f"{result.failed} samples did not converge and are left out")
     return "\n".join(out)

@@ -1,0 +1,171 @@
+"""Studies built on the capacity analysis.
+
+* :func:`planes_study`: does an extra shear plane pay? The model's two-member
+  stack is rebuilt with 2, 3 … N planes and each variant's capacities and plane
+  efficiencies are computed.
+* :func:`hole_scatter`: Monte Carlo of the plies' hole positions within the
+  clearance: the spread of the worst plane's shear at the model's load and of
+  the capacity.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from dataclasses import dataclass
+
+import numpy as np
+
+from plyshear.mechanics.capacity import (
+    CapacityError,
+    CapacitySummary,
+    analyse,
+    hole_clearance,
+    summarize,
+)
+from plyshear.model.joint import Joint, Ply
+
+KEEP_MODES = ("total", "ply")
+
+
+def rebuild(joint: Joint, planes: int, keep: str = "total") -> Joint:
+    """Return the model's two-member stack rebuilt with ``planes`` shear planes.
+
+    The plies alternate between the member of the first ply (A, also the last
+    ply when ``planes`` is even… and odd alike: A B A B …) and the other member
+    (B), copying each member's first ply for steel, edge and width. Fillers
+    and gaps are dropped.
+
+    Args:
+        joint: A joint whose plies belong to exactly two members.
+        planes: Number of shear planes, ≥ 1.
+        keep: ``"total"``: each member keeps its total thickness, shared
+            equally among its plies; ``"ply"``: each ply keeps its member's
+            mean ply thickness.
+
+    Returns:
+        The rebuilt joint.
+
+    Raises:
+        ValueError: If the stack does not have exactly two members, or for a
+            bad ``planes`` or ``keep``.
+    """
+    if keep not in KEEP_MODES:
+        raise ValueError(f"keep must be one of {', '.join(KEEP_MODES)} (got {keep!r})")
+    if planes < 1:
+        raise ValueError(f"planes must be >= 1 (got {planes})")
+    plies = [p for p in joint.plies if not p.is_filler]
+    members = list(dict.fromkeys(p.member for p in plies))
+    if len(members) != 2:
+        raise ValueError(f"the planes study needs a stack of two members (got {len(members)})")
+    count = {m: 0 for m in members}
+    order = [members[i % 2] for i in range(planes + 1)]
+    for m in order:
+        count[m] += 1
+    template: dict[str | None, Ply] = {m: next(p for p in plies if p.member == m)
+                                       for m in members}
+    thick: dict[str | None, float] = {}
+    for m in members:
+        own = [p.thickness for p in plies if p.member == m]
+        thick[m] = sum(own) / count[m] if keep == "total" else sum(own) / len(own)
+    new = []
+    seen = {m: 0 for m in members}
+    for m in order:
+        seen[m] += 1
+        new.append(dataclasses.replace(template[m], name=f"{m}-{seen[m]}", thickness=thick[m],
+                                       gap=0.0, hole_offset=0.0))
+    grip = sum(p.thickness for p in new)
+    bolt = joint.bolt
+    if bolt.length is not None:
+        bolt = dataclasses.replace(bolt, length=bolt.length - joint.grip + grip)
+    return dataclasses.replace(joint, plies=tuple(new), bolt=bolt,
+                               title=f"{joint.title} ({planes} planes)".strip())
+
+
+@dataclass(frozen=True)
+class PlanesRow:
+    """One variant of the planes study."""
+
+    planes: int
+    joint: Joint
+    summary: CapacitySummary
+
+
+def planes_study(joint: Joint, max_planes: int, keep: str = "total") -> list[PlanesRow]:
+    """Capacities of the stack rebuilt with 2 … ``max_planes`` planes.
+
+    Raises:
+        ValueError: For a stack that is not two members or ``max_planes`` < 2.
+        CapacityError: If a variant's analysis fails.
+    """
+    if max_planes < 2:
+        raise ValueError(f"--max must be at least 2 (got {max_planes})")
+    rows = []
+    for n in range(2, max_planes + 1):
+        variant = rebuild(joint, n, keep)
+        rows.append(PlanesRow(planes=n, joint=variant, summary=summarize(variant)))
+    return rows
+
+
+@dataclass(frozen=True)
+class ScatterResult:
+    """The Monte Carlo of hole positions.
+
+    Attributes:
+        service_shear: Worst plane shear at the model's load for each sample,
+            N (nan where the sample fails below that load).
+        capacity: Capacity of each sample, N.
+        service_load: The model's load, N.
+        clearance: Diametral hole clearance used, mm.
+        failed: Samples whose analysis did not converge.
+    """
+
+    service_shear: np.ndarray
+    capacity: np.ndarray
+    service_load: float
+    clearance: float
+    failed: int
+
+    def percentiles(self, values: np.ndarray, q: tuple[float, ...] = (5, 50, 95)) -> list[float]:
+        """Percentiles of the finite values."""
+        finite = values[np.isfinite(values)]
+        return [float(np.percentile(finite, p)) for p in q] if finite.size else [float("nan")] * 3
+
+
+def hole_scatter(joint: Joint, samples: int, seed: int) -> ScatterResult:
+    """Scatter every ply's hole uniformly within the clearance and analyse each case.
+
+    Args:
+        joint: The joint.
+        samples: Number of samples, ≥ 1.
+        seed: Seed of the random generator (results repeat for the same seed).
+
+    Returns:
+        The :class:`ScatterResult`.
+    """
+    if samples < 1:
+        raise ValueError(f"--scatter must be at least 1 (got {samples})")
+    rng = np.random.default_rng(seed)
+    c = hole_clearance(joint)
+    base = dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
+                                                                   clearance="offset"))
+    service = float(sum(np.hypot(*m.load) for m in joint.members))
+    shear = np.full(samples, np.nan)
+    cap = np.full(samples, np.nan)
+    failed = 0
+    for i in range(samples):
+        offsets = rng.uniform(-0.5 * c, 0.5 * c, size=len(joint.plies))
+        plies = tuple(dataclasses.replace(p, hole_offset=float(o))
+                      for p, o in zip(base.plies, offsets, strict=True))
+        case = dataclasses.replace(base, plies=plies)
+        try:
+            result = analyse(case)
+        except CapacityError:
+            failed += 1
+            continue
+        cap[i] = result.load
+        loads = np.array([s.load for s in result.history])
+        if loads[-1] >= service:
+            worst = np.array([s.plane_shear.max() for s in result.history])
+            shear[i] = float(np.interp(service, loads, worst))
+    return ScatterResult(service_shear=shear, capacity=cap, service_load=service,
+                         clearance=c, failed=failed)
