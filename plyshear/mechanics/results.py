@@ -96,8 +96,8 @@ class BoltResult:
         M: Bending moment, N·mm, shape (nn, 2).
         w: Bolt deflection, mm, shape (nn, 2).
         q: Bearing pressure on the bolt per unit length (force the plies apply
-            to the bolt), N/mm, shape (nn, 2), evaluated at the nodes from the
-            side of each ply (zero in gaps).
+            to the bolt), N/mm, at both ends of every element, shape (ne, 2, 2)
+            (element, end, component); zero in gaps.
         planes: Every shear plane.
         plies: Every ply's bearing.
     """

@@ -84,7 +84,6 @@ def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray]:
 
 def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solution:
     mesh = sys.mesh
-    nn = mesh.z.size
     de, u_el, u_ply = element_displacements(sys.layout, x, y)
     d = np.concatenate([de[:, :2], de[-1:, 2:]], axis=0)  # node, (w, θ), component
     L = mesh.lengths
@@ -103,12 +102,9 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
               np.where(mesh.ply[:, None] >= 0, 0.5 * (de[:, 0] + de[:, 2]) * L[:, None], 0.0))
     tply = np.array([p.thickness for p in joint.plies])
     wmean /= tply[:, None]
-    # Bearing pressure at the nodes (from the ply side of each node).
-    q = np.zeros((nn, 2))
-    in_ply = np.nonzero(mesh.ply >= 0)[0]
-    kj = sys.k[mesh.ply[in_ply]][:, None]
-    q[in_ply] = kj * (u_el[in_ply] - w[in_ply])
-    q[in_ply + 1] = kj * (u_el[in_ply] - w[in_ply + 1])
+    # Bearing pressure at both ends of every element (zero in gaps).
+    k_el = np.where(mesh.ply >= 0, sys.k[np.maximum(mesh.ply, 0)], 0.0)[:, None, None]
+    q = k_el * (u_el[:, None, :] - np.stack([w[:-1], w[1:]], axis=1))
 
     planes = tuple(
         PlaneShear(index=i + 1, z=float(mesh.z[n]), above=i, below=i + 1,

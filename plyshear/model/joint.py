@@ -213,6 +213,7 @@ class Joint:
         plies: Plies from the head side.
         members: Members named by the plies.
         title: Free text shown in reports.
+        project: Free text on the project (job, client, engineer), shown in reports.
         units: Name of the unit system results are written in.
         analysis: Analysis settings.
         check: Design-check settings.
@@ -225,6 +226,7 @@ class Joint:
     title: str = ""
     units: str = "N-mm"
     analysis: Analysis = field(default_factory=Analysis)
+    project: str = ""
     check: CheckSettings = field(default_factory=CheckSettings)
     source: str | None = None
 

@@ -236,8 +236,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     units_name = r.choice(data["units"], "units", tuple(_units.SYSTEMS))
     r.system = _units.SYSTEMS[units_name]
     title = r.text(data.get("title", ""), "title")
-    if "project" in data:
-        r.text(data["project"], "project")
+    project = r.text(data.get("project", ""), "project")
 
     if "bolt" not in data:
         raise r.fail("bolt", "missing; the joint needs a [bolt] table")
@@ -264,7 +263,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
     check = _check(r, r.table(data.get("check", {}), "check"))
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
-                 analysis=analysis, check=check, source=path)
+                 analysis=analysis, check=check, source=path, project=project)
 
 
 def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:

@@ -60,12 +60,13 @@ def member_styles(joint: Joint) -> dict[str | None, tuple[str, str]]:
     return styles
 
 
-def plot_stack(joint: Joint, ax: Axes | None = None) -> Axes:
+def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) -> Axes:
     """Draw the stack elevation: plies as bars across the bolt, z downwards.
 
     Args:
         joint: The joint.
         ax: Axes to draw on (a new figure when omitted).
+        dimensions: Dimension every ply thickness and gap on the left.
 
     Returns:
         The Axes.
@@ -87,8 +88,20 @@ def plot_stack(joint: Joint, ax: Axes | None = None) -> Axes:
     grip = joint.grip / ln
     ax.add_patch(Rectangle((-d / 2, -0.1 * d), d, grip + 0.2 * d, facecolor="none",
                            edgecolor=INK, linewidth=1.2, linestyle="-"))
+    if dimensions:
+        x_dim = -width / 2 - 0.5 * d
+        ends = starts + np.array([p.thickness / ln for p in joint.plies])
+        edges = [0.0]
+        for e in sorted([*starts.tolist(), *ends.tolist()]):
+            if e - edges[-1] > 1e-9 * max(grip, 1.0):
+                edges.append(e)
+        for a, b in zip(edges, edges[1:], strict=False):
+            ax.annotate("", (x_dim, a), (x_dim, b),
+                        arrowprops={"arrowstyle": "<->", "color": INK, "linewidth": 0.6})
+            ax.text(x_dim - 0.15 * d, 0.5 * (a + b), fmt(b - a, 3), rotation=90, fontsize=6,
+                    ha="right", va="center", color=INK)
     ax.axvline(0.0, color=INK, linewidth=0.5, linestyle="-.")
-    ax.set_xlim(-width / 2 - d, width / 2 + 4 * d)
+    ax.set_xlim(-width / 2 - (2.0 if dimensions else 1.0) * d, width / 2 + 4 * d)
     ax.set_ylim(grip + 0.3 * d, -0.3 * d)
     ax.set_xticks([])
     ax.set_ylabel(f"z along bolt [{u.label('length')}]")
@@ -122,13 +135,15 @@ def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -
     return ax
 
 
-def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: Any) -> Axes:
+def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0,
+               utilization: dict[int, float] | None = None, **kw: Any) -> Axes:
     """Draw the bolt shear V(z) (signed resultant); plane shears are labelled.
 
     Args:
         solution: The solution.
         ax: Axes to draw on (a new figure when omitted).
         bolt: Which bolt.
+        utilization: Utilization of each plane (by plane index), added to its label.
         **kw: Passed to ``Axes.plot``.
 
     Returns:
@@ -138,9 +153,11 @@ def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: 
     u = _units.system(solution.joint.units)
     for p in solution.bolts[bolt].planes:
         v = signed_resultant(_as_row(p.shear_xy), solution.joint.load_axis())[0]
-        ax.annotate(fmt(p.shear / u.factor("force"), 3), (v / u.factor("force"),
-                    p.z / u.factor("length")), fontsize=7, xytext=(3, -3),
-                    textcoords="offset points", color=INK)
+        label = fmt(p.shear / u.factor("force"), 3)
+        if utilization and p.index in utilization:
+            label += f" ({utilization[p.index]:.2f})"
+        ax.annotate(label, (v / u.factor("force"), p.z / u.factor("length")), fontsize=7,
+                    xytext=(3, -3), textcoords="offset points", color=INK)
     return ax
 
 
@@ -151,6 +168,31 @@ def plot_moment(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw:
         The Axes; its first line holds (M, z) in the joint's units.
     """
     return _diagram(solution, "moment", ax, bolt, **kw)
+
+
+def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int = 0,
+                          **kw: Any) -> Axes:
+    """Draw the bearing pressure on the bolt, q(z) / d (force per unit length over d).
+
+    Returns:
+        The Axes; its first line holds (q/d, z) in stress units of the joint.
+    """
+    ax = _new_axes(ax)
+    joint = solution.joint
+    u = _units.system(joint.units)
+    b = solution.bolts[bolt]
+    ends = b.q.reshape(-1, 2)  # element ends in z order: (ne * 2, comp)
+    q = signed_resultant(ends, joint.load_axis()) / joint.bolt.diameter / u.factor("stress")
+    z = np.stack([b.z[:-1], b.z[1:]], axis=1).ravel() / u.factor("length")
+    ax.plot(q, z, color=INK, linewidth=1.2, **kw)
+    ax.fill_betweenx(z, 0.0, q, color="#dddddd", linewidth=0)
+    z = b.z / u.factor("length")
+    ax.axvline(0.0, color=INK, linewidth=0.6)
+    ax.set_ylim(z[-1] + 0.05 * (z[-1] - z[0]), z[0] - 0.05 * (z[-1] - z[0]))
+    ax.set_xlabel(f"bearing pressure q/d [{u.label('stress')}]")
+    ax.set_ylabel(f"z along bolt [{u.label('length')}]")
+    _style(ax)
+    return ax
 
 
 def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0,
@@ -167,17 +209,29 @@ def _as_row(v: tuple[float, float]) -> Any:
     return np.array([v])
 
 
-def solution_figure(solution: Solution) -> Figure:
-    """Return a figure with the stack beside the bolt's shear and moment diagrams."""
-    fig = Figure(figsize=(10, 5), layout="constrained")
-    axs = fig.subplots(1, 3, sharey=True, gridspec_kw={"width_ratios": [1.2, 1, 1]})
+def solution_figure(solution: Solution, utilization: dict[int, float] | None = None,
+                    pressure: bool = False) -> Figure:
+    """Return the stack beside the bolt's shear and moment diagrams, on one z axis.
+
+    Args:
+        solution: The solution.
+        utilization: Plane utilizations to print beside the plane shears.
+        pressure: Add a panel with the bearing pressure along the bolt.
+    """
+    panels = 4 if pressure else 3
+    fig = Figure(figsize=(12 if pressure else 10, 5), layout="constrained")
+    ratios = [1.3] + [1] * (panels - 1)
+    axs = fig.subplots(1, panels, sharey=True, gridspec_kw={"width_ratios": ratios})
     plot_stack(solution.joint, axs[0])
-    plot_shear(solution, axs[1])
+    plot_shear(solution, axs[1], utilization=utilization)
     plot_moment(solution, axs[2])
-    axs[1].set_ylabel("")
-    axs[2].set_ylabel("")
-    axs[1].set_title("shear", fontsize=9)
-    axs[2].set_title("bending moment", fontsize=9)
+    titles = ["shear (utilization)" if utilization else "shear", "bending moment"]
+    if pressure:
+        plot_bearing_pressure(solution, axs[3])
+        titles.append("bearing pressure")
+    for ax, title in zip(axs[1:], titles, strict=True):
+        ax.set_ylabel("")
+        ax.set_title(title, fontsize=9)
     if solution.joint.title:
         fig.suptitle(solution.joint.title, fontsize=10)
     return fig
