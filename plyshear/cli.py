@@ -330,6 +330,32 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
         click.echo(f"figure written to {target[0]}", err=True)
 
 
+@main.command("report")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("-o", "--output", type=click.Path(dir_okay=False), required=True,
+              help="The report file: .html (self-contained) or .pdf.")
+@click.option("--force", is_flag=True, help="Replace an existing report.")
+def report_cmd(model: str, output: str, force: bool) -> None:
+    """Write the calculation report of MODEL: model, diagrams, check, capacity."""
+    path = Path(output)
+    kind = path.suffix.lower()
+    if kind not in (".html", ".htm", ".pdf"):
+        fail(f"{output}: the report must be a .html or .pdf file")
+    if path.exists() and not force:
+        fail(f"{output}: exists; use --force to replace it")
+    joint = _load(model)
+    _solve(joint)  # refuses a bad joint with the one-line error before the long part
+    from plyshear.report import document
+
+    try:
+        data = _guard(lambda: document.build(joint))
+    except ValueError as exc:
+        fail(f"{model}: report: {exc}")
+    payload = document.to_pdf(data) if kind == ".pdf" else document.to_html(data).encode()
+    write_atomic(path, payload, force)
+    click.echo(f"report written to {path}", err=True)
+
+
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 def demo_cmd(as_json: bool) -> None:

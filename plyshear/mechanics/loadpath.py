@@ -88,8 +88,9 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     either direction) and out through the supported members' plies. Loads of
     opposite sign along the load direction enter as sinks that must be fed.
     With unlimited ductility every cut edge reaches its capacity together, so
-    the largest feasible scale of the load pattern is the plastic bound and
-    the minimum cut names the mechanism.
+    the largest scale of the load pattern for which every member's force and
+    the supports' reaction can all be delivered is the plastic bound, and the
+    minimum cut names the mechanism.
 
     Args:
         joint: The joint (its member loads give the pattern).
@@ -123,25 +124,27 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
             cap = plane_capacity[i] if np.isfinite(plane_capacity[i]) else big
             g.add_edge(("seg", i), ("seg", i + 1), capacity=cap)
             g.add_edge(("seg", i + 1), ("seg", i), capacity=cap)
-        net = sum(pattern.values())
+        net = sum(pattern.values())  # the supports take -net: a sink when net > 0
         for m in joint.members:
             node = ("member", m.name)
             if m.support:
-                if net >= 0:
-                    g.add_edge(node, "T", capacity=big)
-                else:
-                    g.add_edge("S", node, capacity=big)
+                g.add_edge(node, "R", capacity=big)
+                g.add_edge("R", node, capacity=big)
             elif pattern[m.name] > 0:
                 g.add_edge("S", node, capacity=lam * pattern[m.name])
             elif pattern[m.name] < 0:
                 g.add_edge(node, "T", capacity=-lam * pattern[m.name])
+        if net > 0:
+            g.add_edge("R", "T", capacity=lam * net)
+        elif net < 0:
+            g.add_edge("S", "R", capacity=-lam * net)
         return g
 
+    supply = max(push, pull)  # every sink edge (members pulled, the supports) must fill
+
     def feasible(lam: float) -> bool:
-        g = graph(lam)
-        flow = nx.maximum_flow_value(g, "S", "T")
-        need = lam * max(push, pull)
-        return flow >= need * (1 - 1e-12)
+        flow = nx.maximum_flow_value(graph(lam), "S", "T")
+        return flow >= lam * supply * (1 - 1e-12)
 
     lo, hi = 0.0, 1.0
     while feasible(hi):

@@ -189,8 +189,10 @@ def _steels() -> dict[str, PlateSteel]:
     moduli: dict[str, float] = {}
     for row in _rows("steels.csv"):
         key = row["key"]
+        unit = row["unit"]
         bands.setdefault(key, []).append(
-            (_parse_number(row["t_max"]), float(row["fy"]), float(row["fu"]))
+            (_parse_number(row["t_max"]), _to_mpa(float(row["fy"]), unit),
+             _to_mpa(float(row["fu"]), unit))
         )
         if row["source"] not in sources.setdefault(key, []):
             sources[key].append(row["source"])

@@ -146,19 +146,22 @@ def test_steel_thickness_must_be_positive(t):
 
 
 @pytest.mark.parametrize(
-    ("key", "fy", "fu"),
+    ("key", "fy_ksi", "fu_ksi", "fy_si", "fu_si"),
     [
-        ("A36", 250.0, 400.0),  # from memory: ASTM A36/A36M (36/58 ksi)
-        ("A572-50", 345.0, 450.0),  # from memory: ASTM A572/A572M Grade 50 [345] (50/65 ksi)
-        ("A992", 345.0, 450.0),  # from memory: ASTM A992/A992M (50/65 ksi)
+        ("A36", 36.0, 58.0, 250.0, 400.0),  # from memory: ASTM A36/A36M (36/58 ksi; 250/400 MPa)
+        ("A572-50", 50.0, 65.0, 345.0, 450.0),  # from memory: ASTM A572/A572M Gr 50 [345]
+        ("A992", 50.0, 65.0, 345.0, 450.0),  # from memory: ASTM A992/A992M (50/65 ksi)
     ],
 )
-def test_astm_plate_steels_si_values(key, fy, fu):
+def test_astm_plate_steels_in_ksi(key, fy_ksi, fu_ksi, fy_si, fu_si):
     s = catalog.steel(key)
-    assert s.strength(25.0) == (pytest.approx(fy, rel=REL_EXACT), pytest.approx(fu, rel=REL_EXACT))
+    # stored in the standards' US customary values, so a kip-in model sees them exactly
+    assert s.strength(25.0) == (pytest.approx(fy_ksi * KSI, rel=REL_EXACT),
+                                pytest.approx(fu_ksi * KSI, rel=REL_EXACT))
     assert s.E == pytest.approx(200000.0, rel=REL_EXACT)  # AISC 360-22
-    # the SI values are the ksi values rounded to the nearest 5 MPa
-    assert abs(fu - round(fu / KSI) * KSI) < 5.0
+    # the printed SI values are the ksi values rounded to the nearest 5 MPa
+    assert s.strength(25.0)[0] == pytest.approx(fy_si, abs=5.0)
+    assert s.strength(25.0)[1] == pytest.approx(fu_si, abs=5.0)
 
 
 def test_unknown_steel_raises_catalog_error_listing_known_keys():
