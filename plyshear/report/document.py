@@ -12,6 +12,7 @@ from __future__ import annotations
 import datetime as _dt
 import html
 import io
+import re
 from dataclasses import dataclass
 
 from matplotlib.backends.backend_pdf import PdfPages
@@ -83,9 +84,10 @@ def _html_table(headers: list[str], rows: list[list[str]], marked: int | None = 
 
 
 def _svg(fig: Figure) -> str:
+    """The figure as an inline ``<svg>`` element (no XML prolog, no RDF metadata)."""
     text = diagrams.figure_bytes(fig, "svg").decode("utf-8")
-    start = text.find("<svg")
-    return text[start:]
+    text = re.sub(r"<metadata>.*?</metadata>", "", text[text.find("<svg"):], flags=re.S)
+    return text
 
 
 def model_rows(data: ReportData) -> dict[str, tuple[list[str], list[list[str]]]]:
