@@ -202,7 +202,7 @@ def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
         "bearing": joint.analysis.bearing,
         "clearance": joint.analysis.clearance,
         "curve": {"slip": [s.slip / ln for s in hist], "load": [s.load / f for s in hist],
-                  "plane_shear": [[v / f for v in s.plane_shear] for s in hist]},
+                  "plane_shear": [(s.plane_shear / f).tolist() for s in hist]},
     }
 
 

@@ -1,17 +1,21 @@
-"""Mesh, degree-of-freedom numbering and the global system of one bolt.
+"""Mesh, degree-of-freedom numbering and the global system of a joint.
 
-The bolt is meshed along z with nodes on every ply face, every thread start and
-the middle of every gap. Unknowns:
+A joint has one bolt at each station of its row (one station for a single
+bolt). Every bolt is meshed along z with nodes on every ply face, every thread
+start and the middle of every gap. Unknowns, station by station:
 
 * bolt DOFs ``(w, θ)`` per node, in z order;
-* a ply's own displacement, for fillers and elastically linked plies, numbered
-  right after the last node of its ply, so it couples to a contiguous stretch;
-* one displacement per free (not supported) member, numbered last.
+* each ply's own displacement at the station, numbered right after the last
+  node inside the ply, so it couples to a contiguous stretch; except where the
+  ply shares its member's displacement (rigidly tied, at the station where the
+  member's force enters);
 
-The first two groups form a banded symmetric block ``A``; the member DOFs form a
-small border (``B``, ``C``). A rigidly linked ply shares its member's DOF;
-supported members have zero displacement and are not unknowns. For linear laws
-the x and y directions use the same matrix.
+then one displacement per free (not supported) member, numbered last.
+
+The first group forms a banded symmetric block ``A`` (a ply segment between two
+stations couples DOFs one station apart); the member DOFs form a small border
+(``B``, ``C``). Supported members are held at zero and are not unknowns. For
+linear laws the x and y directions use the same matrix.
 """
 
 from __future__ import annotations
@@ -110,42 +114,81 @@ def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
     return np.linspace(a, b, n + 1)
 
 
+Endpoint = tuple[str, int]  # ("a", index in A) | ("m", member DOF) | ("0", member index)
+
+
 @dataclass(frozen=True)
-class Layout:
-    """The numbering of one bolt's unknowns and the law-independent parts of its system.
+class Spring:
+    """A linear spring between two displacements (a link or a ply segment).
 
     Attributes:
-        mesh: The mesh.
+        a, b: The endpoints: ``("a", i)`` an unknown of ``A``, ``("m", i)`` a free
+            member DOF, ``("0", m)`` a displacement held by supported member m.
+        k: Stiffness, N/mm.
+        ply: The ply it belongs to.
+        segment: For a ply segment between stations s and s+1, s; else −1.
+    """
+
+    a: Endpoint
+    b: Endpoint
+    k: float
+    ply: int
+    segment: int = -1
+
+
+@dataclass(frozen=True)
+class Layout:
+    """The numbering of a joint's unknowns and the law-independent parts of its system.
+
+    A joint has one bolt per station; every bolt is meshed alike. Element
+    arrays run station by station (``S·ne`` rows).
+
+    Attributes:
+        mesh: The mesh of one bolt.
+        stations: Bolt positions along x, mm.
         na: Number of unknowns in the banded block ``A`` (bolt and own ply DOFs).
         nm: Number of free-member unknowns (the border).
         bw: Upper bandwidth of ``A``.
-        bolt_dof: Index into ``A`` of (w, θ) per node, FIXED where restrained,
-            shape (nn, 2).
-        edofs: The four ``A`` indices of each element, shape (ne, 4).
-        target: For each ply, ("a", i) its own DOF in A, ("m", i) a free member
-            DOF, or ("0", −1) a supported member.
+        bolt_dof: Index into ``A`` of (w, θ) per station and node, FIXED where
+            restrained, shape (S, nn, 2).
+        edofs: The four ``A`` indices of each element, shape (S·ne, 4).
+        target: For each station and ply, what the ply bears against there:
+            ("a", i) its own DOF in A, ("m", i) a free member DOF, or ("0", m)
+            held by supported member m.
+        el_ply: Ply index of each element (−1 in gaps), shape (S·ne,).
         tgt_kind, tgt_idx: ``target`` per element ("-" and FIXED in gaps).
         member_dof: Free-member DOF index per member, FIXED for supported ones.
-        links: (ply, own DOF, member DOF or FIXED, stiffness) of each elastic link.
+        springs: Links and ply segments.
         loads: Member loads on the border, shape (nm, 2) (x and y).
-        kel: Beam stiffness of each element, shape (ne, 4, 4).
+        kel: Beam stiffness of each element, shape (S·ne, 4, 4).
         phi: Φ of each element.
     """
 
     mesh: Mesh
+    stations: np.ndarray
     na: int
     nm: int
     bw: int
     bolt_dof: np.ndarray
     edofs: np.ndarray
-    target: tuple[tuple[str, int], ...]
+    target: tuple[tuple[Endpoint, ...], ...]
+    el_ply: np.ndarray
     tgt_kind: np.ndarray
     tgt_idx: np.ndarray
     member_dof: np.ndarray
-    links: tuple[tuple[int, int, int, float], ...]
+    springs: tuple[Spring, ...]
     loads: np.ndarray
     kel: np.ndarray
     phi: np.ndarray
+
+    @property
+    def ne(self) -> int:
+        """Elements of one bolt."""
+        return self.mesh.ply.size
+
+    def station_slice(self, s: int) -> slice:
+        """The element rows of station s."""
+        return slice(s * self.ne, (s + 1) * self.ne)
 
 
 @dataclass(frozen=True)
@@ -201,21 +244,29 @@ def ply_moduli(joint: Joint) -> np.ndarray:
                      for p in joint.plies])
 
 
+def entry_station(joint: Joint, member: str, stations: int) -> int:
+    """The station where a member's force enters its plies."""
+    return 0 if joint.member(member).enters == "before" else stations - 1
+
+
 def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     """Number the unknowns of ``joint`` and compute the beam stiffness.
 
     Args:
         joint: The joint.
-        mesh: A mesh to reuse; built from the joint when omitted.
+        mesh: A mesh of one bolt to reuse; built from the joint when omitted.
 
     Returns:
         The :class:`Layout`.
     """
     mesh = mesh or build_mesh(joint)
     nn = mesh.z.size
+    ne = nn - 1
     nplies = len(joint.plies)
     members = joint.members
     midx = joint.member_index()
+    xs = np.asarray(joint.stations, dtype=float)
+    ns = xs.size
 
     member_dof = np.full(len(members), FIXED)
     nm = 0
@@ -224,58 +275,81 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
             member_dof[i] = nm
             nm += 1
 
-    # Numbering of A: bolt DOFs by node; a ply's own DOF after its last node.
-    own = [p.is_filler or p.link_stiffness is not None for p in joint.plies]
+    def tied(j: int, s: int) -> bool:
+        """True where ply j shares its member's displacement at station s."""
+        ply = joint.plies[j]
+        return (ply.member is not None and ply.link_stiffness is None
+                and s == entry_station(joint, ply.member, ns))
+
+    # Numbering of A, station by station: bolt DOFs by node; a ply's own DOF
+    # right after the last node inside it.
     own_after: dict[int, list[int]] = {}
     for j in range(nplies):
-        if own[j]:
-            last_node = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
-            own_after.setdefault(last_node, []).append(j)
-    bolt_dof = np.empty((nn, 2), dtype=int)
-    target: list[tuple[str, int]] = [("0", FIXED)] * nplies
+        last_node = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
+        own_after.setdefault(last_node, []).append(j)
+    bolt_dof = np.empty((ns, nn, 2), dtype=int)
+    target: list[list[Endpoint]] = [[("0", FIXED)] * nplies for _ in range(ns)]
     next_dof = 0
-    for node in range(nn):
-        bolt_dof[node] = (next_dof, next_dof + 1)
-        next_dof += 2
-        for j in own_after.get(node, []):
-            target[j] = ("a", next_dof)
-            next_dof += 1
+    for s in range(ns):
+        for node in range(nn):
+            bolt_dof[s, node] = (next_dof, next_dof + 1)
+            next_dof += 2
+            for j in own_after.get(node, []):
+                if not tied(j, s):
+                    target[s][j] = ("a", next_dof)
+                    next_dof += 1
     if joint.bolt.ends == "clamped":
         bolt_dof, target, next_dof = _drop_rotations(bolt_dof, target, next_dof)
+    for s in range(ns):
+        for j, ply in enumerate(joint.plies):
+            if tied(j, s):
+                assert ply.member is not None
+                i = midx[ply.member]
+                target[s][j] = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
+
+    springs: list[Spring] = []
     for j, ply in enumerate(joint.plies):
-        if not own[j]:
-            assert ply.member is not None
-            md = member_dof[midx[ply.member]]
-            target[j] = ("m", int(md)) if md != FIXED else ("0", FIXED)
-    links = tuple(
-        (j, target[j][1], int(member_dof[midx[ply.member]]), ply.link_stiffness)
-        for j, ply in enumerate(joint.plies)
-        if ply.link_stiffness is not None and ply.member is not None
-    )
-    edofs = np.concatenate([bolt_dof[:-1], bolt_dof[1:]], axis=1)  # (ne, 4)
-    tgt_kind = np.array([target[j][0] if j >= 0 else "-" for j in mesh.ply])
-    tgt_idx = np.array([target[j][1] if j >= 0 else FIXED for j in mesh.ply])
-    bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx))
+        if ply.link_stiffness is not None and ply.member is not None:
+            i = midx[ply.member]
+            s = entry_station(joint, ply.member, ns)
+            other: Endpoint = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
+            springs.append(Spring(target[s][j], other, ply.link_stiffness, j))
+        for s in range(ns - 1):
+            assert ply.width is not None
+            k = ply.E * ply.thickness * ply.width / (xs[s + 1] - xs[s])
+            springs.append(Spring(target[s][j], target[s + 1][j], k, j, s))
+
+    el_ply = np.tile(mesh.ply, ns)
+    edofs = np.concatenate([np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1)
+                            for s in range(ns)])
+    station_of = np.repeat(np.arange(ns), ne)
+    tgt_kind = np.array([target[s][j][0] if j >= 0 else "-"
+                         for s, j in zip(station_of, el_ply, strict=True)])
+    tgt_idx = np.array([target[s][j][1] if j >= 0 and target[s][j][0] != "0" else FIXED
+                        for s, j in zip(station_of, el_ply, strict=True)])
+    bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
+             _spring_bandwidth(springs))
     loads = np.zeros((nm, 2))
     for i, m in enumerate(members):
         if member_dof[i] != FIXED:
             loads[member_dof[i]] = m.load
     EI, phi = section(joint, mesh)
-    kel = beam.stiffness(EI, phi, mesh.lengths)
-    return Layout(mesh=mesh, na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof, edofs=edofs,
-                  target=tuple(target), tgt_kind=tgt_kind, tgt_idx=tgt_idx,
-                  member_dof=member_dof, links=links, loads=loads, kel=kel, phi=phi)
+    kel = np.tile(beam.stiffness(EI, phi, mesh.lengths), (ns, 1, 1))
+    return Layout(mesh=mesh, stations=xs, na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof,
+                  edofs=edofs, target=tuple(tuple(t) for t in target), el_ply=el_ply,
+                  tgt_kind=tgt_kind, tgt_idx=tgt_idx, member_dof=member_dof,
+                  springs=tuple(springs), loads=loads, kel=kel, phi=np.tile(phi, ns))
 
 
 def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
             kuu: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Assemble the beam and the given foundation matrices into (ab, B, C).
+    """Assemble the beams, the given foundation matrices and the springs into (ab, B, C).
 
     Args:
         lay: The numbering.
-        kbb: Foundation bolt–bolt block of each element, shape (ne, 4, 4).
-        kbu: Foundation bolt–ply coupling of each element, shape (ne, 4).
-        kuu: Foundation ply–ply term of each element, shape (ne,).
+        kbb: Foundation bolt–bolt block of each element, shape (S·ne, 4, 4).
+        kbu: Foundation bolt–ply coupling of each element, shape (S·ne, 4).
+        kuu: Foundation ply–ply term of each element, shape (S·ne,).
 
     Returns:
         The upper-banded block ``A``, the border ``B`` and the block ``C``.
@@ -303,13 +377,40 @@ def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
     np.add.at(ab, (bw, idx[own_e]), kuu[own_e])
     mem_e = kind == "m"
     np.add.at(C, (idx[mem_e], idx[mem_e]), kuu[mem_e])
-    # Elastic links between a ply's own DOF and its member.
-    for _, pj, md, stiffness in lay.links:
-        ab[bw, pj] += stiffness
-        if md != FIXED:
-            C[md, md] += stiffness
-            B[pj, md] -= stiffness
+    for sp in lay.springs:
+        _add_spring(ab, B, C, bw, sp)
     return ab, B, C
+
+
+def _add_spring(ab: np.ndarray, B: np.ndarray, C: np.ndarray, bw: int, sp: Spring) -> None:
+    """Add one spring's stiffness between its endpoints."""
+    ends = [e for e in (sp.a, sp.b) if e[0] != "0"]
+    for kind, i in ends:
+        if kind == "a":
+            ab[bw, i] += sp.k
+        else:
+            C[i, i] += sp.k
+    if len(ends) == 2:
+        (ka, ia), (kb, ib) = ends
+        if ka == "a" and kb == "a":
+            r, c = min(ia, ib), max(ia, ib)
+            ab[bw + r - c, c] -= sp.k
+        elif ka == "m" and kb == "m":
+            C[ia, ib] -= sp.k
+            C[ib, ia] -= sp.k
+        else:
+            a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
+            B[a_i, m_i] -= sp.k
+
+
+def endpoint_value(end: Endpoint, x: np.ndarray, y: np.ndarray) -> np.ndarray:
+    """The displacement at a spring endpoint (zero where held)."""
+    kind, i = end
+    if kind == "a":
+        return x[i]
+    if kind == "m":
+        return y[i]
+    return np.zeros(x.shape[1:])
 
 
 def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
@@ -324,10 +425,10 @@ def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
     """
     lay = layout(joint, mesh)
     kply = ply_moduli(joint)
-    mesh = lay.mesh
-    k_el = np.where(mesh.ply >= 0, kply[np.maximum(mesh.ply, 0)], 0.0)
-    kbb, kbu = beam.foundation(k_el, lay.phi, mesh.lengths)
-    ab, B, C = scatter(lay, kbb, kbu, k_el * mesh.lengths)
+    lengths = np.tile(lay.mesh.lengths, len(lay.stations))
+    k_el = np.where(lay.el_ply >= 0, kply[np.maximum(lay.el_ply, 0)], 0.0)
+    kbb, kbu = beam.foundation(k_el, lay.phi, lengths)
+    ab, B, C = scatter(lay, kbb, kbu, k_el * lengths)
     return System(layout=lay, ab=ab, B=B, C=C, k=kply, kbb=kbb, kbu=kbu)
 
 
@@ -341,20 +442,17 @@ def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
         y: Member unknowns, shape (nm, c).
 
     Returns:
-        ``(de, u_el, u_ply)``: element bolt DOFs (ne, 4, c), the displacement
-        of the body each element bears against (ne, c), and per ply (np, c).
+        ``(de, u_el, u_ply)``: element bolt DOFs (S·ne, 4, c), the displacement
+        of the body each element bears against (S·ne, c), and per station and
+        ply (S, np, c).
     """
-    c = x.shape[1]
     ed = lay.edofs
     de = np.where((ed >= 0)[:, :, None], x[np.maximum(ed, 0)], 0.0)
-    u_ply = np.zeros((len(lay.target), c))
-    for j, (kind, i) in enumerate(lay.target):
-        if kind == "a":
-            u_ply[j] = x[i]
-        elif kind == "m":
-            u_ply[j] = y[i]
-    ply = lay.mesh.ply
-    u_el = np.where(ply[:, None] >= 0, u_ply[np.maximum(ply, 0)], 0.0)
+    u_ply = np.array([[endpoint_value(t, x, y) for t in row] for row in lay.target])
+    ns = len(lay.target)
+    station_of = np.repeat(np.arange(ns), lay.ne)
+    ply = lay.el_ply
+    u_el = np.where(ply[:, None] >= 0, u_ply[station_of, np.maximum(ply, 0)], 0.0)
     return de, u_el, u_ply
 
 
@@ -376,19 +474,27 @@ def _own_bandwidth(edofs: np.ndarray, kind: np.ndarray, idx: np.ndarray) -> int:
     return int(np.max(np.where(e >= 0, np.abs(t - e), 0)))
 
 
+def _spring_bandwidth(springs: list[Spring]) -> int:
+    """Return the largest |i − j| between two ``A`` endpoints of a spring."""
+    spans = [abs(sp.a[1] - sp.b[1]) for sp in springs if sp.a[0] == "a" and sp.b[0] == "a"]
+    return max(spans, default=0)
+
+
 def _drop_rotations(
-    bolt_dof: np.ndarray, target: list[tuple[str, int]], n: int
-) -> tuple[np.ndarray, list[tuple[str, int]], int]:
-    """Restrain the rotation at the head and nut nodes and renumber A compactly."""
+    bolt_dof: np.ndarray, target: list[list[Endpoint]], n: int
+) -> tuple[np.ndarray, list[list[Endpoint]], int]:
+    """Restrain the rotation at every bolt's head and nut and renumber A compactly."""
     used = np.zeros(n, dtype=bool)
     bolt_dof = bolt_dof.copy()
-    bolt_dof[0, 1] = FIXED
-    bolt_dof[-1, 1] = FIXED
+    bolt_dof[:, 0, 1] = FIXED
+    bolt_dof[:, -1, 1] = FIXED
     used[bolt_dof[bolt_dof >= 0]] = True
-    for kind, i in target:
-        if kind == "a":
-            used[i] = True
+    for row in target:
+        for kind, i in row:
+            if kind == "a":
+                used[i] = True
     new = np.cumsum(used) - 1
     bolt_dof = np.where(bolt_dof >= 0, new[np.maximum(bolt_dof, 0)], FIXED)
-    target = [(kind, int(new[i])) if kind == "a" else (kind, i) for kind, i in target]
+    target = [[(kind, int(new[i])) if kind == "a" else (kind, i) for kind, i in row]
+              for row in target]
     return bolt_dof, target, int(used.sum())

@@ -29,13 +29,21 @@ import numpy as np
 from scipy.linalg import solve_banded
 
 from plyshear.mechanics import beam, laws
-from plyshear.mechanics.assembly import FIXED, Layout, element_displacements, layout, scatter
+from plyshear.mechanics.assembly import (
+    Layout,
+    element_displacements,
+    endpoint_value,
+    layout,
+    scatter,
+)
 from plyshear.model import catalog
 from plyshear.model.joint import Joint
 
 SHEAR_OVER_TENSION = 0.62  # Kulak, Fisher & Struik (1987): bolt shear / tensile strength
-#: A tiny stiffness inside the clearance keeps the tangent regular before contact,
-#: as a fraction of the ply's initial bearing stiffness.
+#: A tiny stiffness added to every bearing law, as a fraction of the ply's initial
+#: bearing stiffness: it keeps the tangent regular before contact and on a plastic
+#: plateau (where the bolt's position between yielded plies is otherwise free), and
+#: lifts forces by about this fraction of k0 times the deformation.
 GAP_STIFFNESS = 1e-8
 TOL_FORCE = 1e-9  # Newton: residual over the load, at convergence
 MAX_ITER = 30
@@ -66,14 +74,16 @@ class Limits:
 class State:
     """One converged state of the incremental analysis.
 
+    Arrays have a leading bolt (station) axis.
+
     Attributes:
         load: Magnitude of the applied load pattern, N (λ·Σ|P_m|).
         slip: Generalised displacement along the load pattern, mm.
-        plane_shear: Resultant shear of every plane, N.
-        ply_bearing: Bearing force of every ply, N.
-        deformation: Largest contact deformation of every ply, mm.
-        V: Bolt shear at the nodes, N.
-        M: Bolt moment at the nodes, N·mm.
+        plane_shear: Resultant shear of every plane, N, shape (S, planes).
+        ply_bearing: Bearing force of every ply, N, shape (S, plies).
+        deformation: Largest contact deformation of every ply, mm, (S, plies).
+        V: Bolt shear at the nodes, N, shape (S, nn).
+        M: Bolt moment at the nodes, N·mm, shape (S, nn).
     """
 
     load: float
@@ -135,6 +145,16 @@ def limits(joint: Joint, z: np.ndarray, plane_threads: list[bool]) -> Limits:
     )
 
 
+def net_section_strengths(joint: Joint) -> list[float]:
+    """Tensile rupture strength of each ply's net section between bolts, N (fu·(w − d0)·t).
+
+    Infinite where the ply gives no width (a single bolt needs none).
+    """
+    d0 = joint.bolt.diameter + hole_clearance(joint)
+    return [p.fu * (p.width - d0) * p.thickness if p.width is not None else float("inf")
+            for p in joint.plies]
+
+
 def law_name(joint: Joint) -> str:
     """The nonlinear law behind the model's bearing law ("component" is linear)."""
     return "linear" if joint.analysis.bearing == "component" else joint.analysis.bearing
@@ -153,6 +173,10 @@ def clearances(joint: Joint) -> tuple[np.ndarray, np.ndarray]:
         return np.zeros(n), np.zeros(n)
     half = 0.5 * hole_clearance(joint)
     offset = np.array([p.hole_offset for p in joint.plies]) if mode == "offset" else np.zeros(n)
+    for p, o in zip(joint.plies, offset, strict=True):
+        if abs(o) > half * (1 + 1e-12):
+            raise CapacityError(f"ply {p.name}: hole_offset {o:g} mm is more than half the "
+                                f"clearance ({half:g} mm)")
     return half + offset, half - offset
 
 
@@ -175,9 +199,9 @@ class _Model:
 
         self.joint = joint
         self.lay: Layout = layout(joint)
-        mesh = self.lay.mesh
-        self.L = mesh.lengths
-        self.ply = mesh.ply
+        self.ns = len(self.lay.stations)
+        self.L = np.tile(self.lay.mesh.lengths, self.ns)
+        self.ply = self.lay.el_ply
         self.n = beam.shape_w(beam.GAUSS_XI, self.lay.phi, self.L)  # (e, g, 4)
         self.wl = beam.GAUSS_W[None, :] * self.L[:, None] * (self.ply >= 0)[:, None]
         k_lin = ply_moduli(joint)
@@ -236,11 +260,13 @@ class _Model:
         np.add.at(ra, lay.tgt_idx[own], fu[own])
         mem = lay.tgt_kind == "m"
         np.add.at(rm, lay.tgt_idx[mem], fu[mem])
-        for _, pj, md, k in lay.links:
-            um = y[md] if md != FIXED else 0.0
-            ra[pj] += k * (x[pj] - um)
-            if md != FIXED:
-                rm[md] -= k * (x[pj] - um)
+        for sp in lay.springs:
+            force = sp.k * (endpoint_value(sp.a, x, y) - endpoint_value(sp.b, x, y))
+            for (kind, i), f in ((sp.a, force), (sp.b, -force)):
+                if kind == "a":
+                    ra[i] += f
+                elif kind == "m":
+                    rm[i] += f
         out = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fe": fe, "de": de, "u_el": u_el}
         if tangent:
             kbb = np.einsum("eg,eg,egi,egj->eij", self.wl, dp, self.n, self.n)
@@ -252,25 +278,36 @@ class _Model:
     def state(self, x: np.ndarray, y: np.ndarray, lam: float) -> State:
         """The converged state's plane shears, bearings, deformations and diagrams."""
         ev = self.evaluate(x, y, tangent=False)
-        bolt_on_ply = np.einsum("eg,eg->e", self.wl, ev["p"])  # per element
-        nn = self.L.size + 1
-        V = np.zeros(nn)
-        V[1:] = np.cumsum(bolt_on_ply)
-        # M from element equilibrium: dM/dz = V, with the bearing's own moment.
-        ff = np.einsum("eg,eg,egi->ei", self.wl, ev["p"], self.n)
-        M = np.zeros(nn)
-        if self.joint.bolt.ends == "clamped":
-            M[0] = (self.lay.kel[0] @ ev["de"][0])[1] + ff[0, 1]
-        M[1:] = M[0] + np.cumsum(self.L * V[1:] - (ff[:, 1] + ff[:, 3] + self.L * ff[:, 2]))
+        ne = self.lay.ne
         nplies = len(self.joint.plies)
-        bearing = np.zeros(nplies)
-        np.add.at(bearing, np.maximum(self.ply, 0), np.where(self.ply >= 0, bolt_on_ply, 0.0))
-        deform = np.zeros(nplies)
-        np.maximum.at(deform, np.maximum(self.ply, 0),
-                      np.where(self.ply >= 0, ev["delta"].max(axis=1), 0.0))
-        planes = np.abs(V[self.lay.mesh.plane_nodes])
-        return State(load=float(lam * self.scale), slip=float(self.c @ y), plane_shear=planes,
-                     ply_bearing=np.abs(bearing), deformation=deform, V=V, M=M)
+        bolt_on_ply_all = np.einsum("eg,eg->e", self.wl, ev["p"])  # per element
+        ff_all = np.einsum("eg,eg,egi->ei", self.wl, ev["p"], self.n)
+        L = self.lay.mesh.lengths
+        Vs, Ms, planes, bearings, deforms = [], [], [], [], []
+        for st in range(self.ns):
+            rows = self.lay.station_slice(st)
+            bolt_on_ply, ff = bolt_on_ply_all[rows], ff_all[rows]
+            V = np.zeros(ne + 1)
+            V[1:] = np.cumsum(bolt_on_ply)
+            # M from element equilibrium: dM/dz = V, with the bearing's own moment.
+            M = np.zeros(ne + 1)
+            if self.joint.bolt.ends == "clamped":
+                M[0] = (self.lay.kel[rows][0] @ ev["de"][rows][0])[1] + ff[0, 1]
+            M[1:] = M[0] + np.cumsum(L * V[1:] - (ff[:, 1] + ff[:, 3] + L * ff[:, 2]))
+            ply = self.ply[rows]
+            bearing = np.zeros(nplies)
+            np.add.at(bearing, np.maximum(ply, 0), np.where(ply >= 0, bolt_on_ply, 0.0))
+            deform = np.zeros(nplies)
+            np.maximum.at(deform, np.maximum(ply, 0),
+                          np.where(ply >= 0, ev["delta"][rows].max(axis=1), 0.0))
+            Vs.append(V)
+            Ms.append(M)
+            planes.append(np.abs(V[self.lay.mesh.plane_nodes]))
+            bearings.append(np.abs(bearing))
+            deforms.append(deform)
+        return State(load=float(lam * self.scale), slip=float(self.c @ y),
+                     plane_shear=np.array(planes), ply_bearing=np.array(bearings),
+                     deformation=np.array(deforms), V=np.array(Vs), M=np.array(Ms))
 
 
 def _banded_full(ab_upper: np.ndarray) -> np.ndarray:
@@ -325,16 +362,20 @@ def _newton(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, target: flo
 
 def events(joint: Joint, model: _Model, st: State, lim: Limits) -> list[Event]:
     """Return every failure measure of a state (≥ 1 means the event is reached)."""
-    out = [Event("plane shear rupture", f"plane {i + 1}", float(v / r))
-           for i, (v, r) in enumerate(zip(st.plane_shear, lim.plane, strict=True))]
-    for j, (dl, cv) in enumerate(zip(st.deformation, model.curves, strict=True)):
-        if np.isfinite(cv.delta_limit):
-            out.append(Event("ply bearing deformation", f"ply {joint.plies[j].name}",
-                             float(dl / cv.delta_limit)))
-    inter = np.sqrt((st.M / lim.moment) ** 2 + (st.V / lim.shear) ** 2)
-    k = int(np.argmax(inter))
-    out.append(Event("bolt bending and shear", "bolt", float(inter[k]),
-                     float(model.lay.mesh.z[k])))
+    out = []
+    many = model.ns > 1
+    for b in range(model.ns):
+        tag = f"bolt {b + 1} " if many else ""
+        out += [Event("plane shear rupture", f"{tag}plane {i + 1}", float(v / r))
+                for i, (v, r) in enumerate(zip(st.plane_shear[b], lim.plane, strict=True))]
+        for j, (dl, cv) in enumerate(zip(st.deformation[b], model.curves, strict=True)):
+            if np.isfinite(cv.delta_limit):
+                out.append(Event("ply bearing deformation",
+                                 f"{tag}ply {joint.plies[j].name}", float(dl / cv.delta_limit)))
+        inter = np.sqrt((st.M[b] / lim.moment) ** 2 + (st.V[b] / lim.shear) ** 2)
+        k = int(np.argmax(inter))
+        out.append(Event("bolt bending and shear", f"bolt {b + 1}" if many else "bolt",
+                         float(inter[k]), float(model.lay.mesh.z[k])))
     return out
 
 
@@ -486,32 +527,38 @@ def summarize(joint: Joint) -> CapacitySummary:
 
     model = _Model(joint)
     sol = solve(joint)
-    bolt = sol.bolts[0]
-    lim = limits(joint, bolt.z, [p.threads for p in bolt.planes])
+    mesh = model.lay.mesh
+    lim = limits(joint, mesh.z, [joint.bolt.threaded_at(float(mesh.z[n]))
+                                 for n in mesh.plane_nodes])
     # Elastic: the linear solution at the model's loads, scaled to the first event.
     scale = model.scale
+    many = len(sol.bolts) > 1
     cands: list[tuple[float, str, str, float | None]] = []
-    for p, r in zip(bolt.planes, lim.plane, strict=True):
-        if p.shear > 0:
-            cands.append((r / p.shear, "plane shear rupture", f"plane {p.index}", None))
-    m = np.hypot(bolt.M[:, 0], bolt.M[:, 1])
-    v = np.hypot(bolt.V[:, 0], bolt.V[:, 1])
-    inter = np.sqrt((m / lim.moment) ** 2 + (v / lim.shear) ** 2)
-    k = int(np.argmax(inter))
-    if inter[k] > 0:
-        cands.append((float(1.0 / inter[k]), "bolt bending and shear", "bolt", float(bolt.z[k])))
-    for pb, cv in zip(bolt.plies, model.curves, strict=True):
-        cap = cv.q_max * joint.plies[pb.ply].thickness
-        if pb.force > 0 and np.isfinite(cap):
-            cands.append((cap / pb.force, "ply bearing strength",
-                          f"ply {joint.plies[pb.ply].name}", None))
+    for b, bolt in enumerate(sol.bolts):
+        tag = f"bolt {b + 1} " if many else ""
+        for p, r in zip(bolt.planes, lim.plane, strict=True):
+            if p.shear > 0:
+                cands.append((r / p.shear, "plane shear rupture", f"{tag}plane {p.index}",
+                              None))
+        m = np.hypot(bolt.M[:, 0], bolt.M[:, 1])
+        v = np.hypot(bolt.V[:, 0], bolt.V[:, 1])
+        inter = np.sqrt((m / lim.moment) ** 2 + (v / lim.shear) ** 2)
+        k = int(np.argmax(inter))
+        if inter[k] > 0:
+            cands.append((float(1.0 / inter[k]), "bolt bending and shear",
+                          f"bolt {b + 1}" if many else "bolt", float(bolt.z[k])))
+        for pb, cv in zip(bolt.plies, model.curves, strict=True):
+            cap = cv.q_max * joint.plies[pb.ply].thickness
+            if pb.force > 0 and np.isfinite(cap):
+                cands.append((cap / pb.force, "ply bearing strength",
+                              f"{tag}ply {joint.plies[pb.ply].name}", None))
     lam_el, ev_el, where_el, z_el = min(cands, key=lambda c: c[0])
     elastic = Answer(float(lam_el * scale), ev_el, where_el, z_el)
     result = analyse(joint)
     nonlinear = Answer(float(result.load), result.event.event, result.event.where,
                        result.event.z)
     ply_caps = [cv.q_max * p.thickness for cv, p in zip(model.curves, joint.plies, strict=True)]
-    bound = plastic_bound(joint, list(lim.plane), ply_caps)
+    bound = plastic_bound(joint, list(lim.plane), ply_caps, net_section_strengths(joint))
     plastic = Answer(bound.load, "mechanism", ", ".join(bound.cut))
     strength = float(max(lim.plane))
     return CapacitySummary(planes=separating_planes(joint), plane_strength=strength,

@@ -79,7 +79,7 @@ class PlasticBound:
 
 
 def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[float],
-                  bolt: int = 0) -> PlasticBound:
+                  segment_capacity: list[float] | None = None) -> PlasticBound:
     """Return the max-flow bound of the joint along its load pattern.
 
     The force travels from the loaded members into their plies, from a ply
@@ -92,11 +92,17 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     the supports' reaction can all be delivered is the plastic bound, and the
     minimum cut names the mechanism.
 
+    In a bolt row every bolt has its own plies and planes; a ply passes force
+    from one bolt to the next along its segment (capacity: its net section),
+    and a member's force enters its plies at the first or last bolt.
+
     Args:
         joint: The joint (its member loads give the pattern).
-        plane_capacity: Rupture strength of each plane, N (head to nut).
-        ply_capacity: Bearing strength of each ply, N (inf for ample).
-        bolt: The bolt station (one bolt here).
+        plane_capacity: Rupture strength of each plane, N (head to nut), the
+            same at every bolt.
+        ply_capacity: Bearing strength of each ply at one bolt, N (inf for ample).
+        segment_capacity: Axial strength of each ply between bolts, N (inf
+            when omitted).
 
     Returns:
         The :class:`PlasticBound`.
@@ -110,20 +116,31 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     big = 1e6 * (sum(c for c in plane_capacity if np.isfinite(c))
                  + sum(c for c in ply_capacity if np.isfinite(c)) + scale)
 
+    ns = len(joint.stations)
+    seg_cap = segment_capacity or [float("inf")] * len(joint.plies)
+
+    def cap_or_big(c: float) -> float:
+        return c if np.isfinite(c) else big
+
     def graph(lam: float) -> nx.DiGraph:
         g = nx.DiGraph()
         n = len(joint.plies)
+
+        def both(a: object, b: object, c: float) -> None:
+            g.add_edge(a, b, capacity=c)
+            g.add_edge(b, a, capacity=c)
+
+        for st in range(ns):
+            for j in range(n):
+                both(("ply", st, j), ("seg", st, j), cap_or_big(ply_capacity[j]))
+                if st + 1 < ns:
+                    both(("ply", st, j), ("ply", st + 1, j), cap_or_big(seg_cap[j]))
+            for i in range(n - 1):
+                both(("seg", st, i), ("seg", st, i + 1), cap_or_big(plane_capacity[i]))
         for j, ply in enumerate(joint.plies):
-            cap = ply_capacity[j] if np.isfinite(ply_capacity[j]) else big
-            g.add_edge(("ply", j), ("seg", j), capacity=cap)
-            g.add_edge(("seg", j), ("ply", j), capacity=cap)
             if ply.member is not None:
-                g.add_edge(("member", ply.member), ("ply", j), capacity=big)
-                g.add_edge(("ply", j), ("member", ply.member), capacity=big)
-        for i in range(n - 1):
-            cap = plane_capacity[i] if np.isfinite(plane_capacity[i]) else big
-            g.add_edge(("seg", i), ("seg", i + 1), capacity=cap)
-            g.add_edge(("seg", i + 1), ("seg", i), capacity=cap)
+                st = 0 if joint.member(ply.member).enters == "before" else ns - 1
+                both(("member", ply.member), ("ply", st, j), big)
         net = sum(pattern.values())  # the supports take -net: a sink when net > 0
         for m in joint.members:
             node = ("member", m.name)
@@ -162,12 +179,15 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     g = graph(hi)
     _, (reach, _) = nx.minimum_cut(g, "S", "T")
     cut = []
-    for i in range(len(joint.plies) - 1):
-        a, b = ("seg", i) in reach, ("seg", i + 1) in reach
-        if a != b:
-            cut.append(f"plane {i + 1}")
-    for j, ply in enumerate(joint.plies):
-        if (("ply", j) in reach) != (("seg", j) in reach):
-            cut.append(f"ply {ply.name}")
+    for st in range(ns):
+        tag = f"bolt {st + 1} " if ns > 1 else ""
+        for i in range(len(joint.plies) - 1):
+            if (("seg", st, i) in reach) != (("seg", st, i + 1) in reach):
+                cut.append(f"{tag}plane {i + 1}")
+        for j, ply in enumerate(joint.plies):
+            if (("ply", st, j) in reach) != (("seg", st, j) in reach):
+                cut.append(f"{tag}ply {ply.name}")
+            if st + 1 < ns and (("ply", st, j) in reach) != (("ply", st + 1, j) in reach):
+                cut.append(f"ply {ply.name} between bolts {st + 1} and {st + 2}")
     # lo scales the pattern; the reported load is the pattern's magnitude at that scale
     return PlasticBound(load=lo * total, cut=tuple(cut))

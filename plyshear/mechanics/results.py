@@ -11,7 +11,7 @@ Sign conventions (x and y components alike):
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
@@ -148,6 +148,8 @@ class Solution:
         equilibrium_residual: Largest out-of-balance force of the solved
             system, relative to the applied load (round-off level when sound).
         warnings: Things the engineer must know about this solution.
+        segment_forces: Axial force of every ply between consecutive bolts,
+            N, shape (S − 1, plies, 2), tension positive (empty for one bolt).
     """
 
     joint: Joint
@@ -155,6 +157,7 @@ class Solution:
     members: tuple[MemberResult, ...]
     equilibrium_residual: float
     warnings: tuple[str, ...] = ()
+    segment_forces: np.ndarray = field(default_factory=lambda: np.zeros((0, 0, 2)))
 
     @property
     def planes(self) -> tuple[PlaneShear, ...]:

@@ -10,7 +10,14 @@ from __future__ import annotations
 import numpy as np
 from scipy.linalg import cho_factor, cho_solve, cho_solve_banded, cholesky_banded
 
-from plyshear.mechanics.assembly import FIXED, System, assemble, element_displacements
+from plyshear.mechanics.assembly import (
+    FIXED,
+    Layout,
+    System,
+    assemble,
+    element_displacements,
+    endpoint_value,
+)
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.results import (
     BoltResult,
@@ -83,76 +90,103 @@ def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray]:
 
 
 def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solution:
+    lay = sys.layout
     mesh = sys.mesh
-    de, u_el, u_ply = element_displacements(sys.layout, x, y)
-    d = np.concatenate([de[:, :2], de[-1:, 2:]], axis=0)  # node, (w, θ), component
-    L = mesh.lengths
+    nplies = len(joint.plies)
+    de_all, u_all, u_ply = element_displacements(lay, x, y)
     # Foundation forces on the element DOFs; their w-sum is the force the bolt applies
     # to the ply over the element.
-    ff = np.einsum("eij,ejc->eic", sys.kbb, de) + sys.kbu[:, :, None] * u_el[:, None, :]
-    _balance_supports(joint, sys, ff)
-    V, M = _internal_forces(sys, ff, de, u_el, clamped=joint.bolt.ends == "clamped")
-    w = d[:, 0, :]
-    on_bolt_el = -(ff[:, 0] + ff[:, 2])  # force each element's ply applies to the bolt
-    on_bolt = np.zeros((len(joint.plies), 2))
-    np.add.at(on_bolt, np.maximum(mesh.ply, 0), np.where(mesh.ply[:, None] >= 0, on_bolt_el, 0.0))
-    # Mean bolt displacement over each ply, for the slip.
-    wmean = np.zeros((len(joint.plies), 2))
-    np.add.at(wmean, np.maximum(mesh.ply, 0),
-              np.where(mesh.ply[:, None] >= 0, 0.5 * (de[:, 0] + de[:, 2]) * L[:, None], 0.0))
-    tply = np.array([p.thickness for p in joint.plies])
-    wmean /= tply[:, None]
-    # Bearing pressure at both ends of every element (zero in gaps).
-    k_el = np.where(mesh.ply >= 0, sys.k[np.maximum(mesh.ply, 0)], 0.0)[:, None, None]
-    q = k_el * (u_el[:, None, :] - np.stack([w[:-1], w[1:]], axis=1))
-
-    planes = tuple(
-        PlaneShear(index=i + 1, z=float(mesh.z[n]), above=i, below=i + 1,
-                   shear_xy=(float(V[n, 0]), float(V[n, 1])),
-                   moment_xy=(float(M[n, 0]), float(M[n, 1])),
-                   threads=joint.bolt.threaded_at(float(mesh.z[n])))
-        for i, n in enumerate(mesh.plane_nodes)
-    )
-    plies = tuple(
-        PlyBearing(ply=j, force_xy=(float(-on_bolt[j, 0]), float(-on_bolt[j, 1])),
-                   slip_xy=(float(u_ply[j, 0] - wmean[j, 0]), float(u_ply[j, 1] - wmean[j, 1])))
-        for j in range(len(joint.plies))
-    )
+    ff_all = np.einsum("eij,ejc->eic", sys.kbb, de_all) \
+        + sys.kbu[:, :, None] * u_all[:, None, :]
     midx = joint.member_index()
     reaction = np.zeros((len(joint.members), 2))
-    for j, ply in enumerate(joint.plies):
-        if ply.member is not None:
-            reaction[midx[ply.member]] += on_bolt[j]
+    bolts = []
+    L = mesh.lengths
+    tply = np.array([p.thickness for p in joint.plies])
+    k_el = np.where(mesh.ply >= 0, sys.k[np.maximum(mesh.ply, 0)], 0.0)[:, None, None]
+    clamped = joint.bolt.ends == "clamped"
+    for st, x_st in enumerate(lay.stations):
+        rows = lay.station_slice(st)
+        de, u_el, ff = de_all[rows], u_all[rows], ff_all[rows]
+        held = np.array([kind == "0" for kind, _ in lay.target[st]])
+        _balance_supports(sys, ff, held)
+        V, M = _internal_forces(lay, ff, de, u_el, clamped)
+        d = np.concatenate([de[:, :2], de[-1:, 2:]], axis=0)  # node, (w, θ), component
+        w = d[:, 0, :]
+        on_bolt_el = -(ff[:, 0] + ff[:, 2])  # force each element's ply applies to the bolt
+        on_bolt = np.zeros((nplies, 2))
+        np.add.at(on_bolt, np.maximum(mesh.ply, 0),
+                  np.where(mesh.ply[:, None] >= 0, on_bolt_el, 0.0))
+        # Mean bolt displacement over each ply, for the slip.
+        wmean = np.zeros((nplies, 2))
+        np.add.at(wmean, np.maximum(mesh.ply, 0),
+                  np.where(mesh.ply[:, None] >= 0, 0.5 * (de[:, 0] + de[:, 2]) * L[:, None],
+                           0.0))
+        wmean /= tply[:, None]
+        # Bearing pressure at both ends of every element (zero in gaps).
+        q = k_el * (u_el[:, None, :] - np.stack([w[:-1], w[1:]], axis=1))
+        planes = tuple(
+            PlaneShear(index=i + 1, z=float(mesh.z[n]), above=i, below=i + 1,
+                       shear_xy=(float(V[n, 0]), float(V[n, 1])),
+                       moment_xy=(float(M[n, 0]), float(M[n, 1])),
+                       threads=joint.bolt.threaded_at(float(mesh.z[n])))
+            for i, n in enumerate(mesh.plane_nodes)
+        )
+        plies = tuple(
+            PlyBearing(ply=j, force_xy=(float(-on_bolt[j, 0]), float(-on_bolt[j, 1])),
+                       slip_xy=(float(u_ply[st, j, 0] - wmean[j, 0]),
+                                float(u_ply[st, j, 1] - wmean[j, 1])))
+            for j in range(nplies)
+        )
+        for j, (kind, m) in enumerate(lay.target[st]):
+            if kind == "0":
+                reaction[m] += on_bolt[j]
+        bolts.append(BoltResult(x=float(x_st), z=mesh.z, V=V, M=M, w=w, q=q, planes=planes,
+                                plies=plies))
+    # Springs held by a support pull on it: links, and the segments next to a held ply.
+    segments = np.zeros((max(len(lay.stations) - 1, 0), nplies, 2))
+    for sp in lay.springs:
+        ua, ub = endpoint_value(sp.a, x, y), endpoint_value(sp.b, x, y)
+        for end, other in ((sp.a, ub), (sp.b, ua)):
+            if end[0] == "0":
+                reaction[end[1]] -= sp.k * other
+        if sp.segment >= 0:
+            segments[sp.segment, sp.ply] = sp.k * (ub - ua)  # tension positive
     members = []
     for i, m in enumerate(joint.members):
-        md = sys.layout.member_dof[i]
+        md = lay.member_dof[i]
         disp = y[md] if md != FIXED else np.zeros(2)
         react = reaction[i] if m.support else np.zeros(2)
         members.append(MemberResult(member=i, displacement_xy=(float(disp[0]), float(disp[1])),
                                     reaction_xy=(float(react[0]), float(react[1]))))
     residual = _residual(joint, sys, x, y, reaction)
-    bolt = BoltResult(x=0.0, z=mesh.z, V=V, M=M, w=w, q=q, planes=planes, plies=plies)
     warnings: list[str] = []
     if not residual <= RESIDUAL_WARN:
         warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
                         "stiffness contrasts in the stack are extreme, treat results with care")
-    return Solution(joint=joint, bolts=(bolt,), members=tuple(members),
-                    equilibrium_residual=residual, warnings=tuple(warnings))
+    del midx
+    return Solution(joint=joint, bolts=tuple(bolts), members=tuple(members),
+                    equilibrium_residual=residual, warnings=tuple(warnings),
+                    segment_forces=segments)
 
 
-def _balance_supports(joint: Joint, sys: System, ff: np.ndarray) -> None:
-    """Restore the bolt's equilibrium exactly, in place, on the supported plies.
+def _balance_supports(sys: System, ff: np.ndarray, held: np.ndarray) -> None:
+    """Restore one bolt's equilibrium exactly, in place, on its supported plies.
 
     The solved bolt rows carry a residual of order eps·|K|·|u|, which for a very
     stiff bolt on soft bearing is far above round-off of the load. The plies
-    tied rigidly to a support have no equation of their own: their bearing is
-    whatever the bolt leaves, so the residual lands on them. Sharing the bolt's
-    lack of balance among them, in proportion to their bearing stiffness,
-    makes the bearing forces satisfy statics exactly (a determinate stack then
-    gives the statics shears to round-off) and changes nothing a sound solve
-    would show.
+    held by a support at this bolt have no equation of their own: their bearing
+    is whatever the bolt leaves, so the residual lands on them. Sharing the
+    bolt's lack of balance among them, in proportion to their bearing
+    stiffness, makes the bearing forces satisfy statics exactly (a determinate
+    stack then gives the statics shears to round-off) and changes nothing a
+    sound solve would show.
+
+    Args:
+        sys: The system.
+        ff: Foundation forces of this bolt's elements, shape (ne, 4, 2).
+        held: Per ply, True where it is held by a support at this bolt.
     """
-    held = np.array([kind == "0" for kind, _ in sys.layout.target])
     if not held.any():
         return
     ply = sys.mesh.ply
@@ -164,7 +198,7 @@ def _balance_supports(joint: Joint, sys: System, ff: np.ndarray) -> None:
     ff[:, 2] -= 0.5 * share[:, None] * imbalance
 
 
-def _internal_forces(sys: System, ff: np.ndarray, de: np.ndarray, u_el: np.ndarray,
+def _internal_forces(lay: Layout, ff: np.ndarray, de: np.ndarray, u_el: np.ndarray,
                      clamped: bool) -> tuple[np.ndarray, np.ndarray]:
     """Return the bolt shear V and moment M at the nodes, shape (nn, 2) each.
 
@@ -174,14 +208,14 @@ def _internal_forces(sys: System, ff: np.ndarray, de: np.ndarray, u_el: np.ndarr
     than from the beam stiffness times displacements avoids the cancellation
     of very stiff short elements, so statics hold to round-off.
     """
-    L = sys.mesh.lengths
+    L = lay.mesh.lengths
     nn = L.size + 1
     V = np.zeros((nn, 2))
     V[1:] = np.cumsum(ff[:, 0] + ff[:, 2], axis=0)
     M = np.zeros((nn, 2))
     if clamped:
-        M[0] = np.einsum("ij,jc->ic", sys.layout.kel[0] + sys.kbb[0], de[0])[1] \
-            + sys.kbu[0, 1] * u_el[0]
+        # the head's reaction moment: the first element's full end force
+        M[0] = np.einsum("ij,jc->ic", lay.kel[0], de[0])[1] + ff[0, 1]
     step = L[:, None] * V[1:] - (ff[:, 1] + ff[:, 3] + L[:, None] * ff[:, 2])
     M[1:] = M[0] + np.cumsum(step, axis=0)
     return V, M

@@ -143,11 +143,14 @@ class Member:
         name: Member name.
         support: True if the member is held (its reaction is computed).
         load: In-plane force (Fx, Fy) on the member, N.
+        enters: Where the member's force enters its plies in a bolt row:
+            "before" the first station or "after" the last.
     """
 
     name: str
     support: bool = False
     load: tuple[float, float] = (0.0, 0.0)
+    enters: str = "before"
 
     @property
     def is_loaded(self) -> bool:
@@ -214,6 +217,7 @@ class Joint:
         members: Members named by the plies.
         title: Free text shown in reports.
         project: Free text on the project (job, client, engineer), shown in reports.
+        stations: Bolt positions along x, mm (one bolt: ``(0.0,)``).
         units: Name of the unit system results are written in.
         analysis: Analysis settings.
         check: Design-check settings.
@@ -227,6 +231,7 @@ class Joint:
     units: str = "N-mm"
     analysis: Analysis = field(default_factory=Analysis)
     project: str = ""
+    stations: tuple[float, ...] = (0.0,)
     check: CheckSettings = field(default_factory=CheckSettings)
     source: str | None = None
 
@@ -235,6 +240,11 @@ class Joint:
         gaps = np.array([p.gap for p in self.plies])
         t = np.array([p.thickness for p in self.plies])
         return np.cumsum(gaps) + np.concatenate(([0.0], np.cumsum(t)[:-1]))
+
+    @property
+    def pattern_length(self) -> float:
+        """Distance between the first and the last bolt, mm (0 for one bolt)."""
+        return float(self.stations[-1] - self.stations[0])
 
     @property
     def grip(self) -> float:

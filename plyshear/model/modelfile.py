@@ -42,7 +42,10 @@ METHODS = ("lrfd", "asd")
 #: Faying-surface classes: AISC 360-22 J3.8 (A, B); EN 1993-1-8 Table 3.7 (A to D).
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
-TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check")
+TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
+            "pattern")
+PATTERN_KEYS = ("positions", "count", "pitch")
+MAX_STATIONS = 500
 BOLT_KEYS = (
     "diameter", "grade", "length", "thread_length", "threads", "ends", "pretension",
     "tension", "hole", "E", "poisson", "stress_area",
@@ -51,7 +54,7 @@ PLY_KEYS = (
     "name", "member", "thickness", "steel", "fy", "fu", "gap", "edge", "width",
     "foundation_modulus", "link_stiffness", "E", "hole_offset",
 )
-MEMBER_KEYS = ("support", "load")
+MEMBER_KEYS = ("support", "load", "enters")
 ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
               "slip_critical", "slip_class", "joint_length")
@@ -260,10 +263,18 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
         seen[ply.name] = i
 
     members = _members(r, data.get("member", {}), plies)
+    stations = _pattern(r, r.table(data.get("pattern", {}), "pattern")) \
+        if "pattern" in data else (0.0,)
+    if len(stations) > 1:
+        for i, ply in enumerate(plies, start=1):
+            if ply.width is None:
+                raise r.fail(f"ply[{i}].width", "missing; a bolt row needs every ply's width "
+                             "for its axial stiffness")
     analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
     check = _check(r, r.table(data.get("check", {}), "check"))
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
-                 analysis=analysis, check=check, source=path, project=project)
+                 analysis=analysis, check=check, source=path, project=project,
+                 stations=stations)
 
 
 def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
@@ -393,7 +404,8 @@ def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...]) -> tuple[Member, ...]
             if support:
                 raise r.fail(f"{key}.load", "a supported member cannot also be loaded")
             load = _load(r, m["load"], f"{key}.load")
-        members.append(Member(name=name, support=support, load=load))
+        enters = r.choice(m.get("enters", "before"), f"{key}.enters", ("before", "after"))
+        members.append(Member(name=name, support=support, load=load, enters=enters))
     if not any(m.support for m in members):
         raise r.fail("member", "no supported member; mark at least one with support = true")
     return tuple(members)
@@ -405,6 +417,32 @@ def _load(r: _Reader, raw: Any, key: str) -> tuple[float, float]:
             raise r.fail(key, f"must be a scalar (along x) or [Fx, Fy] (got {len(raw)} values)")
         return (r.quantity(raw[0], f"{key}[1]", "force"), r.quantity(raw[1], f"{key}[2]", "force"))
     return (r.quantity(raw, key, "force"), 0.0)
+
+
+def _pattern(r: _Reader, p: Mapping[str, Any]) -> tuple[float, ...]:
+    r.only(p, PATTERN_KEYS, "pattern")
+    if "positions" in p:
+        if "count" in p or "pitch" in p:
+            raise r.fail("pattern", "give positions, or count and pitch, not both")
+        raw = p["positions"]
+        if not isinstance(raw, list) or not raw:
+            raise r.fail("pattern.positions", f"must be a non-empty array (got {_kind(raw)})")
+        if len(raw) > MAX_STATIONS:
+            raise r.fail("pattern.positions", f"at most {MAX_STATIONS} bolts (got {len(raw)})")
+        xs = [r.quantity(v, f"pattern.positions[{i}]", "length")
+              for i, v in enumerate(raw, start=1)]
+    else:
+        if "count" not in p or "pitch" not in p:
+            raise r.fail("pattern", "give positions, or both count and pitch")
+        n = p["count"]
+        if isinstance(n, bool) or not isinstance(n, int) or not 1 <= n <= MAX_STATIONS:
+            raise r.fail("pattern.count", f"must be an integer in 1..{MAX_STATIONS} (got {n!r})")
+        pitch = r.positive(p["pitch"], "pattern.pitch", "length")
+        xs = [i * pitch for i in range(n)]
+    for i in range(1, len(xs)):
+        if not xs[i] > xs[i - 1]:
+            raise r.fail(f"pattern.positions[{i + 1}]", "positions must increase")
+    return tuple(xs)
 
 
 def _analysis(r: _Reader, a: Mapping[str, Any]) -> Analysis:

@@ -282,10 +282,15 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
     f = u.factor("force")
     hist = summary.analysis.history
     load = np.array([s.load for s in hist]) / f
-    shear = np.array([s.plane_shear for s in hist]) / f
-    for k in range(shear.shape[1]):
-        ax.plot(load, shear[:, k], color=INK, linestyle=LINESTYLES[k % len(LINESTYLES)],
-                linewidth=1.2, label=f"plane {k + 1}")
+    shear = np.array([s.plane_shear for s in hist]) / f  # (states, bolts, planes)
+    many = shear.shape[1] > 1
+    for b in range(shear.shape[1]):
+        for k in range(shear.shape[2]):
+            label = f"bolt {b + 1} plane {k + 1}" if many else f"plane {k + 1}"
+            ax.plot(load, shear[:, b, k], color=INK,
+                    linestyle=LINESTYLES[k % len(LINESTYLES)],
+                    linewidth=1.2 if b in (0, shear.shape[1] - 1) else 0.5,
+                    label=label if (not many or b in (0, shear.shape[1] - 1)) else None)
     ax.axhline(summary.plane_strength / f, color="#777777", linewidth=0.8)
     ax.set_xlabel(f"joint load [{u.label('force')}]")
     ax.set_ylabel(f"plane shear [{u.label('force')}]")

@@ -48,17 +48,41 @@ RESIDUAL_ROUNDOFF = 1e-12
 REL_LOADED = 1e-6
 
 
-def _stack(members: list[str], thick: list[float], law: str, *, clearance: str = "fitted",
-           hole_clearance: float | None = None, ends: str = "free", elements: int = 4) -> str:
+def _stack(
+    members: list[str],
+    thick: list[float],
+    law: str,
+    *,
+    clearance: str = "fitted",
+    hole_clearance: float | None = None,
+    ends: str = "free",
+    elements: int = 4,
+) -> str:
     """Model text: M20 8.8 pin (no threads), member a held, member b pulled by 100 kN."""
-    lines = ['format = 1', 'units = "N-mm"', "[bolt]", "diameter = 20", 'grade = "8.8"',
-             'threads = "excluded"', f'ends = "{ends}"', "[analysis]", f'bearing = "{law}"',
-             f"elements_per_ply = {elements}", f'clearance = "{clearance}"']
+    lines = [
+        "format = 1",
+        'units = "N-mm"',
+        "[bolt]",
+        "diameter = 20",
+        'grade = "8.8"',
+        'threads = "excluded"',
+        f'ends = "{ends}"',
+        "[analysis]",
+        f'bearing = "{law}"',
+        f"elements_per_ply = {elements}",
+        f'clearance = "{clearance}"',
+    ]
     if hole_clearance is not None:
         lines.append(f"hole_clearance = {hole_clearance!r}")
     for j, (m, t) in enumerate(zip(members, thick, strict=True)):
-        lines += ["[[ply]]", f'name = "{m}{j}"', f'member = "{m}"', f"thickness = {t!r}",
-                  "fy = 355", "fu = 490"]
+        lines += [
+            "[[ply]]",
+            f'name = "{m}{j}"',
+            f'member = "{m}"',
+            f"thickness = {t!r}",
+            "fy = 355",
+            "fu = 490",
+        ]
     lines += ["[member.a]", "support = true", "[member.b]", "load = 100000"]
     return "\n".join(lines) + "\n"
 
@@ -76,21 +100,30 @@ def _scaled(joint: plyshear.Joint, load: float) -> plyshear.Joint:
     axis = joint.load_axis()
     total = sum(abs(float(np.dot(m.load, axis))) for m in joint.members)
     f = load / total
-    return dataclasses.replace(joint, members=tuple(
-        dataclasses.replace(m, load=(m.load[0] * f, m.load[1] * f)) for m in joint.members))
+    return dataclasses.replace(
+        joint,
+        members=tuple(
+            dataclasses.replace(m, load=(m.load[0] * f, m.load[1] * f)) for m in joint.members
+        ),
+    )
 
 
 def _ample(joint: plyshear.Joint) -> capacity.Limits:
     """Strengths no plane or bolt section reaches: only the plies can fail."""
     bolt = plyshear.solve(joint).bolts[0]
-    return capacity.Limits(plane=np.full(len(bolt.planes), HUGE),
-                           moment=np.full(bolt.z.size, HUGE), shear=np.full(bolt.z.size, HUGE))
+    return capacity.Limits(
+        plane=np.full(len(bolt.planes), HUGE),
+        moment=np.full(bolt.z.size, HUGE),
+        shear=np.full(bolt.z.size, HUGE),
+    )
 
 
 def _curves(joint: plyshear.Joint) -> list[laws.BearingCurve]:
     name = capacity.law_name(joint)
-    return [laws.curve(name, joint.bolt, p, float(k))
-            for p, k in zip(joint.plies, ply_moduli(joint), strict=True)]
+    return [
+        laws.curve(name, joint.bolt, p, float(k))
+        for p, k in zip(joint.plies, ply_moduli(joint), strict=True)
+    ]
 
 
 def _regularisation(joint: plyshear.Joint) -> float:
@@ -99,8 +132,9 @@ def _regularisation(joint: plyshear.Joint) -> float:
     The solver adds GAP_STIFFNESS·k0·s to the contact force q(δ), s ≤ δ_limit + gap.
     """
     gap = max(np.max(g) for g in capacity.clearances(joint))
-    return max(capacity.GAP_STIFFNESS * cv.k0 * (cv.delta_limit + gap) / cv.q_max
-               for cv in _curves(joint))
+    return max(
+        capacity.GAP_STIFFNESS * cv.k0 * (cv.delta_limit + gap) / cv.q_max for cv in _curves(joint)
+    )
 
 
 def _q_y(joint: plyshear.Joint) -> list[float]:
@@ -117,22 +151,27 @@ def test_linear_law_reproduces_the_linear_solution(path) -> None:
     result = capacity.analyse(joint)
     loaded = [s for s in result.history if s.load > 0.0]
     assert len(loaded) >= 5
-    for state in loaded:
+    # the first step, one midway and the event (a solve each)
+    for state in (loaded[0], loaded[len(loaded) // 2], loaded[-1]):
         # a linear solution is proportional: solve the joint scaled to this load
         bolt = plyshear.solve(_scaled(joint, state.load)).bolts[0]
         shear = np.array([p.shear for p in bolt.planes])
         bearing = np.array([p.force for p in bolt.plies])
-        assert state.plane_shear == pytest.approx(shear, rel=REL_LINEAR,
-                                                  abs=REL_LINEAR * shear.max())
-        assert state.ply_bearing == pytest.approx(bearing, rel=REL_LINEAR,
-                                                  abs=REL_LINEAR * bearing.max())
+        assert state.plane_shear[0] == pytest.approx(
+            shear, rel=REL_LINEAR, abs=REL_LINEAR * shear.max()
+        )
+        assert state.ply_bearing[0] == pytest.approx(
+            bearing, rel=REL_LINEAR, abs=REL_LINEAR * bearing.max()
+        )
 
 
 def test_linear_law_summary_elastic_is_nonlinear() -> None:
     summary = capacity.summarize(_fork("component"))
     assert summary.nonlinear.load == pytest.approx(summary.elastic.load, rel=REL_BISECTION)
-    assert (summary.nonlinear.event, summary.nonlinear.where) == (summary.elastic.event,
-                                                                   summary.elastic.where)
+    assert (summary.nonlinear.event, summary.nonlinear.where) == (
+        summary.elastic.event,
+        summary.elastic.where,
+    )
 
 
 @pytest.mark.parametrize("path", EXAMPLES, ids=lambda p: p.stem)
@@ -162,8 +201,9 @@ def test_brittle_plane_rupture_scales_the_linear_plane_shear() -> None:
 # -- ductile plies reach the plastic bound -------------------------------------------
 
 
-@pytest.mark.parametrize("members", [["a", "b", "a"], ["a", "b", "a", "b", "a"]],
-                         ids=["fork", "five-plies"])
+@pytest.mark.parametrize(
+    "members", [["a", "b", "a"], ["a", "b", "a", "b", "a"]], ids=["fork", "five-plies"]
+)
 def test_elastic_plastic_capacity_is_the_plastic_bound(members) -> None:
     thick = [10.0, 20.0, 10.0] if len(members) == 3 else [8.0, 12.0, 16.0, 12.0, 8.0]
     joint = modelfile.loads(_stack(members, thick, "elastic-plastic"))
@@ -184,8 +224,11 @@ def two_member_stacks(draw):
     if alternating:
         members = ["a" if j % 2 == 0 else "b" for j in range(n)]
     else:
-        members = draw(st.lists(st.sampled_from("ab"), min_size=n, max_size=n)
-                       .filter(lambda ms: "a" in ms and "b" in ms))
+        members = draw(
+            st.lists(st.sampled_from("ab"), min_size=n, max_size=n).filter(
+                lambda ms: "a" in ms and "b" in ms
+            )
+        )
     thick = draw(st.lists(st.floats(5.0, 40.0), min_size=n, max_size=n))
     law = draw(st.sampled_from(["elastic-plastic", "plate-bearing"]))
     return members, thick, law
@@ -200,7 +243,6 @@ def test_nonlinear_capacity_never_exceeds_the_plastic_bound(case) -> None:
     # the max-flow bound relaxes compatibility (and the bolt's moment balance): an
     # upper bound, up to the regularisation force the solver adds to contacts
     assert summary.nonlinear.load <= summary.plastic.load * (1.0 + _regularisation(joint))
-    assert summary.nonlinear.load <= summary.analysis.peak
 
 
 # -- the load–slip curve and Newton ---------------------------------------------------
@@ -247,39 +289,44 @@ def test_concentric_clearance_shifts_the_curve_by_the_clearance() -> None:
     assert all(s.load <= floor for s in result.history if s.slip < clearance)
     # a uniform gap is a rigid shift of the fitted curve: same capacity, slip + c
     assert result.load == pytest.approx(fitted.load, rel=REL_BISECTION)
-    assert result.history[-1].slip == pytest.approx(fitted.history[-1].slip + clearance,
-                                                    rel=REL_BISECTION)
+    assert result.history[-1].slip == pytest.approx(
+        fitted.history[-1].slip + clearance, rel=REL_BISECTION
+    )
     # symmetry: the two legs bear alike
-    assert onset.ply_bearing[0] == pytest.approx(onset.ply_bearing[2], rel=REL_LINEAR)
+    assert onset.ply_bearing[0][0] == pytest.approx(onset.ply_bearing[0][2], rel=REL_LINEAR)
 
 
 def test_offset_hole_picks_up_load_later() -> None:
     offset, clearance = 0.5, 2.0
     text = FORK.replace('grade = "8.8"', 'grade = "8.8"\nends = "clamped"').replace(
-        'name = "leg-1"', f'name = "leg-1"\nhole_offset = {offset}')
-    joint = modelfile.loads(text + '[analysis]\nbearing = "elastic-plastic"\n'
-                            f'clearance = "offset"\nhole_clearance = {clearance}\n')
+        'name = "leg-1"', f'name = "leg-1"\nhole_offset = {offset}'
+    )
+    joint = modelfile.loads(
+        text + '[analysis]\nbearing = "elastic-plastic"\n'
+        f'clearance = "offset"\nhole_clearance = {clearance}\n'
+    )
     gap_plus, _ = capacity.clearances(joint)
-    assert gap_plus == pytest.approx([0.5 * clearance + offset, 0.5 * clearance,
-                                      0.5 * clearance], rel=REL_LINEAR)
+    assert gap_plus == pytest.approx(
+        [0.5 * clearance + offset, 0.5 * clearance, 0.5 * clearance], rel=REL_LINEAR
+    )
     result = capacity.analyse(joint, strengths=_ample(joint))
     floor = REL_LOADED * result.load
     loaded = [s for s in result.history if s.load > floor]
     first = loaded[0]
     # leg-1's hole sits 0.5 mm further along the load: nothing on it at small loads,
     # and statics put the lug's whole load on leg-2
-    assert first.ply_bearing[0] <= floor
-    assert first.ply_bearing[2] == pytest.approx(first.load, rel=REL_LOADED)
-    assert first.deformation[0] == 0.0
+    assert first.ply_bearing[0][0] <= floor
+    assert first.ply_bearing[0][2] == pytest.approx(first.load, rel=REL_LOADED)
+    assert first.deformation[0][0] == 0.0
     # it picks up load later, and ductility lets it reach its strength: the
     # offset does not lower the plastic capacity (2 legs at 2.4 d t fu)
     last = result.history[-1]
     q_y = _q_y(joint)
-    assert last.ply_bearing[0] == pytest.approx(q_y[0], rel=REL_PLASTIC)
+    assert last.ply_bearing[0][0] == pytest.approx(q_y[0], rel=REL_PLASTIC)
     bound = loadpath.plastic_bound(joint, [HUGE, HUGE], q_y)
     assert result.load == pytest.approx(bound.load, rel=REL_PLASTIC)
     # kinematics: once every ply is plastic the bolt translates, so leg-1 lags
     # leg-2's deformation limit by its offset
     limit = _curves(joint)[2].delta_limit
-    assert last.deformation[2] == pytest.approx(limit, rel=REL_BISECTION)
-    assert last.deformation[0] == pytest.approx(limit - offset, rel=REL_LINEAR)
+    assert last.deformation[0][2] == pytest.approx(limit, rel=REL_BISECTION)
+    assert last.deformation[0][0] == pytest.approx(limit - offset, rel=REL_LINEAR)

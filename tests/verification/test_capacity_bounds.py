@@ -31,13 +31,25 @@ REL_ROUNDOFF = 1e-12
 
 
 def _alternating(n_plies: int, threads: str = "excluded") -> str:
-    """A/B/A/B... plies of a 20 mm 8.8 pin, member a held, b pulled."""
-    lines = ['format = 1', 'units = "N-mm"', "[bolt]", "diameter = 20", 'grade = "8.8"',
-             f'threads = "{threads}"']
+    """A/B/A/B... plies of a 20 mm 8.8 pin (linear "component" law), a held, b pulled."""
+    lines = [
+        "format = 1",
+        'units = "N-mm"',
+        "[bolt]",
+        "diameter = 20",
+        'grade = "8.8"',
+        f'threads = "{threads}"',
+    ]
     for j in range(n_plies):
         m = "a" if j % 2 == 0 else "b"
-        lines += ["[[ply]]", f'name = "{m}{j}"', f'member = "{m}"', "thickness = 10",
-                  "fy = 355", "fu = 490"]
+        lines += [
+            "[[ply]]",
+            f'name = "{m}{j}"',
+            f'member = "{m}"',
+            "thickness = 10",
+            "fy = 355",
+            "fu = 490",
+        ]
     lines += ["[member.a]", "support = true", "[member.b]", "load = 100000"]
     return "\n".join(lines) + "\n"
 
@@ -65,8 +77,9 @@ def test_kulak_fisher_struik_4_2_plane_strength(threads, threaded) -> None:
     b = joint.bolt
     area = b.stress_area if threaded else math.pi * b.diameter**2 / 4.0
     # Kulak, Fisher & Struik (1987) §4.2: 0.62 fub per plane on the area it cuts
-    assert capacity.plane_strength(joint, threaded) == pytest.approx(0.62 * b.fub * area,
-                                                                     rel=REL_ROUNDOFF)
+    assert capacity.plane_strength(joint, threaded) == pytest.approx(
+        0.62 * b.fub * area, rel=REL_ROUNDOFF
+    )
 
 
 @pytest.mark.parametrize("planes", [2, 3, 4, 5, 6])
@@ -79,14 +92,22 @@ def test_alternating_stack_bound_is_planes_times_plane_strength(planes) -> None:
     assert bound.load == pytest.approx(planes * strength, rel=REL_MAXFLOW)
     assert bound.cut == tuple(f"plane {i}" for i in range(1, planes + 1))
     assert capacity.separating_planes(joint) == planes
+    # the same through the summary: the linear ("component") law has no bearing cap
+    summary = capacity.summarize(joint)
+    assert summary.plastic.load == pytest.approx(planes * strength, rel=REL_MAXFLOW)
+    assert summary.cut == bound.cut
+    assert summary.efficiency(summary.plastic.load) == pytest.approx(1.0, rel=REL_MAXFLOW)
 
 
-@pytest.mark.parametrize(("q_leg1", "q_lug", "q_leg2", "r1", "r2"), [
-    (50e3, 500e3, 60e3, 80e3, 80e3),    # both legs bear out
-    (500e3, 90e3, 500e3, 80e3, 80e3),   # the lug bears out
-    (500e3, 500e3, 30e3, 80e3, 70e3),   # plane 1 and leg-2
-    (500e3, 500e3, 500e3, 80e3, 70e3),  # both planes
-])
+@pytest.mark.parametrize(
+    ("q_leg1", "q_lug", "q_leg2", "r1", "r2"),
+    [
+        (50e3, 500e3, 60e3, 80e3, 80e3),  # both legs bear out
+        (500e3, 90e3, 500e3, 80e3, 80e3),  # the lug bears out
+        (500e3, 500e3, 30e3, 80e3, 70e3),  # plane 1 and leg-2
+        (500e3, 500e3, 500e3, 80e3, 70e3),  # both planes
+    ],
+)
 def test_fork_bound_is_the_cheapest_mechanism(q_leg1, q_lug, q_leg2, r1, r2) -> None:
     joint = modelfile.loads(_alternating(3))
     bound = loadpath.plastic_bound(joint, [r1, r2], [q_leg1, q_lug, q_leg2])
@@ -114,8 +135,7 @@ def test_summary_plastic_bound_of_the_fork_example() -> None:
 def test_mixed_sign_pattern_bound_respects_the_opposed_member(weak) -> None:
     joint = plyshear.load_model(MODELS / "gusset-three-members.toml")
     axis = joint.load_axis()
-    pattern = {m.name: float(abs(m.load[0] * axis[0] + m.load[1] * axis[1]))
-               for m in joint.members}
+    pattern = {m.name: float(abs(m.load[0] * axis[0] + m.load[1] * axis[1])) for m in joint.members}
     total = sum(pattern.values())
     cap = 1000.0
     planes = [math.inf, math.inf, cap if weak == "plane 3" else math.inf]
@@ -124,3 +144,21 @@ def test_mixed_sign_pattern_bound_respects_the_opposed_member(weak) -> None:
     # statics: the stiffener (last ply, its own member) takes 20/95 of the pattern,
     # only through its bearing and plane 3
     assert bound.load == pytest.approx(cap * total / pattern["stiffener"], rel=REL_MAXFLOW)
+
+
+def test_bound_feeds_opposed_members_when_they_outweigh_the_main_load() -> None:
+    # one ply per member; a pushes 40 (the largest, the load axis), b and c pull
+    # 30 each: the pulls outweigh the push, so the support supplies the rest
+    plies = [("s", None), ("a", 40e3), ("b", -30e3), ("c", -30e3)]
+    lines = ["format = 1", 'units = "N-mm"', "[bolt]", "diameter = 20", 'grade = "8.8"']
+    for name, _ in plies:
+        lines += ["[[ply]]", f'name = "{name}"', f'member = "{name}"', "thickness = 10"]
+        lines += ["fy = 355", "fu = 490"]
+    for name, load in plies:
+        lines += [f"[member.{name}]", "support = true" if load is None else f"load = {load!r}"]
+    joint = modelfile.loads("\n".join(lines) + "\n")
+    cap = 1000.0
+    bound = loadpath.plastic_bound(joint, [math.inf] * 3, [math.inf, math.inf, cap, math.inf])
+    # statics: b takes 30/100 of the pattern, only through its own bearing
+    assert bound.load == pytest.approx(cap * 100e3 / 30e3, rel=REL_MAXFLOW)
+    assert bound.cut == ("ply b",)
