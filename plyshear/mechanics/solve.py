@@ -98,7 +98,6 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
     # to the ply over the element.
     ff_all = np.einsum("eij,ejc->eic", sys.kbb, de_all) \
         + sys.kbu[:, :, None] * u_all[:, None, :]
-    midx = joint.member_index()
     reaction = np.zeros((len(joint.members), 2))
     bolts = []
     L = mesh.lengths
@@ -138,9 +137,9 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
                                 float(u_ply[st, j, 1] - wmean[j, 1])))
             for j in range(nplies)
         )
-        for j, (kind, m) in enumerate(lay.target[st]):
+        for j, (kind, held_by) in enumerate(lay.target[st]):
             if kind == "0":
-                reaction[m] += on_bolt[j]
+                reaction[held_by] += on_bolt[j]
         bolts.append(BoltResult(x=float(x_st), z=mesh.z, V=V, M=M, w=w, q=q, planes=planes,
                                 plies=plies))
     # Springs held by a support pull on it: links, and the segments next to a held ply.
@@ -164,7 +163,6 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
     if not residual <= RESIDUAL_WARN:
         warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
                         "stiffness contrasts in the stack are extreme, treat results with care")
-    del midx
     return Solution(joint=joint, bolts=tuple(bolts), members=tuple(members),
                     equilibrium_residual=residual, warnings=tuple(warnings),
                     segment_forces=segments)
