@@ -94,7 +94,7 @@ def _plot_target(plot: str | None) -> tuple[Path, str] | None:
 def _write_plot(sol: Any, target: tuple[Path, str], force: bool) -> None:
     from plyshear.report import diagrams
 
-    fig = diagrams.solution_figure(sol)
+    fig = diagrams.row_figure(sol) if len(sol.bolts) > 1 else diagrams.solution_figure(sol)
     write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
     click.echo(f"figure written to {target[0]}", err=True)
 

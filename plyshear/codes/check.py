@@ -11,6 +11,7 @@ reported but lie outside the standard's text; they do not decide pass or fail.
 
 from __future__ import annotations
 
+import dataclasses
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -282,3 +283,37 @@ def geometry_notes(joint: Joint) -> list[str]:
             notes.append(f"ply {ply.name}: no edge distance given; tear-out and edge "
                          "effects not checked")
     return notes
+
+
+def joint_length(joint: Joint) -> float:
+    """Length of the bolt pattern along the force for the long-joint rules, mm.
+
+    The row's own length, or the model's ``[check] joint_length`` if longer
+    (a single bolt standing for a longer row).
+    """
+    return max(joint.check.joint_length, joint.pattern_length)
+
+
+def tag_bolt(items: list[CheckItem], index: int, count: int) -> list[CheckItem]:
+    """Prefix the items of bolt ``index`` (from 0) with the bolt when a row has several."""
+    if count <= 1:
+        return items
+    return [dataclasses.replace(i, where=f"bolt {index + 1}: {i.where}") for i in items]
+
+
+def bolt_loads(joint: Joint, solution: Solution) -> np.ndarray:
+    """The force each bolt of a row transfers (the largest member force through it), N."""
+    return np.array([transferred_force(joint, b) for b in solution.bolts])
+
+
+def row_note(joint: Joint, solution: Solution, factor: float, rule: str) -> str | None:
+    """Contrast the standard's long-joint factor with the model's own end-bolt share."""
+    if len(solution.bolts) < 2:
+        return None
+    loads = bolt_loads(joint, solution)
+    mean = float(loads.mean())
+    end = float(max(loads[0], loads[-1]))
+    return (f"bolt row of {len(loads)}, length {length_str(joint.units, joint.pattern_length)}: "
+            f"{rule} factor {factor:.3f} (the standard's allowance for uneven sharing); the "
+            f"model's end bolt carries {end / mean:.3f} x the mean bolt load "
+            f"(an equal share would need a factor of {mean / end:.3f})")

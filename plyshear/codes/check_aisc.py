@@ -17,9 +17,12 @@ from plyshear.codes.check import (
     bolt_section_diameter,
     force_str,
     geometry_notes,
+    joint_length,
     length_str,
     node_threads,
     pack_at_plane,
+    row_note,
+    tag_bolt,
     packs,
     resultants,
     slip_planes,
@@ -51,10 +54,16 @@ def check(joint: Joint, solution: Solution, method: str) -> CheckResult:
         notes.append(f"bolt group: {aisc.EDITION_GROUP_NAMES.get(group, group)} "
                      f"(model key {grade.key})")
     items: list[CheckItem] = []
-    for bolt in solution.bolts:
-        items += _shear(joint, bolt, method, group, notes)
-        items += _bearing(joint, bolt, method)
-        items += _bolt_items(joint, bolt, method, group, notes)
+    count = len(solution.bolts)
+    for k, bolt in enumerate(solution.bolts):
+        items += tag_bolt(_shear(joint, bolt, method, group, notes)
+                          + _bearing(joint, bolt, method)
+                          + _bolt_items(joint, bolt, method, group, notes), k, count)
+    length = joint_length(joint)
+    note = row_note(joint, solution, aisc.long_joint_factor(length) if length > 0 else 1.0,
+                    "AISC 360-22 J3.6 long-joint")
+    if note:
+        notes.append(note)
     return CheckResult(standard="aisc360-22", method=method, edition=aisc.STANDARD,
                        items=tuple(items), notes=tuple(dict.fromkeys(notes)),
                        units=joint.units)
@@ -76,8 +85,8 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     b = joint.bolt
     ab = b.gross_area  # J3.6: nominal unthreaded body area, also through threads
     items = []
-    long_factor = aisc.long_joint_factor(joint.check.joint_length) \
-        if joint.check.joint_length > 0 else 1.0
+    long_factor = aisc.long_joint_factor(joint_length(joint)) \
+        if joint_length(joint) > 0 else 1.0
     grip_factor = aisc.A307_long_grip_factor(joint.grip, b.diameter) if group == "A307" else 1.0
     developed = joint.check.fillers == "developed"
     for p in bolt.planes:

@@ -20,9 +20,12 @@ from plyshear.codes.check import (
     bolt_section_diameter,
     force_str,
     geometry_notes,
+    joint_length,
     length_str,
     node_threads,
     pack_at_plane,
+    row_note,
+    tag_bolt,
     resultants,
     slip_planes,
     transferred_force,
@@ -47,10 +50,16 @@ def check(joint: Joint, solution: Solution) -> CheckResult:
         notes.append(f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
                      "alpha_v taken as for class 10.9 (0.5 through threads)")
     items: list[CheckItem] = []
-    for bolt in solution.bolts:
-        items += _shear(joint, bolt)
-        items += _bearing(joint, bolt)
-        items += _bolt_items(joint, bolt, notes)
+    count = len(solution.bolts)
+    for k, bolt in enumerate(solution.bolts):
+        items += tag_bolt(_shear(joint, bolt) + _bearing(joint, bolt)
+                          + _bolt_items(joint, bolt, notes), k, count)
+    length = joint_length(joint)
+    d = joint.bolt.diameter
+    note = row_note(joint, solution, en.beta_Lf(length, d) if length > 15 * d else 1.0,
+                    "EN 1993-1-8 3.8 beta_Lf")
+    if note:
+        notes.append(note)
     return CheckResult(standard="en1993-1-8", method="partial-factors", edition=en.STANDARD,
                        items=tuple(items), notes=tuple(dict.fromkeys(notes)),
                        units=joint.units)
@@ -73,7 +82,7 @@ def plane_resistance(joint: Joint, threads: bool) -> tuple[float, list]:
 
 def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     d = joint.bolt.diameter
-    length = joint.check.joint_length
+    length = joint_length(joint)
     beta_lf = en.beta_Lf(length, d) if length > 15 * d else 1.0
     items = []
     for p in bolt.planes:

@@ -488,7 +488,7 @@ class CapacitySummary:
     """The elastic, nonlinear and plastic capacities side by side.
 
     Attributes:
-        planes: Number of shear planes between different members.
+        planes: Number of shear planes between different members, all bolts together.
         plane_strength: One plane's nominal rupture strength (the strongest plane), N.
         elastic: First failure of the linear solution, scaled.
         nonlinear: First failure of the incremental analysis.
@@ -561,6 +561,7 @@ def summarize(joint: Joint) -> CapacitySummary:
     bound = plastic_bound(joint, list(lim.plane), ply_caps, net_section_strengths(joint))
     plastic = Answer(bound.load, "mechanism", ", ".join(bound.cut))
     strength = float(max(lim.plane))
-    return CapacitySummary(planes=separating_planes(joint), plane_strength=strength,
+    return CapacitySummary(planes=separating_planes(joint) * len(joint.stations),
+                           plane_strength=strength,
                            elastic=elastic, nonlinear=nonlinear, plastic=plastic,
                            cut=bound.cut, analysis=result)

@@ -237,6 +237,21 @@ def solution_figure(solution: Solution, utilization: dict[int, float] | None = N
     return fig
 
 
+def row_figure(solution: Solution) -> Figure:
+    """The load share along a bolt row beside the first bolt's diagrams."""
+    fig = Figure(figsize=(13, 5), layout="constrained")
+    axs = fig.subplots(1, 4, gridspec_kw={"width_ratios": [1.3, 1, 1, 1.4]})
+    plot_stack(solution.joint, axs[0])
+    plot_shear(solution, axs[1])
+    plot_moment(solution, axs[2])
+    axs[1].set_title("shear, bolt 1", fontsize=9)
+    axs[2].set_title("moment, bolt 1", fontsize=9)
+    plot_row(solution, axs[3])
+    if solution.joint.title:
+        fig.suptitle(solution.joint.title, fontsize=10)
+    return fig
+
+
 def figure_bytes(fig: Figure, fmt: str) -> bytes:
     """Render a figure to PNG, SVG or PDF bytes (the caller writes the file)."""
     buf = io.BytesIO()
@@ -361,3 +376,26 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
     fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "
                  f"({result.service_shear.size} samples)", fontsize=10)
     return fig
+
+
+def plot_row(solution: Solution, ax: Axes | None = None) -> Axes:
+    """Draw each plane's shear at every bolt along the row (the long-joint share).
+
+    Returns:
+        The Axes; line k holds (x, shear of plane k+1) in the joint's units.
+    """
+    ax = _new_axes(ax)
+    joint = solution.joint
+    u = _units.system(joint.units)
+    x = np.array([b.x for b in solution.bolts]) / u.factor("length")
+    shear = np.array([[p.shear for p in b.planes] for b in solution.bolts]) / u.factor("force")
+    for k in range(shear.shape[1]):
+        ax.plot(x, shear[:, k], color=INK, marker="os^vD"[k % 5],
+                linestyle=LINESTYLES[k % len(LINESTYLES)], linewidth=1.2,
+                label=f"plane {k + 1}")
+    ax.set_xlabel(f"bolt position x [{u.label('length')}]")
+    ax.set_ylabel(f"plane shear [{u.label('force')}]")
+    ax.set_title("plane shears along the row", fontsize=9)
+    ax.legend(fontsize=7, frameon=False)
+    _style(ax)
+    return ax

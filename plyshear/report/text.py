@@ -72,7 +72,10 @@ def solution_text(sol: Solution) -> str:
                f"ends {bolt.ends}, {len(joint.plies)} plies, {len(sol.planes)} planes, "
                f"units {joint.units}")
     out.append("")
-    for b in sol.bolts:
+    many = len(sol.bolts) > 1
+    for k, b in enumerate(sol.bolts):
+        if many:
+            out.append(f"bolt {k + 1} at x = {fmt(b.x / ln)} {ll}")
         rows = []
         for p in b.planes:
             rows.append([
@@ -103,6 +106,9 @@ def solution_text(sol: Solution) -> str:
         out.append("")
         out.append(f"max bolt moment: {fmt(b.max_moment / mo)} {lm} at z = "
                    f"{fmt(b.max_moment_z / ln)} {ll}")
+    if many:
+        out.append("")
+        out.append(row_text(sol))
     rows = []
     for m in sol.members:
         mem = joint.members[m.member]
@@ -140,11 +146,15 @@ def equal_split_line(sol: Solution) -> str:
     total = sum(float((m.load[0] ** 2 + m.load[1] ** 2) ** 0.5) for m in joint.members)
     if n_planes == 0 or total == 0:
         return "equal split: not applicable (no load or no plane between members)"
-    worst = max(sol.planes, key=lambda p: p.shear)
-    equal = total / n_planes
+    nb = len(sol.bolts)
+    k, worst = max(((k, p) for k, b in enumerate(sol.bolts) for p in b.planes),
+                   key=lambda kp: kp[1].shear)
+    equal = total / (n_planes * nb)
     ratio = worst.shear / equal
-    return (f"worst plane {worst.index}: {fmt(worst.shear / f)} {lf} = {ratio:.2f} x the equal "
-            f"split {fmt(total / f)} {lf} / {n_planes} planes = {fmt(equal / f)} {lf}")
+    where = f"bolt {k + 1} plane {worst.index}" if nb > 1 else f"plane {worst.index}"
+    per = f"{n_planes} planes x {nb} bolts" if nb > 1 else f"{n_planes} planes"
+    return (f"worst {where}: {fmt(worst.shear / f)} {lf} = {ratio:.2f} x the equal "
+            f"split {fmt(total / f)} {lf} / {per} = {fmt(equal / f)} {lf}")
 
 
 def check_text(result: CheckResult, solution: Solution) -> str:
@@ -281,3 +291,20 @@ def scatter_text(result: ScatterResult, joint: Joint) -> str:
     if result.failed:
         out.append(f"{result.failed} samples did not converge and are left out")
     return "\n".join(out)
+
+
+def row_text(sol: Solution) -> str:
+    """The load share along a bolt row: each bolt's transferred force and worst plane."""
+    from plyshear.codes.check import bolt_loads
+
+    joint = sol.joint
+    u = _units.system(joint.units)
+    f, lf, ln, ll = u.factor("force"), u.label("force"), u.factor("length"), u.label("length")
+    loads = bolt_loads(joint, sol)
+    mean = float(loads.mean()) if loads.size else 0.0
+    rows = [[str(k + 1), fmt(b.x / ln), fmt(loads[k] / f),
+             f"{loads[k] / mean:.3f}" if mean > 0 else "-",
+             fmt(max(p.shear for p in b.planes) / f)]
+            for k, b in enumerate(sol.bolts)]
+    return "load share along the row\n" + table(
+        ["bolt", f"x [{ll}]", f"load [{lf}]", "/ mean", f"worst plane [{lf}]"], rows)
