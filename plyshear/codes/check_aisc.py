@@ -21,11 +21,11 @@ from plyshear.codes.check import (
     length_str,
     node_threads,
     pack_at_plane,
-    row_note,
-    tag_bolt,
     packs,
     resultants,
+    row_note,
     slip_planes,
+    tag_bolt,
     transferred_force,
 )
 from plyshear.codes.clause import Clause, cited

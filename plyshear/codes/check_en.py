@@ -24,10 +24,10 @@ from plyshear.codes.check import (
     length_str,
     node_threads,
     pack_at_plane,
-    row_note,
-    tag_bolt,
     resultants,
+    row_note,
     slip_planes,
+    tag_bolt,
     transferred_force,
 )
 from plyshear.codes.clause import cited
