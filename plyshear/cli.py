@@ -356,6 +356,25 @@ def report_cmd(model: str, output: str, force: bool) -> None:
     click.echo(f"report written to {path}", err=True)
 
 
+@main.command("validate")
+@click.argument("model", type=click.Path(dir_okay=False))
+def validate_cmd(model: str) -> None:
+    """Check MODEL without solving: every model-file rule, the load path, and warnings.
+
+    Exit code 0 when the model can be solved (warnings included), 2 when it cannot.
+    """
+    from plyshear.model import sanity
+
+    joint = _load(model)
+    planes = len(joint.plies) - 1
+    bolts = len(joint.stations)
+    row = f", {bolts} bolts" if bolts > 1 else ""
+    click.echo(f"ok: {model}: {len(joint.plies)} plies, {planes} planes{row}, "
+               f"units {joint.units}, check {joint.check.standard}")
+    for w in sanity.warnings(joint):
+        click.echo(f"warning: {w}")
+
+
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 def demo_cmd(as_json: bool) -> None:

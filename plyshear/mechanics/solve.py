@@ -159,7 +159,9 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
         members.append(MemberResult(member=i, displacement_xy=(float(disp[0]), float(disp[1])),
                                     reaction_xy=(float(react[0]), float(react[1]))))
     residual = _residual(joint, sys, x, y, reaction)
-    warnings: list[str] = []
+    from plyshear.model import sanity
+
+    warnings: list[str] = sanity.warnings(joint)
     if not residual <= RESIDUAL_WARN:
         warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
                         "stiffness contrasts in the stack are extreme, treat results with care")
