@@ -225,4 +225,16 @@ class Solution:
             ],
             "equilibrium_residual": self.equilibrium_residual,
             "warnings": list(self.warnings),
+            **self._segments_dict(f, ln),
         }
+
+    def _segments_dict(self, f: float, ln: float) -> dict[str, Any]:
+        """Ply forces between the bolts of a row (an extension; empty for one bolt)."""
+        if self.segment_forces.shape[0] == 0:
+            return {}
+        xs = [b.x for b in self.bolts]
+        return {"segments": [
+            {"ply": ply.name, "from_x": xs[s] / ln, "to_x": xs[s + 1] / ln,
+             "force_xy": [float(v) / f for v in self.segment_forces[s, j]]}
+            for s in range(len(xs) - 1) for j, ply in enumerate(self.joint.plies)
+        ]}

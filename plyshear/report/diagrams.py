@@ -315,12 +315,44 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
     return ax
 
 
+def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
+                         ax: Axes | None = None) -> Axes:
+    """Each plane's shear along a bolt row at the first step and at capacity (scaled).
+
+    Returns:
+        The Axes; the lines hold (x, plane shear / load) per plane, first at the
+        start of loading, then at capacity.
+    """
+    ax = _new_axes(ax)
+    u = _units.system(joint.units)
+    x = np.asarray(joint.stations) / u.factor("length")
+    hist = [s for s in summary.analysis.history if s.load > 0]
+    for state, style, when in ((hist[0], ":", "service"), (hist[-1], "-", "capacity")):
+        share = state.plane_shear / state.load
+        for k in range(share.shape[1]):
+            ax.plot(x, share[:, k], color=INK, linestyle=style, marker="os^vD"[k % 5],
+                    markersize=3, label=f"plane {k + 1}, {when}")
+    ax.set_xlabel(f"bolt position x [{u.label('length')}]")
+    ax.set_ylabel("plane shear / joint load [-]")
+    ax.set_title("share along the row", fontsize=9)
+    ax.legend(fontsize=6, frameon=False)
+    _style(ax)
+    return ax
+
+
 def capacity_figure(summary: CapacitySummary, joint: Joint) -> Figure:
-    """Return the load–slip curve beside the plane shears against load."""
-    fig = Figure(figsize=(10, 4.2), layout="constrained")
-    axs = fig.subplots(1, 2)
+    """Return the load–slip curve beside the plane shears against load.
+
+    For a bolt row, a third panel shows the share along the row at the start of
+    loading and at capacity.
+    """
+    row = len(joint.stations) > 1
+    fig = Figure(figsize=(14 if row else 10, 4.2), layout="constrained")
+    axs = fig.subplots(1, 3 if row else 2)
     plot_load_slip(summary, joint, axs[0])
     plot_plane_shares(summary, joint, axs[1])
+    if row:
+        plot_row_at_capacity(summary, joint, axs[2])
     if joint.title:
         fig.suptitle(joint.title, fontsize=10)
     return fig

@@ -306,5 +306,22 @@ def row_text(sol: Solution) -> str:
              f"{loads[k] / mean:.3f}" if mean > 0 else "-",
              fmt(max(p.shear for p in b.planes) / f)]
             for k, b in enumerate(sol.bolts)]
-    return "load share along the row\n" + table(
+    out = "load share along the row\n" + table(
         ["bolt", f"x [{ll}]", f"load [{lf}]", "/ mean", f"worst plane [{lf}]"], rows)
+    # net sections: the largest ply force between bolts over (w - d0) t
+    from plyshear.mechanics.capacity import hole_clearance
+
+    d0 = joint.bolt.diameter + hole_clearance(joint)
+    net = []
+    for j, ply in enumerate(joint.plies):
+        forces = np.hypot(sol.segment_forces[:, j, 0], sol.segment_forces[:, j, 1])
+        if ply.width is None or forces.size == 0:
+            continue
+        area = (ply.width - d0) * ply.thickness
+        net.append([ply.name, fmt(forces.max() / f), fmt(area / ln**2),
+                    fmt(forces.max() / area / u.factor("stress"))])
+    if net:
+        out += (f"\n\nply net sections between bolts (hole {fmt(d0 / ln)} {ll})\n"
+                + table(["ply", f"max force [{lf}]", f"net area [{ll}^2]",
+                         f"stress [{u.label('stress')}]"], net))
+    return out
