@@ -81,22 +81,32 @@ def _solve(joint: Any) -> Any:
         fail(f"{joint.source}: {exc}")
 
 
-def _plot_target(plot: str | None) -> tuple[Path, str] | None:
+def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
+    """Check a --plot file name (format, and no overwrite) before any long work."""
     if plot is None:
         return None
     path = Path(plot)
     fmt = FIGURE_FORMATS.get(path.suffix.lower())
     if fmt is None:
         fail(f"{plot}: --plot needs a .png, .svg or .pdf file name")
+    if path.exists() and not force:
+        fail(f"{path}: exists; use --force to replace it")
     return path, fmt
+
+
+def _write_figure(fig: Any, target: tuple[Path, str], force: bool) -> None:
+    """Render a figure in the target's format and write it atomically."""
+    from plyshear.report import diagrams
+
+    write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
+    click.echo(f"figure written to {target[0]}", err=True)
 
 
 def _write_plot(sol: Any, target: tuple[Path, str], force: bool) -> None:
     from plyshear.report import diagrams
 
     fig = diagrams.row_figure(sol) if len(sol.bolts) > 1 else diagrams.solution_figure(sol)
-    write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
-    click.echo(f"figure written to {target[0]}", err=True)
+    _write_figure(fig, target, force)
 
 
 @click.group(context_settings={"help_option_names": ["-h", "--help"]})
@@ -117,7 +127,7 @@ def main() -> None:
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
 def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
     """Solve the shear in every plane of MODEL (a TOML model file)."""
-    target = _plot_target(plot)
+    target = _plot_target(plot, force)
     joint = _load(model)
     sol = _solve(joint)
     if as_json:
@@ -148,7 +158,7 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     """
     import plyshear
 
-    target = _plot_target(plot)
+    target = _plot_target(plot, force)
     joint = _load(model)
     sol = _solve(joint)
     if method is not None and (standard or joint.check.standard) != "aisc360-22":
@@ -226,7 +236,7 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     the spread of the worst plane shear and of the capacity is reported; --plot then
     draws their histograms.
     """
-    target = _plot_target(plot)
+    target = _plot_target(plot, force)
     joint = _load(model)
     if scatter is not None:
         _scatter(joint, scatter, seed, as_json, target, force)
@@ -243,9 +253,7 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     if target is not None:
         from plyshear.report import diagrams
 
-        fig = diagrams.capacity_figure(summary, joint)
-        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
-        click.echo(f"figure written to {target[0]}", err=True)
+        _write_figure(diagrams.capacity_figure(summary, joint), target, force)
 
 
 def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
@@ -277,9 +285,7 @@ def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
     if target is not None:
         from plyshear.report import diagrams
 
-        fig = diagrams.scatter_figure(result, joint)
-        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
-        click.echo(f"figure written to {target[0]}", err=True)
+        _write_figure(diagrams.scatter_figure(result, joint), target, force)
 
 
 @main.command("planes")
@@ -301,7 +307,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     from plyshear.mechanics.capacity import CapacityError
     from plyshear.mechanics.studies import planes_study
 
-    target = _plot_target(plot)
+    target = _plot_target(plot, force)
     joint = _load(model)
     try:
         rows = _guard(lambda: planes_study(joint, max_planes, keep))
@@ -325,9 +331,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     if target is not None:
         from plyshear.report import diagrams
 
-        fig = diagrams.planes_figure(rows, joint)
-        write_atomic(target[0], diagrams.figure_bytes(fig, target[1]), force)
-        click.echo(f"figure written to {target[0]}", err=True)
+        _write_figure(diagrams.planes_figure(rows, joint), target, force)
 
 
 @main.command("report")
