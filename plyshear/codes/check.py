@@ -313,6 +313,8 @@ def row_note(joint: Joint, solution: Solution, factor: float, rule: str) -> str 
     loads = bolt_loads(joint, solution)
     mean = float(loads.mean())
     end = float(max(loads[0], loads[-1]))
+    if mean <= 0.0 or end <= 0.0:
+        return None  # nothing to share: no load reaches the row
     return (f"bolt row of {len(loads)}, length {length_str(joint.units, joint.pattern_length)}: "
             f"{rule} factor {factor:.3f} (the standard's allowance for uneven sharing); the "
             f"model's end bolt carries {end / mean:.3f} x the mean bolt load "

@@ -67,6 +67,8 @@ def solve(joint: Joint) -> Solution:
     require_load_path(joint)
     sys = assemble(joint)
     x, y = _solve_system(sys)
+    if not (np.all(np.isfinite(x)) and np.all(np.isfinite(y))):
+        raise SolveError("the solution is not finite: check the magnitudes of the inputs")
     return _results(joint, sys, x, y)
 
 

@@ -36,6 +36,9 @@ FORMAT_VERSION = 1
 MAX_FILE_BYTES = 4_000_000
 MAX_PLIES = 2000
 MAX_ELEMENTS_PER_PLY = 1000
+#: Largest magnitude accepted for any value, in N, mm or MPa: far beyond any joint,
+#: and far below where squares and cubes of it overflow.
+MAX_MAGNITUDE = 1e12
 
 STANDARDS = ("aisc360-22", "en1993-1-8")
 METHODS = ("lrfd", "asd")
@@ -103,6 +106,13 @@ class _Reader:
                 raise self.fail(_join(prefix, k), "unknown key" + extra)
 
     def quantity(self, value: Any, key: str, dimension: str) -> float:
+        number = self._quantity(value, key, dimension)
+        if abs(number) > MAX_MAGNITUDE:
+            raise self.fail(key, f"out of range (|value| must be at most {MAX_MAGNITUDE:g} in "
+                                 "N, mm and MPa)")
+        return number
+
+    def _quantity(self, value: Any, key: str, dimension: str) -> float:
         if isinstance(value, bool):
             raise self.fail(key, f"must be a number or a {dimension} with a unit (got a boolean)")
         if isinstance(value, int | float):

@@ -25,6 +25,9 @@ REL_ROUNDOFF = 1e-9  # statics hold exactly; this allows round-off only
 # A nearly rigid bolt on soft bearing (1 mm plies, 10 MPa springs) leaves bolt-row
 # residuals of eps * |K| * |u|, far above eps * load; the solver must then warn.
 RESIDUAL_WARN = 1e-6
+# Statics in random stacks (0.5 mm plies beside 311 902 MPa springs, clamped ends):
+# round-off times the condition number leaves ~1e-9 of the load.
+REL_STATICS = 1e-8
 ABS_ROUNDOFF_N = 1e-6  # N, for components that statics makes zero
 REL_MESH = 1e-3  # DESIGN.md: doubling the mesh changes plane shears by < 0.1 %
 RESIDUAL_MAX = 1e-10
@@ -72,7 +75,7 @@ def test_determinate_stack_gives_statics_for_any_stiffness(case) -> None:
     expected = np.cumsum(on_ply, axis=0)[:-1]
     scale = np.abs(applied).max()
     for plane, ref in zip(sol.planes, expected, strict=True):
-        assert plane.shear_xy == pytest.approx(ref, rel=REL_ROUNDOFF, abs=REL_ROUNDOFF * scale)
+        assert plane.shear_xy == pytest.approx(ref, rel=REL_STATICS, abs=REL_STATICS * scale)
     assert sol.equilibrium_residual < RESIDUAL_WARN or any(
         "ill-conditioned" in w for w in sol.warnings)
 
