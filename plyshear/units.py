@@ -10,6 +10,7 @@ string is met, so the mechanics and ``plyshear --help`` never load it.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 from functools import cache
 from typing import Any
@@ -122,6 +123,14 @@ def system(name: str) -> UnitSystem:
         raise KeyError(f"unknown units '{name}'; known: {', '.join(SYSTEMS)}") from None
 
 
+#: A number (or a fraction such as 3/4) and a unit made of names, products, quotients
+#: and small integer powers; nothing pint would evaluate as an expression.
+_QUANTITY = re.compile(
+    r"^\s*[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d{1,3})?(?:\s*/\s*\d+(?:\.\d*)?)?"
+    r"\s*[A-Za-zµ°][A-Za-z0-9µ°_ */^.]*$"
+)
+
+
 @cache
 def _registry() -> Any:
     import pint  # lazy: only needed for strings with units
@@ -145,10 +154,15 @@ def parse_quantity(text: str, dimension: str) -> float:
     """
     import pint
 
+    if re.fullmatch(r"\s*[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?\s*", text):
+        raise ValueError(f"'{text}' has no unit; expected a {dimension}")
+    if len(text) > 64 or not _QUANTITY.match(text) or "**" in text:
+        raise ValueError(f"cannot read '{text}' as a quantity: write a number and a unit, "
+                         "e.g. '12 mm', '3/4 in', '250 kN'")
     ureg = _registry()
     try:
         q = ureg.Quantity(text)
-    except (pint.errors.PintError, ValueError, TypeError, AttributeError, SyntaxError) as exc:
+    except Exception as exc:  # pint raises many kinds on malformed text; all mean "unreadable"
         raise ValueError(f"cannot read '{text}' as a quantity ({exc.__class__.__name__})") from None
     if not isinstance(q, ureg.Quantity) or q.dimensionless:
         raise ValueError(f"'{text}' has no unit; expected a {dimension}")

@@ -28,6 +28,7 @@ from plyshear.mechanics import beam, bearing
 from plyshear.model.joint import Joint
 
 FIXED = -1  # DOF index of a displacement held at zero
+MAX_BAND_ENTRIES = 50_000_000  # 400 MB of banded storage: refuse larger systems
 
 
 @dataclass(frozen=True)
@@ -101,7 +102,7 @@ def build_mesh(joint: Joint) -> Mesh:
 
 def _count(n: int, length: float, h_min: float) -> int:
     """Return n, or fewer elements so that none is shorter than ``h_min`` (at least 1)."""
-    return max(1, min(n, int(length / h_min)))
+    return max(1, min(n, int(length / h_min * (1 + 1e-9))))  # no ulp-sized jumps
 
 
 def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
@@ -329,6 +330,12 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
                         for s, j in zip(station_of, el_ply, strict=True)])
     bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
              _spring_bandwidth(springs))
+    if (bw + 1) * next_dof > MAX_BAND_ENTRIES:
+        from plyshear.model.modelfile import ModelError
+
+        raise ModelError(joint.source or "<model>", "ply",
+                         f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
+                         "use fewer plies, bolts or elements_per_ply")
     loads = np.zeros((nm, 2))
     for i, m in enumerate(members):
         if member_dof[i] != FIXED:

@@ -116,7 +116,10 @@ class _Reader:
         if isinstance(value, bool):
             raise self.fail(key, f"must be a number or a {dimension} with a unit (got a boolean)")
         if isinstance(value, int | float):
-            number = float(value)
+            try:
+                number = float(value)
+            except OverflowError:
+                raise self.fail(key, "out of range") from None
             if not math.isfinite(number):
                 raise self.fail(key, f"must be finite (got {value})")
             return self.system.to_internal(number, dimension)
@@ -130,6 +133,10 @@ class _Reader:
     def number(self, value: Any, key: str) -> float:
         if isinstance(value, bool) or not isinstance(value, int | float):
             raise self.fail(key, f"must be a plain number (got {_kind(value)})")
+        try:
+            value = float(value)
+        except OverflowError:
+            raise self.fail(key, "out of range") from None
         if not math.isfinite(value):
             raise self.fail(key, f"must be finite (got {value})")
         return float(value)
