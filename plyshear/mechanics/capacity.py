@@ -23,6 +23,7 @@ converged steps.
 from __future__ import annotations
 
 import dataclasses
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -218,7 +219,8 @@ class _Model:
         self.scale = float(np.abs(self.pattern).sum())  # the pattern's magnitude: Σ|P_m|
         if self.scale == 0.0:
             raise CapacityError("no load: the capacity needs a loaded member")
-        self.c = self.pattern / float(np.linalg.norm(self.pattern))
+        unit = self.pattern / self.scale  # first to O(1): a tiny load's square underflows
+        self.c = unit / float(np.linalg.norm(unit))
 
     def contact(self, s: np.ndarray, j: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
         """Force per length, tangent and contact deformation at Gauss points of ply j."""
@@ -329,7 +331,9 @@ def _newton(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, target: flo
         ev = model.evaluate(x, y)
         ra, rm = ev["ra"], ev["rm"] - lam * P
         g = float(c @ y) - target
-        norm = max(float(np.abs(ra).max(initial=0.0)), float(np.abs(rm).max())) / model.scale
+        # relative to the load carried, so that the pattern's own magnitude does not matter
+        level = model.scale * max(1.0, abs(lam))
+        norm = max(float(np.abs(ra).max(initial=0.0)), float(np.abs(rm).max())) / level
         norms.append(norm)
         if norm < TOL_FORCE and abs(g) < 1e-12 * (1.0 + abs(target)):
             return x, y, lam, norms
@@ -379,6 +383,23 @@ def events(joint: Joint, model: _Model, st: State, lim: Limits) -> list[Event]:
     return out
 
 
+#: The load pattern is scaled to this total (N) before a capacity analysis: the
+#: capacity depends only on the pattern's direction and proportions, and a pattern
+#: of 1e-300 kN or 1e9 kN would otherwise leave the range of the tolerances.
+REFERENCE_PATTERN_N = 1e3
+
+
+def reference_pattern(joint: Joint) -> Joint:
+    """Return ``joint`` with its member loads scaled to a total of :data:`REFERENCE_PATTERN_N`."""
+    total = sum(math.hypot(*m.load) for m in joint.members)
+    if not (total > 0.0 and math.isfinite(total)):
+        return joint
+    f = REFERENCE_PATTERN_N / total
+    members = tuple(dataclasses.replace(m, load=(m.load[0] * f, m.load[1] * f))
+                    for m in joint.members)
+    return dataclasses.replace(joint, members=members)
+
+
 def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
             strengths: Limits | None = None) -> CapacityResult:
     """Load the joint along its load pattern to the first failure event.
@@ -395,6 +416,7 @@ def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
     Raises:
         CapacityError: If the analysis does not converge or finds no event.
     """
+    joint = reference_pattern(joint)
     model = _Model(joint)
     mesh = model.lay.mesh
     lim = strengths or limits(joint, mesh.z, [joint.bolt.threaded_at(float(mesh.z[n]))
@@ -525,6 +547,7 @@ def summarize(joint: Joint) -> CapacitySummary:
     from plyshear.mechanics.loadpath import plastic_bound
     from plyshear.mechanics.solve import solve
 
+    joint = reference_pattern(joint)
     model = _Model(joint)
     sol = solve(joint)
     mesh = model.lay.mesh

@@ -18,6 +18,7 @@ from plyshear.mechanics.assembly import (
     element_displacements,
     endpoint_value,
 )
+from plyshear.mechanics.conditioning import COND_WARN, scaled_condition
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.results import (
     BoltResult,
@@ -31,6 +32,7 @@ from plyshear.model.joint import Joint
 #: Above this equilibrium residual the solution is flagged: round-off amplified by
 #: an ill-conditioned system (extreme stiffness contrasts) has eaten the digits.
 RESIDUAL_WARN = 1e-6
+EPS = float(np.finfo(float).eps)
 
 
 class SolveError(RuntimeError):
@@ -65,33 +67,55 @@ def solve(joint: Joint) -> Solution:
         SolveError: If the stiffness matrix cannot be factorised.
     """
     require_load_path(joint)
-    sys = assemble(joint)
-    x, y = _solve_system(sys)
-    if not (np.all(np.isfinite(x)) and np.all(np.isfinite(y))):
-        raise SolveError("the solution is not finite: check the magnitudes of the inputs")
-    return _results(joint, sys, x, y)
+    # Overflow or 0/0 from absurd magnitudes ends in the finiteness check below, as
+    # one SolveError, not as numpy warnings on the terminal.
+    with np.errstate(all="ignore"):
+        sys = assemble(joint)
+        x, y, kappa = _solve_system(sys)
+        if not (np.all(np.isfinite(x)) and np.all(np.isfinite(y))):
+            raise SolveError("the solution is not finite: check the magnitudes of the inputs")
+        return _results(joint, sys, x, y, kappa)
 
 
-def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray]:
-    """Return the A-block and member displacements, each with two columns (x, y)."""
+def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray, float]:
+    """Solve for the member loads.
+
+    Returns:
+        The A-block and member displacements, each with two columns (x, y), and
+        the scaled condition estimate of the whole system.
+    """
     try:
         cb = cholesky_banded(sys.ab, lower=False, check_finite=False)
     except np.linalg.LinAlgError as exc:
         raise SolveError(f"the bolt stiffness matrix is singular ({exc})") from None
     nm = sys.C.shape[0]
-    if nm == 0:
-        return np.zeros((sys.ab.shape[1], 2)), np.zeros((0, 2))
     XB = cho_solve_banded((cb, False), sys.B, check_finite=False)
     S = sys.C - sys.B.T @ XB
     try:
-        y = cho_solve(cho_factor(S, check_finite=False), sys.loads, check_finite=False)
+        cf = cho_factor(S, check_finite=False) if nm else None
     except np.linalg.LinAlgError as exc:
         raise SolveError(f"the member system is singular ({exc})") from None
+    na = sys.ab.shape[1]
+
+    def apply(rhs: np.ndarray) -> np.ndarray:
+        """Solve the whole system for right-hand sides (k, na + nm)."""
+        r_a, r_m = rhs[:, :na].T, rhs[:, na:].T
+        xa = cho_solve_banded((cb, False), r_a, check_finite=False)
+        if cf is None:
+            return xa.T
+        ym = cho_solve(cf, r_m - sys.B.T @ xa, check_finite=False)
+        return np.concatenate([xa - XB @ ym, ym]).T
+
+    kappa = float(scaled_condition(sys.ab[None], sys.B[None], sys.C[None], apply)[0])
+    if cf is None:
+        return np.zeros((na, 2)), np.zeros((0, 2)), kappa
+    y = cho_solve(cf, sys.loads, check_finite=False)
     x = -XB @ y
-    return x, y
+    return x, y, kappa
 
 
-def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solution:
+def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,
+             kappa: float) -> Solution:
     lay = sys.layout
     mesh = sys.mesh
     nplies = len(joint.plies)
@@ -164,11 +188,16 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray) -> Solutio
     from plyshear.model import sanity
 
     warnings: list[str] = sanity.warnings(joint)
-    if not residual <= RESIDUAL_WARN:
+    if not kappa <= COND_WARN:
+        warnings.append(f"ill-conditioned: condition estimate {kappa:.1e} of the scaled "
+                        "stiffness matrix (round-off may leave fewer than "
+                        f"{max(0, int(-np.log10(kappa * EPS))) if np.isfinite(kappa) else 0} "
+                        "significant digits); stiffness contrasts in the stack are extreme")
+    elif not residual <= RESIDUAL_WARN:
         warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
                         "stiffness contrasts in the stack are extreme, treat results with care")
     return Solution(joint=joint, bolts=tuple(bolts), members=tuple(members),
-                    equilibrium_residual=residual, warnings=tuple(warnings),
+                    equilibrium_residual=residual, warnings=tuple(warnings), condition=kappa,
                     segment_forces=segments)
 
 

@@ -39,6 +39,9 @@ MAX_ELEMENTS_PER_PLY = 1000
 #: Largest magnitude accepted for any value, in N, mm or MPa: far beyond any joint,
 #: and far below where squares and cubes of it overflow.
 MAX_MAGNITUDE = 1e12
+#: Smallest nonzero length accepted, mm (a nanometre): below it a ply or gap is no
+#: plate, and its cubes and inverses leave the range of double precision.
+MIN_LENGTH = 1e-6
 
 STANDARDS = ("aisc360-22", "en1993-1-8")
 METHODS = ("lrfd", "asd")
@@ -148,6 +151,9 @@ class _Reader:
                 else value
             rule = "≥ 0" if zero_ok else "> 0"
             raise self.fail(key, f"must be {rule} (got {_fmt(shown)})")
+        if dimension == "length" and 0 < number < MIN_LENGTH:
+            raise self.fail(key, f"too small: a nonzero length must be at least {MIN_LENGTH:g} mm "
+                                 f"(got {number:g} mm)")
         return number
 
     def choice(self, value: Any, key: str, allowed: tuple[str, ...]) -> str:

@@ -77,11 +77,7 @@ REPO = Path(__file__).resolve().parents[2]
 #: Known, reported bugs the fuzz may hit: (regex on the failure detail, regression test).
 #: Each regression test is a strict xfail, so fixing a bug turns it into an XPASS
 #: failure until its line here (and the xfail mark) are removed.
-KNOWN_BUGS: tuple[tuple[str, str], ...] = (
-    (r"(Python warning on stderr: RuntimeWarning.*beam\.py"
-     r"|exit 2 but not one 'error: ' line: .*beam\.py:\d+: RuntimeWarning)",
-     "test_bug_vanishing_thickness_prints_numpy_warnings"),
-)
+KNOWN_BUGS: tuple[tuple[str, str], ...] = ()
 
 
 # --------------------------------------------------------------------------- TOML writer
@@ -564,13 +560,18 @@ def test_bug_integer_too_large_for_a_float(write_model, old: str, new: str) -> N
     assert judge(["solve"], str(path)) is None
 
 
-@pytest.mark.xfail(strict=True, reason="a ply of 1e-300 mm (finite, > 0, within the 1e12 "
-                   "range) reaches plyshear/mechanics/beam.py, whose numpy RuntimeWarnings "
-                   "(divide by zero, beam.py:49; invalid value, beam.py:68, 75, 76) print "
-                   "about ten lines before the one 'error: ... the solution is not finite' line")
-def test_bug_vanishing_thickness_prints_numpy_warnings(write_model) -> None:
-    path = write_model(_edit("thickness = 20", "thickness = 1e-300"))
+@pytest.mark.parametrize(("old", "new"), [
+    # once: numpy RuntimeWarnings from beam.py printed before the one error line
+    ("thickness = 20", "thickness = 1e-300"),
+    ("thickness = 20", 'thickness = "1e-290 in"'),
+    ("thickness = 20", "thickness = 20\ngap = 1e-300"),
+    ('grade = "8.8"', 'grade = "8.8"\nE = 1e-300'),
+    ("thickness = 20", "thickness = 20\nfoundation_modulus = 1e-300"),
+])
+def test_vanishing_values_end_in_one_error_line(write_model, old: str, new: str) -> None:
+    path = write_model(_edit(old, new))
     assert judge(["solve"], str(path)) is None
+    assert judge(["solve", "--json"], str(path)) is None
 
 
 @pytest.mark.parametrize(("old", "new"), [
