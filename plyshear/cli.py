@@ -21,9 +21,14 @@ EXIT_BAD_INPUT = 2
 FIGURE_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
 
 
+def one_line(text: str) -> str:
+    """Escape what would break or hide a line: line and paragraph separators, controls."""
+    return "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text)
+
+
 def fail(message: str) -> NoReturn:
     """Print one error line and exit with code 2."""
-    click.echo(f"error: {message}", err=True)
+    click.echo(f"error: {one_line(message)}", err=True)
     sys.exit(EXIT_BAD_INPUT)
 
 

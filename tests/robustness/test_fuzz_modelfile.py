@@ -637,3 +637,12 @@ def test_bug_bolt_row_with_many_plies_exhausts_memory(tmp_path: Path) -> None:
     out = _row_with_plies(2000, tmp_path, timeout=60)
     assert out.split()[:2] in (["0", "NoneType"], [str(EXIT_BAD_INPUT), "SystemExit"]), out
 
+
+
+@pytest.mark.parametrize("name", ["\u2029", "a\u2028b", "x\x85", "tab\there"])
+def test_names_with_line_separators_stay_on_one_error_line(write_model, name: str) -> None:
+    # found by the full fuzz run (seed 0, case 7235): an undeclared member named U+2029
+    # (paragraph separator) split the error into two lines
+    path = write_model(_edit('member = "lug"', f'member = {_toml_str(name)}'))
+    assert judge(["solve", "--json"], str(path)) is None
+    assert judge(["validate"], str(path)) is None
