@@ -94,7 +94,8 @@ def build_mesh(joint: Joint) -> Mesh:
     z = np.concatenate([*pieces, [prev_end]])
     ply_of = np.concatenate(plies)
     mid = 0.5 * (z[:-1] + z[1:])
-    threaded = np.array([bolt.threaded_at(float(zm)) for zm in mid]) if thread_z is not None \
+    # as Bolt.threaded_at, element by element at the middle
+    threaded = mid >= thread_z - 1e-9 if thread_z is not None \
         else np.full(mid.size, bolt.threaded_at(0.0))
     plane_nodes = np.array([int(np.argmin(np.abs(z - zp))) for zp in plane_at], dtype=int)
     return Mesh(z=z, ply=ply_of, threaded=threaded, plane_nodes=plane_nodes)
@@ -250,6 +251,17 @@ def entry_station(joint: Joint, member: str, stations: int) -> int:
     return 0 if joint.member(member).enters == "before" else stations - 1
 
 
+def spring_stiffness(joint: Joint, ply: int, segment: int) -> float:
+    """The stiffness of a ply's link (``segment`` −1) or of its segment after station s, N/mm."""
+    p = joint.plies[ply]
+    if segment < 0:
+        assert p.link_stiffness is not None
+        return p.link_stiffness
+    assert p.width is not None
+    xs = joint.stations
+    return p.E * p.thickness * p.width / (xs[segment + 1] - xs[segment])
+
+
 def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     """Number the unknowns of ``joint`` and compute the beam stiffness.
 
@@ -314,11 +326,10 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
             i = midx[ply.member]
             s = entry_station(joint, ply.member, ns)
             other: Endpoint = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
-            springs.append(Spring(target[s][j], other, ply.link_stiffness, j))
+            springs.append(Spring(target[s][j], other, spring_stiffness(joint, j, -1), j))
         for s in range(ns - 1):
-            assert ply.width is not None
-            k = ply.E * ply.thickness * ply.width / (xs[s + 1] - xs[s])
-            springs.append(Spring(target[s][j], target[s + 1][j], k, j, s))
+            springs.append(Spring(target[s][j], target[s + 1][j],
+                                  spring_stiffness(joint, j, s), j, s))
 
     el_ply = np.tile(mesh.ply, ns)
     edofs = np.concatenate([np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1)

@@ -25,6 +25,7 @@ from __future__ import annotations
 import dataclasses
 import math
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 import numpy as np
 from scipy.linalg import solve_banded
@@ -39,6 +40,9 @@ from plyshear.mechanics.assembly import (
 )
 from plyshear.model import catalog
 from plyshear.model.joint import Joint
+
+if TYPE_CHECKING:
+    from plyshear.mechanics.results import Solution
 
 SHEAR_OVER_TENSION = 0.62  # Kulak, Fisher & Struik (1987): bolt shear / tensile strength
 #: A tiny stiffness added to every bearing law, as a fraction of the ply's initial
@@ -538,23 +542,39 @@ def separating_planes(joint: Joint) -> int:
     return sum(1 for a, b in zip(owners, owners[1:], strict=False) if a != b)
 
 
-def summarize(joint: Joint) -> CapacitySummary:
-    """Return the elastic, nonlinear and plastic capacities of ``joint``.
+def bearing_strengths(joint: Joint) -> list[float]:
+    """The bearing strength per unit thickness of every ply under the model's law, N/mm."""
+    from plyshear.mechanics.assembly import ply_moduli
+
+    name = law_name(joint)
+    return [laws.curve(name, joint.bolt, p, float(k)).q_max
+            for p, k in zip(joint.plies, ply_moduli(joint), strict=True)]
+
+
+def elastic_capacity(joint: Joint, sol: Solution, lim: Limits | None = None,
+                     q_max: list[float] | None = None) -> Answer:
+    """The linear solution scaled to its first failure event.
+
+    Args:
+        joint: The joint.
+        sol: Its linear solution at the model's loads.
+        lim: Its strengths (default: :func:`limits` on the solution's mesh).
+        q_max: Bearing strength per unit thickness of every ply (default:
+            :func:`bearing_strengths`).
+
+    Returns:
+        The load (magnitude of the scaled pattern, N), the event and where.
 
     Raises:
-        CapacityError: If the incremental analysis fails.
+        CapacityError: If the solution carries no load.
     """
-    from plyshear.mechanics.loadpath import plastic_bound
-    from plyshear.mechanics.solve import solve
-
-    joint = reference_pattern(joint)
-    model = _Model(joint)
-    sol = solve(joint)
-    mesh = model.lay.mesh
-    lim = limits(joint, mesh.z, [joint.bolt.threaded_at(float(mesh.z[n]))
-                                 for n in mesh.plane_nodes])
-    # Elastic: the linear solution at the model's loads, scaled to the first event.
-    scale = model.scale
+    if lim is None:
+        z = sol.bolts[0].z
+        lim = limits(joint, z, [p.threads for p in sol.planes])
+    if q_max is None:
+        q_max = bearing_strengths(joint)
+    axis = joint.load_axis()
+    scale = sum(abs(float(np.dot(m.load, axis))) for m in joint.members if not m.support)
     many = len(sol.bolts) > 1
     cands: list[tuple[float, str, str, float | None]] = []
     for b, bolt in enumerate(sol.bolts):
@@ -570,13 +590,33 @@ def summarize(joint: Joint) -> CapacitySummary:
         if inter[k] > 0:
             cands.append((float(1.0 / inter[k]), "bolt bending and shear",
                           f"bolt {b + 1}" if many else "bolt", float(bolt.z[k])))
-        for pb, cv in zip(bolt.plies, model.curves, strict=True):
-            cap = cv.q_max * joint.plies[pb.ply].thickness
+        for pb, q in zip(bolt.plies, q_max, strict=True):
+            cap = q * joint.plies[pb.ply].thickness
             if pb.force > 0 and np.isfinite(cap):
                 cands.append((cap / pb.force, "ply bearing strength",
                               f"{tag}ply {joint.plies[pb.ply].name}", None))
-    lam_el, ev_el, where_el, z_el = min(cands, key=lambda c: c[0])
-    elastic = Answer(float(lam_el * scale), ev_el, where_el, z_el)
+    if not cands or scale == 0.0:
+        raise CapacityError("no load: the capacity needs a loaded member")
+    lam, event, where, z_ev = min(cands, key=lambda c: c[0])
+    return Answer(float(lam * scale), event, where, z_ev)
+
+
+def summarize(joint: Joint) -> CapacitySummary:
+    """Return the elastic, nonlinear and plastic capacities of ``joint``.
+
+    Raises:
+        CapacityError: If the incremental analysis fails.
+    """
+    from plyshear.mechanics.loadpath import plastic_bound
+    from plyshear.mechanics.solve import solve
+
+    joint = reference_pattern(joint)
+    model = _Model(joint)
+    sol = solve(joint)
+    mesh = model.lay.mesh
+    lim = limits(joint, mesh.z, [joint.bolt.threaded_at(float(mesh.z[n]))
+                                 for n in mesh.plane_nodes])
+    elastic = elastic_capacity(joint, sol, lim, [cv.q_max for cv in model.curves])
     result = analyse(joint)
     nonlinear = Answer(float(result.load), result.event.event, result.event.where,
                        result.event.z)

@@ -122,7 +122,7 @@ def _results(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,
     de_all, u_all, u_ply = element_displacements(lay, x, y)
     # Foundation forces on the element DOFs; their w-sum is the force the bolt applies
     # to the ply over the element.
-    ff_all = np.einsum("eij,ejc->eic", sys.kbb, de_all) \
+    ff_all = np.matmul(sys.kbb, de_all) \
         + sys.kbu[:, :, None] * u_all[:, None, :]
     reaction = np.zeros((len(joint.members), 2))
     bolts = []

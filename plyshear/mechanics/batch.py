@@ -1,0 +1,305 @@
+"""Many same-shaped joints solved together.
+
+A design sweep changes values (ply thicknesses, the bolt diameter, the grade,
+the loads) but rarely the shape of the system: the same plies and members, the
+same number of elements per ply, the same numbering of the unknowns. Joints
+that share a shape share one :class:`~plyshear.mechanics.assembly.Layout`
+numbering; only numbers differ. For such a group:
+
+* the element matrices of every joint are computed in one vectorised call
+  (:func:`plyshear.mechanics.beam.stiffness`, :func:`~plyshear.mechanics.beam.foundation`);
+* their assembly is one sparse matrix product with an assembly operator built
+  once from the shared numbering (:func:`assembly_operator`);
+* the banded blocks of all joints, laid side by side, form one banded matrix
+  with the same bandwidth (the blocks do not couple: the entries that would
+  couple them lie in the unused corner of each block's storage and are zero),
+  so one :func:`scipy.linalg.cholesky_banded` factorises them all;
+* the member borders are solved with batched dense algebra.
+
+Each joint's results are then taken from its own slice by the same code as the
+single-case path (:func:`plyshear.mechanics.solve.solve`), so the two agree to
+round-off. A group whose batched factorisation fails falls back to solving its
+joints one by one, so that the failing ones report their own errors.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from collections.abc import Sequence
+
+import numpy as np
+import scipy.sparse as sp
+from scipy.linalg import cho_solve_banded, cholesky_banded
+
+from plyshear.mechanics import beam
+from plyshear.mechanics.assembly import (
+    Layout,
+    Mesh,
+    Spring,
+    System,
+    build_mesh,
+    layout,
+    ply_moduli,
+    section,
+    spring_stiffness,
+)
+from plyshear.mechanics.conditioning import scaled_condition
+from plyshear.mechanics.loadpath import require_load_path
+from plyshear.mechanics.results import Solution
+from plyshear.mechanics.solve import SolveError, _results
+from plyshear.mechanics.solve import solve as solve_one
+from plyshear.model.joint import Joint
+from plyshear.model.modelfile import ModelError
+
+#: Joints assembled in one product: bounds the dense source block
+#: (about 21 doubles per element and joint: 1000 joints of 100 elements ≈ 17 MB).
+CHUNK = 1000
+
+Outcome = Solution | ModelError | SolveError
+
+
+def shape_key(joint: Joint, mesh: Mesh) -> tuple[object, ...]:
+    """What fixes the numbering of a joint's unknowns (equal keys: one layout fits both).
+
+    Args:
+        joint: The joint.
+        mesh: Its bolt mesh.
+
+    Returns:
+        A hashable key.
+    """
+    plies = tuple((p.member, p.link_stiffness is None, p.gap > 0) for p in joint.plies)
+    members = tuple((m.name, m.support, m.enters) for m in joint.members)
+    return (plies, members, len(joint.stations), joint.bolt.ends, joint.analysis.beam,
+            mesh.ply.tobytes(), mesh.threaded.tobytes(), mesh.plane_nodes.tobytes())
+
+
+def assembly_operator(lay: Layout) -> sp.csr_matrix:
+    """The linear map from element and spring stiffnesses to the assembled system.
+
+    The source vector of one joint is the concatenation of ``(kel + kbb)`` (S·ne×4×4),
+    ``kbu`` (S·ne×4), ``kuu`` (S·ne) and the spring stiffnesses; the destination
+    is the concatenation of ``ab`` ((bw+1)×na), ``B`` (na×nm) and ``C`` (nm×nm),
+    each flattened in C order. It mirrors :func:`plyshear.mechanics.assembly.scatter`.
+
+    Args:
+        lay: The shared numbering.
+
+    Returns:
+        A sparse matrix of shape (destination size, source size).
+    """
+    bw, na, nm = lay.bw, lay.na, lay.nm
+    edofs, kind, idx = lay.edofs, lay.tgt_kind, lay.tgt_idx
+    ne = edofs.shape[0]
+    n_ab, n_b = (bw + 1) * na, na * nm
+    off_kbu, off_kuu, off_sp = 16 * ne, 20 * ne, 21 * ne
+    e = np.arange(ne)
+    dest: list[np.ndarray] = []
+    src: list[np.ndarray] = []
+    sign: list[np.ndarray] = []
+
+    def add(d: np.ndarray, s: np.ndarray, v: float = 1.0) -> None:
+        dest.append(np.asarray(d, dtype=np.int64))
+        src.append(np.asarray(s, dtype=np.int64))
+        sign.append(np.full(np.size(d), v))
+
+    def ab_at(r: np.ndarray, c: np.ndarray) -> np.ndarray:
+        return (bw + r - c) * na + c
+
+    for a in range(4):
+        for b in range(4):
+            rows, cols = edofs[:, a], edofs[:, b]
+            ok = (rows >= 0) & (cols >= 0) & (rows <= cols)
+            add(ab_at(rows[ok], cols[ok]), e[ok] * 16 + a * 4 + b)
+    for a in range(4):
+        bdof = edofs[:, a]
+        own_e = (kind == "a") & (bdof >= 0)
+        r = np.minimum(bdof[own_e], idx[own_e])
+        c = np.maximum(bdof[own_e], idx[own_e])
+        add(ab_at(r, c), off_kbu + e[own_e] * 4 + a)
+        mem_e = (kind == "m") & (bdof >= 0)
+        add(n_ab + bdof[mem_e] * nm + idx[mem_e], off_kbu + e[mem_e] * 4 + a)
+    own_e = kind == "a"
+    add(ab_at(idx[own_e], idx[own_e]), off_kuu + e[own_e])
+    mem_e = kind == "m"
+    add(n_ab + n_b + idx[mem_e] * nm + idx[mem_e], off_kuu + e[mem_e])
+    for s, spring in enumerate(lay.springs):
+        _spring_entries(spring, off_sp + s, add, ab_at, n_ab, n_b, nm)
+    shape = (n_ab + n_b + nm * nm, off_sp + len(lay.springs))
+    d, s_, v = np.concatenate(dest), np.concatenate(src), np.concatenate(sign)
+    return sp.csr_matrix((v, (d, s_)), shape=shape)
+
+
+def _spring_entries(spring: Spring, source: int, add, ab_at, n_ab: int, n_b: int,
+                    nm: int) -> None:
+    """Record one spring's entries (as :func:`plyshear.mechanics.assembly._add_spring`)."""
+    one = np.array([source])
+    ends = [e for e in (spring.a, spring.b) if e[0] != "0"]
+    for kind, i in ends:
+        add(ab_at(np.array([i]), np.array([i])) if kind == "a"
+            else np.array([n_ab + n_b + i * nm + i]), one)
+    if len(ends) == 2:
+        (ka, ia), (kb, ib) = ends
+        if ka == "a" and kb == "a":
+            add(ab_at(np.array([min(ia, ib)]), np.array([max(ia, ib)])), one, -1.0)
+        elif ka == "m" and kb == "m":
+            add(np.array([n_ab + n_b + ia * nm + ib, n_ab + n_b + ib * nm + ia]),
+                np.array([source, source]), -1.0)
+        else:
+            a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
+            add(np.array([n_ab + a_i * nm + m_i]), one, -1.0)
+
+
+def solve_many(joints: Sequence[Joint]) -> list[Outcome]:
+    """Solve many joints, batching those of the same shape.
+
+    Args:
+        joints: The joints (linear bearing law), in any mix of shapes.
+
+    Returns:
+        One outcome per joint, in order: its :class:`Solution`, or the
+        :class:`ModelError` (a mechanism) or :class:`SolveError` that its own
+        solve would raise.
+    """
+    out: list[Outcome | None] = [None] * len(joints)
+    groups: dict[tuple[object, ...], list[tuple[int, Mesh]]] = {}
+    sound: set[tuple[object, ...]] = set()  # load paths known to be sound
+    for i, joint in enumerate(joints):
+        # what plyshear.mechanics.loadpath.require_load_path looks at
+        path_key = (tuple(p.member for p in joint.plies), tuple(ply_moduli(joint) > 0.0),
+                    tuple((m.name, m.support, m.is_loaded) for m in joint.members))
+        if path_key not in sound:
+            try:
+                require_load_path(joint)
+            except ModelError as exc:
+                out[i] = exc
+                continue
+            sound.add(path_key)
+        mesh = build_mesh(joint)
+        groups.setdefault(shape_key(joint, mesh), []).append((i, mesh))
+    for members in groups.values():
+        for start in range(0, len(members), CHUNK):
+            part = members[start:start + CHUNK]
+            for (i, _), outcome in zip(part, _solve_group([joints[i] for i, _ in part],
+                                                          [m for _, m in part]), strict=True):
+                out[i] = outcome
+    return [o for o in out if o is not None]
+
+
+def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
+    """Solve joints of one shape together."""
+    with np.errstate(all="ignore"):
+        try:
+            return _solve_batched(joints, meshes)
+        except (SolveError, np.linalg.LinAlgError):
+            pass
+    outcomes: list[Outcome] = []
+    for joint in joints:
+        try:
+            outcomes.append(solve_one(joint))
+        except (ModelError, SolveError) as exc:
+            outcomes.append(exc)
+    return outcomes
+
+
+def _solve_batched(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
+    n = len(joints)
+    lay0 = layout(joints[0], meshes[0])
+    ns, ne = len(lay0.stations), lay0.ne
+    # Per joint: the numbers that differ.
+    lays: list[Layout] = []
+    kplies: list[np.ndarray] = []
+    EIs: list[np.ndarray] = []
+    for joint, mesh in zip(joints, meshes, strict=True):
+        EI, phi = section(joint, mesh)
+        springs = tuple(dataclasses.replace(s, k=spring_stiffness(joint, s.ply, s.segment))
+                        for s in lay0.springs)
+        loads = np.zeros_like(lay0.loads)
+        for i, m in enumerate(joint.members):
+            if lay0.member_dof[i] >= 0:
+                loads[lay0.member_dof[i]] = m.load
+        lays.append(dataclasses.replace(
+            lay0, mesh=mesh, stations=np.asarray(joint.stations, dtype=float),
+            springs=springs, loads=loads, phi=np.tile(phi, ns),
+            kel=np.empty(0)))  # filled below, from one vectorised call
+        kplies.append(ply_moduli(joint))
+        EIs.append(np.tile(EI, ns))
+    L = np.concatenate([np.tile(lay.mesh.lengths, ns) for lay in lays])
+    EI_all = np.concatenate(EIs)
+    phi_all = np.concatenate([lay.phi for lay in lays])
+    el_ply = lay0.el_ply
+    k_el = np.concatenate([np.where(el_ply >= 0, k[np.maximum(el_ply, 0)], 0.0)
+                           for k in kplies])
+    kel = beam.stiffness(EI_all, phi_all, L).reshape(n, ns * ne, 4, 4)
+    kbb, kbu = beam.foundation(k_el, phi_all, L)
+    kbb = kbb.reshape(n, ns * ne, 4, 4)
+    kbu = kbu.reshape(n, ns * ne, 4)
+    kuu = (k_el * L).reshape(n, ns * ne)
+    ksp = np.array([[s.k for s in lay.springs] for lay in lays]).reshape(n, -1)
+    source = np.concatenate([(kel + kbb).reshape(n, -1), kbu.reshape(n, -1), kuu, ksp], axis=1)
+    dest = (assembly_operator(lay0) @ source.T).T
+    bw, na, nm = lay0.bw, lay0.na, lay0.nm
+    ab = dest[:, :(bw + 1) * na].reshape(n, bw + 1, na)
+    B = dest[:, (bw + 1) * na:(bw + 1) * na + na * nm].reshape(n, na, nm)
+    C = dest[:, (bw + 1) * na + na * nm:].reshape(n, nm, nm)
+    loads = np.stack([lay.loads for lay in lays])
+    x, y, kappa = _solve_stacked(ab, B, C, loads)
+    outcomes: list[Outcome] = []
+    for i, (joint, lay) in enumerate(zip(joints, lays, strict=True)):
+        if not (np.all(np.isfinite(x[i])) and np.all(np.isfinite(y[i]))):
+            outcomes.append(SolveError("the solution is not finite: check the magnitudes "
+                                       "of the inputs"))
+            continue
+        lay_i = dataclasses.replace(lay, kel=kel[i])
+        sys_i = System(layout=lay_i, ab=ab[i], B=B[i], C=C[i], k=kplies[i], kbb=kbb[i],
+                       kbu=kbu[i])
+        outcomes.append(_results(joint, sys_i, x[i], y[i], float(kappa[i])))
+    return outcomes
+
+
+def _solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray
+                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Solve n bordered banded systems at once.
+
+    Args:
+        ab: Upper banded blocks, shape (n, bw + 1, na).
+        B: Borders, shape (n, na, nm).
+        C: Corners, shape (n, nm, nm).
+        loads: Member loads, shape (n, nm, 2).
+
+    Returns:
+        ``(x, y, kappa)``: shapes (n, na, 2), (n, nm, 2) and (n,).
+
+    Raises:
+        numpy.linalg.LinAlgError: If any system is not positive definite.
+    """
+    n, u1, na = ab.shape
+    nm = C.shape[-1]
+    big = np.ascontiguousarray(ab.transpose(1, 0, 2).reshape(u1, n * na))
+    cb = cholesky_banded(big, lower=False, check_finite=False)
+
+    def a_solve(rhs: np.ndarray) -> np.ndarray:
+        """Solve every block for its own right-hand sides, (n, na, k) → (n, na, k)."""
+        k = rhs.shape[2]
+        return cho_solve_banded((cb, False), rhs.reshape(n * na, k),
+                                check_finite=False).reshape(n, na, k)
+
+    XB = a_solve(B) if nm else np.zeros((n, na, 0))
+    S = C - np.einsum("nai,naj->nij", B, XB)
+    if nm:
+        np.linalg.cholesky(S)  # raises LinAlgError where a member system is singular
+
+    def apply(rhs: np.ndarray) -> np.ndarray:
+        """Solve the whole systems for right-hand sides (n, na + nm)."""
+        xa = a_solve(rhs[:, :na, None])
+        if not nm:
+            return xa[:, :, 0]
+        ym = np.linalg.solve(S, rhs[:, na:, None] - np.einsum("nai,nak->nik", B, xa))
+        return np.concatenate([xa - XB @ ym, ym], axis=1)[:, :, 0]
+
+    kappa = scaled_condition(ab, B, C, apply)
+    if not nm:
+        return np.zeros((n, na, 2)), np.zeros((n, 0, 2)), kappa
+    y = np.linalg.solve(S, loads)
+    x = -XB @ y
+    return x, y, kappa
