@@ -339,6 +339,128 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
         _write_figure(diagrams.planes_figure(rows, joint), target, force)
 
 
+SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
+
+
+@main.command("sweep")
+@click.argument("model", type=click.Path(dir_okay=False))
+@click.option("--vary", "varies", multiple=True, metavar="KEY=VALUES",
+              help="A model-file key and its values: bolt.diameter=16,20,24, "
+                   "ply[2].thickness=8:20:2 (ends included), bolt.grade=8.8,10.9. "
+                   "Repeat for a full factorial.")
+@click.option("--cases", "cases_file", type=click.Path(dir_okay=False), default=None,
+              help="A CSV of cases: a header of keys, one case a row (crossed with --vary).")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="Write every case to a .csv or .jsonl file (else a table is printed).")
+@click.option("--capacity", type=click.Choice(["none", "elastic", "full"]), default="elastic",
+              show_default=True,
+              help="elastic: the linear solution scaled to its first failure; full: also "
+                   "the nonlinear and plastic capacities (about 0.1 s a case).")
+@click.option("--no-check", is_flag=True, help="Skip the design check (solve only).")
+@click.option("--plot", type=click.Path(dir_okay=False), default=None,
+              help="Write a chart of --response against the varied keys (.png, .svg, .pdf).")
+@click.option("--response", default="utilization", show_default=True,
+              help="The plotted column: utilization, max_shear, max_moment, "
+                   "capacity_elastic, capacity_nonlinear, capacity_plastic, shear_plane_N.")
+@click.option("--x", "x_key", default=None, help="Key on the chart's x axis (default: the "
+              "first varied).")
+@click.option("--series", default=None, help="Key drawn as one line per value (default: the "
+              "second varied).")
+@click.option("--workers", type=click.IntRange(min=1, max=256), default=None,
+              help="Local worker processes (default: one per core).")
+@click.option("--scheduler", default=None, metavar="ADDRESS",
+              help="Run on a Dask distributed cluster (tcp://host:8786); needs the "
+                   "'dask' extra.")
+@click.option("--force", is_flag=True, help="Replace an existing -o or --plot file.")
+@click.option("--quiet", is_flag=True, help="No progress bar.")
+def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
+              output: str | None, capacity: str, no_check: bool, plot: str | None,
+              response: str, x_key: str | None, series: str | None, workers: int | None,
+              scheduler: str | None, force: bool, quiet: bool) -> None:
+    """Solve, check and rate MODEL for every combination of the --vary values.
+
+    Every case goes through the model file's own validation; a case that fails it
+    (a value outside a catalogue's range, say) is a row with its error, and the
+    sweep goes on. Same-shaped cases are solved together (the batch path) on
+    local processes, or on a Dask cluster with --scheduler.
+    """
+    from plyshear.model import modelfile
+    from plyshear.sweep import keys as sk
+    from plyshear.sweep import output as so
+    from plyshear.sweep import run as sr
+
+    if not varies and cases_file is None:
+        fail(f"{model}: sweep: give at least one --vary KEY=VALUES or --cases FILE")
+    out_path = Path(output) if output else None
+    if out_path is not None:
+        if out_path.suffix.lower() not in SWEEP_FORMATS:
+            fail(f"{output}: -o needs a .csv or .jsonl file name")
+        if out_path.exists() and not force:
+            fail(f"{output}: exists; use --force to replace it")
+    target = _plot_target(plot, force)
+    joint = _load(model)
+    data = _guard(lambda: modelfile.read(model))
+    try:
+        parsed = [sk.parse_vary(v, data) for v in varies]
+        table = sk.read_cases(cases_file, data) if cases_file else None
+        keys, cases = sk.cases(parsed, table)
+    except sk.SweepError as exc:
+        fail(f"{model}: sweep: {exc}")
+    key_texts = [k.text for k in keys]
+    chart = _sweep_chart(model, target, response, x_key, series, key_texts, capacity)
+    options = sr.Options(capacity=capacity, check=not no_check)
+    cols = sr.columns(keys, len(joint.plies) - 1, options)
+    show = not quiet and len(cases) > sr.CHUNK
+    with click.progressbar(length=len(cases), label=f"{len(cases)} cases", file=sys.stderr,
+                           hidden=not show) as bar:
+        try:
+            rows = sr.run(data, str(model), keys, cases, options, workers=workers,
+                          scheduler=scheduler, progress=bar.update)
+        except RuntimeError as exc:
+            fail(f"{model}: sweep: {exc}")
+    if out_path is not None:
+        fmt = SWEEP_FORMATS[out_path.suffix.lower()]
+        payload = so.to_csv(rows, cols) if fmt == "csv" else so.to_jsonl(rows, cols)
+        write_atomic(out_path, payload.encode("utf-8"), force)
+        click.echo(f"{len(rows)} cases written to {out_path}", err=True)
+        click.echo(so.summary(rows))
+        click.echo(so.units_line(joint.units))
+    else:
+        click.echo(so.text(rows, cols, key_texts, joint.units))
+    if chart is not None and target is not None:
+        from plyshear.report.sweepplot import sweep_figure
+
+        x, ser, fixed = chart
+        fixed_at = {k: cases[0][key_texts.index(k)] for k in fixed}
+        fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units, joint.title)
+        _write_figure(fig, target, force)
+
+
+def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
+                 series: str | None, keys: list[str], capacity: str
+                 ) -> tuple[str, str | None, list[str]] | None:
+    """Check the chart's options before the long part; return (x, series, other keys)."""
+    if target is None:
+        return None
+    from plyshear.report.sweepplot import response_dimension
+
+    if response_dimension(response) is None:
+        fail(f"{model}: sweep: --response {response!r} cannot be plotted; use utilization, "
+             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_plastic "
+             "or shear_plane_N")
+    if response.startswith("capacity_") and capacity == "none" or \
+            response in ("capacity_nonlinear", "capacity_plastic") and capacity != "full":
+        fail(f"{model}: sweep: --response {response} needs --capacity "
+             f"{'full' if response != 'capacity_elastic' else 'elastic'}")
+    for name, k in (("--x", x_key), ("--series", series)):
+        if k is not None and k not in keys:
+            fail(f"{model}: sweep: {name} {k!r} is not a varied key ({', '.join(keys)})")
+    x = x_key or keys[0]
+    rest = [k for k in keys if k != x]
+    ser = series or (rest[0] if rest else None)
+    return x, ser, [k for k in rest if k != ser]
+
+
 @main.command("report")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("-o", "--output", type=click.Path(dir_okay=False), required=True,

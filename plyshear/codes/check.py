@@ -252,7 +252,7 @@ def bolt_section_diameter(joint: Joint, threaded: bool) -> float:
 
 def node_threads(joint: Joint, bolt: BoltResult) -> np.ndarray:
     """Whether the bolt is threaded at each node."""
-    return np.array([joint.bolt.threaded_at(float(z)) for z in bolt.z])
+    return joint.bolt.threaded_along(bolt.z)
 
 
 def resultants(values: np.ndarray) -> np.ndarray:

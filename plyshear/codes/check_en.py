@@ -157,8 +157,11 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     m = resultants(bolt.M)
     v = resultants(bolt.V)
     threads = node_threads(joint, bolt)
-    mrd = np.array([en.M_Rd_pin(bolt_section_diameter(joint, bool(t)), b.fyb) for t in threads])
-    vrd = np.array([plane_resistance(joint, bool(t))[0] for t in threads])
+    # two sections at most (shank, thread): each resistance once, then spread on the nodes
+    by_section = {t: (en.M_Rd_pin(bolt_section_diameter(joint, t), b.fyb),
+                      plane_resistance(joint, t)[0]) for t in {bool(t) for t in threads}}
+    mrd = np.array([by_section[bool(t)][0] for t in threads])
+    vrd = np.array([by_section[bool(t)][1] for t in threads])
     i = int(np.argmax(m / mrd))
     informative = not pin
     tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
@@ -166,10 +169,12 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
                            float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
                            informative=informative, z=float(bolt.z[i]),
                            note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
-    inter = np.array([en.pin_interaction(m[k], mrd[k], v[k], vrd[k]) for k in range(m.size)])
-    k = int(np.argmax(inter))
+    # the node where the interaction peaks (its terms are monotonic in both ratios), then
+    # the clause's own value there
+    k = int(np.argmax((m / mrd) ** 2 + (v / vrd) ** 2))
+    inter_k = en.pin_interaction(float(m[k]), float(mrd[k]), float(v[k]), float(vrd[k]))
     items.append(CheckItem("bending + shear", "bolt",
-                           float(inter[k]), 1.0, "ratio", (cited(en.pin_interaction),),
+                           inter_k, 1.0, "ratio", (cited(en.pin_interaction),),
                            informative=informative, z=float(bolt.z[k]),
                            note="(M/MRd)^2 + (Fv/FvRd)^2" + tail))
     # Tension and combined (Table 3.4).

@@ -20,6 +20,7 @@ linear laws the x and y directions use the same matrix.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 import numpy as np
@@ -94,10 +95,9 @@ def build_mesh(joint: Joint) -> Mesh:
     z = np.concatenate([*pieces, [prev_end]])
     ply_of = np.concatenate(plies)
     mid = 0.5 * (z[:-1] + z[1:])
-    # as Bolt.threaded_at, element by element at the middle
-    threaded = mid >= thread_z - 1e-9 if thread_z is not None \
-        else np.full(mid.size, bolt.threaded_at(0.0))
-    plane_nodes = np.array([int(np.argmin(np.abs(z - zp))) for zp in plane_at], dtype=int)
+    threaded = bolt.threaded_along(mid)
+    plane_nodes = np.argmin(np.abs(z[:, None] - np.array(plane_at)[None, :]), axis=0) \
+        if plane_at else np.zeros(0, dtype=int)
     return Mesh(z=z, ply=ply_of, threaded=threaded, plane_nodes=plane_nodes)
 
 
@@ -112,8 +112,22 @@ def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
         frac = (split - a) / (b - a)
         n1 = max(1, int(np.ceil(n * frac)))
         n2 = max(1, int(np.ceil(n * (1 - frac))))
-        return np.concatenate([np.linspace(a, split, n1 + 1)[:-1], np.linspace(split, b, n2 + 1)])
-    return np.linspace(a, b, n + 1)
+        return np.concatenate([_nodes(a, split, n1)[:-1], _nodes(split, b, n2)])
+    return _nodes(a, b, n)
+
+
+@functools.lru_cache(maxsize=256)
+def _fractions(n: int) -> np.ndarray:
+    f = np.arange(n + 1) / n
+    f.flags.writeable = False
+    return f
+
+
+def _nodes(a: float, b: float, n: int) -> np.ndarray:
+    """N + 1 equally spaced nodes from a to b, both ends exact (as numpy.linspace)."""
+    z = a + (b - a) * _fractions(n)
+    z[-1] = b
+    return z
 
 
 Endpoint = tuple[str, int]  # ("a", index in A) | ("m", member DOF) | ("0", member index)
@@ -466,7 +480,12 @@ def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
     """
     ed = lay.edofs
     de = np.where((ed >= 0)[:, :, None], x[np.maximum(ed, 0)], 0.0)
-    u_ply = np.array([[endpoint_value(t, x, y) for t in row] for row in lay.target])
+    kind = np.array([[t[0] for t in row] for row in lay.target])
+    index = np.array([[t[1] for t in row] for row in lay.target])
+    u_ply = np.zeros((*kind.shape, x.shape[1]))
+    on_a, on_m = kind == "a", kind == "m"
+    u_ply[on_a] = x[index[on_a]]
+    u_ply[on_m] = y[index[on_m]]
     ns = len(lay.target)
     station_of = np.repeat(np.arange(ns), lay.ne)
     ply = lay.el_ply

@@ -24,7 +24,6 @@ joints one by one, so that the failing ones report their own errors.
 
 from __future__ import annotations
 
-import dataclasses
 from collections.abc import Sequence
 
 import numpy as np
@@ -36,7 +35,6 @@ from plyshear.mechanics.assembly import (
     Layout,
     Mesh,
     Spring,
-    System,
     build_mesh,
     layout,
     ply_moduli,
@@ -45,8 +43,9 @@ from plyshear.mechanics.assembly import (
 )
 from plyshear.mechanics.conditioning import scaled_condition
 from plyshear.mechanics.loadpath import require_load_path
+from plyshear.mechanics.recovery import Batch, recover
 from plyshear.mechanics.results import Solution
-from plyshear.mechanics.solve import SolveError, _results
+from plyshear.mechanics.solve import SolveError, system_unbalance
 from plyshear.mechanics.solve import solve as solve_one
 from plyshear.model.joint import Joint
 from plyshear.model.modelfile import ModelError
@@ -207,54 +206,47 @@ def _solve_batched(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     lay0 = layout(joints[0], meshes[0])
     ns, ne = len(lay0.stations), lay0.ne
     # Per joint: the numbers that differ.
-    lays: list[Layout] = []
-    kplies: list[np.ndarray] = []
-    EIs: list[np.ndarray] = []
-    for joint, mesh in zip(joints, meshes, strict=True):
-        EI, phi = section(joint, mesh)
-        springs = tuple(dataclasses.replace(s, k=spring_stiffness(joint, s.ply, s.segment))
-                        for s in lay0.springs)
-        loads = np.zeros_like(lay0.loads)
-        for i, m in enumerate(joint.members):
-            if lay0.member_dof[i] >= 0:
-                loads[lay0.member_dof[i]] = m.load
-        lays.append(dataclasses.replace(
-            lay0, mesh=mesh, stations=np.asarray(joint.stations, dtype=float),
-            springs=springs, loads=loads, phi=np.tile(phi, ns),
-            kel=np.empty(0)))  # filled below, from one vectorised call
-        kplies.append(ply_moduli(joint))
-        EIs.append(np.tile(EI, ns))
-    L = np.concatenate([np.tile(lay.mesh.lengths, ns) for lay in lays])
-    EI_all = np.concatenate(EIs)
-    phi_all = np.concatenate([lay.phi for lay in lays])
+    EI = np.empty((n, ne))
+    phi = np.empty((n, ne))
+    kply = np.empty((n, len(joints[0].plies)))
+    ksp = np.empty((n, len(lay0.springs)))
+    loads = np.zeros((n, *lay0.loads.shape))
+    for i, (joint, mesh) in enumerate(zip(joints, meshes, strict=True)):
+        EI[i], phi[i] = section(joint, mesh)
+        kply[i] = ply_moduli(joint)
+        ksp[i] = [spring_stiffness(joint, s.ply, s.segment) for s in lay0.springs]
+        for m_i, m in enumerate(joint.members):
+            if lay0.member_dof[m_i] >= 0:
+                loads[i, lay0.member_dof[m_i]] = m.load
+    z = np.stack([m.z for m in meshes])
+    L = np.tile(np.diff(z, axis=1), (1, ns)).ravel()
+    phi_all = np.tile(phi, (1, ns)).ravel()
     el_ply = lay0.el_ply
-    k_el = np.concatenate([np.where(el_ply >= 0, k[np.maximum(el_ply, 0)], 0.0)
-                           for k in kplies])
-    kel = beam.stiffness(EI_all, phi_all, L).reshape(n, ns * ne, 4, 4)
+    k_el = np.where(el_ply >= 0, kply[:, np.maximum(el_ply, 0)], 0.0).ravel()
+    kel = beam.stiffness(np.tile(EI, (1, ns)).ravel(), phi_all, L).reshape(n, ns * ne, 4, 4)
     kbb, kbu = beam.foundation(k_el, phi_all, L)
     kbb = kbb.reshape(n, ns * ne, 4, 4)
     kbu = kbu.reshape(n, ns * ne, 4)
     kuu = (k_el * L).reshape(n, ns * ne)
-    ksp = np.array([[s.k for s in lay.springs] for lay in lays]).reshape(n, -1)
     source = np.concatenate([(kel + kbb).reshape(n, -1), kbu.reshape(n, -1), kuu, ksp], axis=1)
     dest = (assembly_operator(lay0) @ source.T).T
     bw, na, nm = lay0.bw, lay0.na, lay0.nm
     ab = dest[:, :(bw + 1) * na].reshape(n, bw + 1, na)
     B = dest[:, (bw + 1) * na:(bw + 1) * na + na * nm].reshape(n, na, nm)
     C = dest[:, (bw + 1) * na + na * nm:].reshape(n, nm, nm)
-    loads = np.stack([lay.loads for lay in lays])
     x, y, kappa = _solve_stacked(ab, B, C, loads)
-    outcomes: list[Outcome] = []
-    for i, (joint, lay) in enumerate(zip(joints, lays, strict=True)):
-        if not (np.all(np.isfinite(x[i])) and np.all(np.isfinite(y[i]))):
-            outcomes.append(SolveError("the solution is not finite: check the magnitudes "
-                                       "of the inputs"))
-            continue
-        lay_i = dataclasses.replace(lay, kel=kel[i])
-        sys_i = System(layout=lay_i, ab=ab[i], B=B[i], C=C[i], k=kplies[i], kbb=kbb[i],
-                       kbu=kbu[i])
-        outcomes.append(_results(joint, sys_i, x[i], y[i], float(kappa[i])))
-    return outcomes
+    finite = np.isfinite(x).reshape(n, -1).all(axis=1) & np.isfinite(y).reshape(n, -1).all(axis=1)
+    ok = np.nonzero(finite)[0]
+    batch = Batch(
+        joints=[joints[i] for i in ok], layout=lay0, z=z[ok],
+        stations=np.array([joints[i].stations for i in ok], dtype=float).reshape(ok.size, ns),
+        kel=kel[ok], kbb=kbb[ok], kbu=kbu[ok], kply=kply[ok], kspring=ksp[ok], x=x[ok],
+        y=y[ok], kappa=kappa[ok],
+        unbalance=system_unbalance(ab[ok], B[ok], C[ok], x[ok], y[ok], loads[ok]))
+    solved = iter(recover(batch) if ok.size else [])
+    return [next(solved) if finite[i] else
+            SolveError("the solution is not finite: check the magnitudes of the inputs")
+            for i in range(n)]
 
 
 def _solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray

@@ -141,7 +141,7 @@ def plane_strength(joint: Joint, threaded: bool) -> float:
 def limits(joint: Joint, z: np.ndarray, plane_threads: list[bool]) -> Limits:
     """Return the nominal strengths of the planes and of the bolt along ``z``."""
     b = joint.bolt
-    threaded = np.array([b.threaded_at(float(zz)) for zz in z])
+    threaded = b.threaded_along(z)
     d = np.where(threaded, np.sqrt(4.0 * b.stress_area / np.pi), b.diameter)
     return Limits(
         plane=np.array([plane_strength(joint, t) for t in plane_threads]),

@@ -87,6 +87,14 @@ class Bolt:
         start = self.thread_start
         return True if start is None else z >= start - 1e-9
 
+    def threaded_along(self, z: np.ndarray) -> np.ndarray:
+        """:meth:`threaded_at` for every entry of ``z`` at once (boolean array)."""
+        z = np.asarray(z, dtype=float)
+        start = self.thread_start
+        if self.threads != "auto" or start is None:
+            return np.full(z.shape, self.threaded_at(0.0))
+        return z >= start - 1e-9
+
     @property
     def threads_assumed(self) -> bool:
         """True when threads are assumed in every plane for want of geometry."""

@@ -11,7 +11,7 @@ import difflib
 import math
 import os
 import tomllib
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from pathlib import Path
 from typing import Any
 
@@ -194,6 +194,15 @@ def load(path: str | os.PathLike[str]) -> Joint:
     Raises:
         ModelError: For any problem, naming the file and key.
     """
+    return from_dict(read(path), str(path))
+
+
+def read(path: str | os.PathLike[str]) -> dict[str, Any]:
+    """Read a model file as TOML, unvalidated (what :func:`from_dict` takes).
+
+    Raises:
+        ModelError: If the file cannot be read, is too large, or is not UTF-8 TOML.
+    """
     name = str(path)
     p = Path(path)
     try:
@@ -212,7 +221,7 @@ def load(path: str | os.PathLike[str]) -> Joint:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
         raise ModelError(name, "", f"not UTF-8 text (byte {exc.start})") from None
-    return loads(text, name)
+    return _parse(text, name)
 
 
 def loads(text: str, path: str = "<model>") -> Joint:
@@ -228,13 +237,16 @@ def loads(text: str, path: str = "<model>") -> Joint:
     Raises:
         ModelError: For any problem.
     """
+    return from_dict(_parse(text, path), path)
+
+
+def _parse(text: str, path: str) -> dict[str, Any]:
     try:
-        data = tomllib.loads(text)
+        return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
         raise ModelError(path, "", f"not valid TOML: {exc}") from None
     except RecursionError:
         raise ModelError(path, "", "not valid TOML: nested too deeply") from None
-    return from_dict(data, path)
 
 
 def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
@@ -266,7 +278,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
 
     if "bolt" not in data:
         raise r.fail("bolt", "missing; the joint needs a [bolt] table")
-    bolt = _bolt(r, r.table(data["bolt"], "bolt"))
+    bolt = _memo(_bolt, r, r.table(data["bolt"], "bolt"))
 
     plies_raw = data.get("ply")
     if plies_raw is None:
@@ -277,7 +289,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
         raise r.fail("ply", f"needs at least two plies (got {len(plies_raw)})")
     if len(plies_raw) > MAX_PLIES:
         raise r.fail("ply", f"at most {MAX_PLIES} plies (got {len(plies_raw)})")
-    plies = tuple(_ply(r, raw, i) for i, raw in enumerate(plies_raw, start=1))
+    plies = tuple(_memo(_ply, r, raw, i) for i, raw in enumerate(plies_raw, start=1))
     seen: dict[str, int] = {}
     for i, ply in enumerate(plies, start=1):
         if ply.name in seen:
@@ -298,6 +310,37 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
                  stations=stations)
+
+
+#: Bolts and plies already read, by their table's exact content (a sweep reads the
+#: same tables thousands of times; the catalogue look-ups dominate). Bounded.
+_READ: dict[tuple[Any, ...], Any] = {}
+_READ_MAX = 4096
+
+
+def _memo(read: Callable[..., Any], r: _Reader, raw: Any, *where: Any) -> Any:
+    """``read(r, raw, *where)``, remembered for tables of plain values (errors are not)."""
+    try:
+        key = (read.__name__, r.path, r.system.name, where, _frozen(raw))
+        hash(key)
+    except TypeError:
+        return read(r, raw, *where)
+    hit = _READ.get(key)
+    if hit is None:
+        hit = read(r, raw, *where)
+        if len(_READ) >= _READ_MAX:
+            _READ.clear()
+        _READ[key] = hit
+    return hit
+
+
+def _frozen(value: Any) -> Any:
+    """A hashable image of a TOML value that keeps types apart (``1`` is not ``true``)."""
+    if isinstance(value, Mapping):
+        return ("table", tuple(sorted((str(k), _frozen(v)) for k, v in value.items())))
+    if isinstance(value, list):
+        return ("array", tuple(_frozen(v) for v in value))
+    return (type(value).__name__, value)
 
 
 def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
