@@ -20,7 +20,7 @@ linear laws the x and y directions use the same matrix.
 
 from __future__ import annotations
 
-import functools
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -69,36 +69,43 @@ def build_mesh(joint: Joint) -> Mesh:
     """
     n = joint.analysis.elements_per_ply
     h_min = MIN_ELEMENT_FRACTION * joint.bolt.diameter
-    starts = joint.ply_starts()
     bolt = joint.bolt
     thread_z = bolt.thread_start if bolt.threads == "auto" else None
-    pieces: list[np.ndarray] = []
-    plies: list[np.ndarray] = []
+    # Segments (start, end, elements, ply or −1) in z order, then all nodes at once.
+    segs: list[tuple[float, float, int, int]] = []
     plane_at: list[float] = []
     prev_end = 0.0
     for j, ply in enumerate(joint.plies):
-        z0, z1 = float(starts[j]), float(starts[j] + ply.thickness)
+        z0 = prev_end + ply.gap
+        z1 = z0 + ply.thickness
         if ply.gap > 0:
             m = _count(n, z0 - prev_end, h_min)
             m = 2 * ((m + 1) // 2)  # even, so the middle of the gap is a node
-            seg = _segment(prev_end, z0, m, thread_z)
-            pieces.append(seg[:-1])
-            plies.append(np.full(seg.size - 1, -1))
+            segs += _split(prev_end, z0, m, thread_z, -1)
             if j > 0:
                 plane_at.append(0.5 * (prev_end + z0))
         elif j > 0:
             plane_at.append(z0)
-        seg = _segment(z0, z1, _count(n, ply.thickness, h_min), thread_z)
-        pieces.append(seg[:-1])
-        plies.append(np.full(seg.size - 1, j))
+        segs += _split(z0, z1, _count(n, ply.thickness, h_min), thread_z, j)
         prev_end = z1
-    z = np.concatenate([*pieces, [prev_end]])
-    ply_of = np.concatenate(plies)
+    a = np.array([s[0] for s in segs])
+    b = np.array([s[1] for s in segs])
+    count = np.array([s[2] for s in segs])
+    seg = np.repeat(np.arange(len(segs)), count)
+    i = np.arange(seg.size) - np.repeat(np.cumsum(count) - count, count)
+    z = np.append(a[seg] + (b - a)[seg] * (i / count[seg]), prev_end)
+    ply_of = np.array([s[3] for s in segs])[seg]
     mid = 0.5 * (z[:-1] + z[1:])
     threaded = bolt.threaded_along(mid)
-    plane_nodes = np.argmin(np.abs(z[:, None] - np.array(plane_at)[None, :]), axis=0) \
-        if plane_at else np.zeros(0, dtype=int)
+    plane_nodes = _nearest(z, np.array(plane_at))
     return Mesh(z=z, ply=ply_of, threaded=threaded, plane_nodes=plane_nodes)
+
+
+def _nearest(z: np.ndarray, at: np.ndarray) -> np.ndarray:
+    """Index of the node of the sorted ``z`` nearest to each of ``at``."""
+    right = np.clip(np.searchsorted(z, at), 1, z.size - 1)
+    left = right - 1
+    return np.where(np.abs(z[left] - at) <= np.abs(z[right] - at), left, right)
 
 
 def _count(n: int, length: float, h_min: float) -> int:
@@ -106,28 +113,15 @@ def _count(n: int, length: float, h_min: float) -> int:
     return max(1, min(n, int(length / h_min * (1 + 1e-9))))  # no ulp-sized jumps
 
 
-def _segment(a: float, b: float, n: int, split: float | None) -> np.ndarray:
-    """Return n equal elements on [a, b] (nodes), split at ``split`` if it is inside."""
+def _split(a: float, b: float, n: int, split: float | None, ply: int
+           ) -> list[tuple[float, float, int, int]]:
+    """Cut [a, b] into n equal elements: one segment, or two at ``split`` if it is inside."""
     if split is not None and a + 1e-9 < split < b - 1e-9:
         frac = (split - a) / (b - a)
-        n1 = max(1, int(np.ceil(n * frac)))
-        n2 = max(1, int(np.ceil(n * (1 - frac))))
-        return np.concatenate([_nodes(a, split, n1)[:-1], _nodes(split, b, n2)])
-    return _nodes(a, b, n)
-
-
-@functools.lru_cache(maxsize=256)
-def _fractions(n: int) -> np.ndarray:
-    f = np.arange(n + 1) / n
-    f.flags.writeable = False
-    return f
-
-
-def _nodes(a: float, b: float, n: int) -> np.ndarray:
-    """N + 1 equally spaced nodes from a to b, both ends exact (as numpy.linspace)."""
-    z = a + (b - a) * _fractions(n)
-    z[-1] = b
-    return z
+        n1 = max(1, math.ceil(n * frac))
+        n2 = max(1, math.ceil(n * (1 - frac)))
+        return [(a, split, n1, ply), (split, b, n2, ply)]
+    return [(a, b, n, ply)]
 
 
 Endpoint = tuple[str, int]  # ("a", index in A) | ("m", member DOF) | ("0", member index)
@@ -302,37 +296,39 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
             member_dof[i] = nm
             nm += 1
 
-    def tied(j: int, s: int) -> bool:
-        """True where ply j shares its member's displacement at station s."""
-        ply = joint.plies[j]
-        return (ply.member is not None and ply.link_stiffness is None
-                and s == entry_station(joint, ply.member, ns))
+    # tied[s, j]: ply j shares its member's displacement at station s (rigid tie, at
+    # the station where the member's force enters)
+    entry = {m.name: 0 if m.enters == "before" else ns - 1 for m in members}
+    tied = np.zeros((ns, nplies), dtype=bool)
+    for j, ply in enumerate(joint.plies):
+        if ply.member is not None and ply.link_stiffness is None:
+            tied[entry[ply.member], j] = True
 
     # Numbering of A, station by station: bolt DOFs by node; a ply's own DOF
-    # right after the last node inside it.
-    own_after: dict[int, list[int]] = {}
-    for j in range(nplies):
-        last_node = int(np.nonzero(mesh.ply == j)[0][-1]) + 1
-        own_after.setdefault(last_node, []).append(j)
+    # right after the last node inside it (a ply ends at a node of its own).
+    last_node = np.zeros(nplies, dtype=int)
+    in_ply = mesh.ply >= 0
+    last_node[mesh.ply[in_ply]] = np.flatnonzero(in_ply) + 1  # the last write wins
     bolt_dof = np.empty((ns, nn, 2), dtype=int)
     target: list[list[Endpoint]] = [[("0", FIXED)] * nplies for _ in range(ns)]
     next_dof = 0
     for s in range(ns):
-        for node in range(nn):
-            bolt_dof[s, node] = (next_dof, next_dof + 1)
-            next_dof += 2
-            for j in own_after.get(node, []):
-                if not tied(j, s):
-                    target[s][j] = ("a", next_dof)
-                    next_dof += 1
+        own = np.flatnonzero(~tied[s])
+        per_node = 2 + np.bincount(last_node[own], minlength=nn)
+        start = next_dof + np.cumsum(per_node) - per_node
+        bolt_dof[s, :, 0] = start
+        bolt_dof[s, :, 1] = start + 1
+        for j, dof in zip(own.tolist(), (start[last_node[own]] + 2).tolist(), strict=True):
+            target[s][j] = ("a", dof)
+        next_dof += int(per_node.sum())
     if joint.bolt.ends == "clamped":
         bolt_dof, target, next_dof = _drop_rotations(bolt_dof, target, next_dof)
     for s in range(ns):
-        for j, ply in enumerate(joint.plies):
-            if tied(j, s):
-                assert ply.member is not None
-                i = midx[ply.member]
-                target[s][j] = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
+        for j in np.flatnonzero(tied[s]).tolist():
+            member = joint.plies[j].member
+            assert member is not None
+            i = midx[member]
+            target[s][j] = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
 
     springs: list[Spring] = []
     for j, ply in enumerate(joint.plies):
@@ -349,10 +345,11 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     edofs = np.concatenate([np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1)
                             for s in range(ns)])
     station_of = np.repeat(np.arange(ns), ne)
-    tgt_kind = np.array([target[s][j][0] if j >= 0 else "-"
-                         for s, j in zip(station_of, el_ply, strict=True)])
-    tgt_idx = np.array([target[s][j][1] if j >= 0 and target[s][j][0] != "0" else FIXED
-                        for s, j in zip(station_of, el_ply, strict=True)])
+    kinds = np.array([[t[0] for t in row] for row in target])  # (S, plies)
+    indices = np.array([[t[1] if t[0] != "0" else FIXED for t in row] for row in target])
+    in_ply = el_ply >= 0
+    tgt_kind = np.where(in_ply, kinds[station_of, np.maximum(el_ply, 0)], "-")
+    tgt_idx = np.where(in_ply, indices[station_of, np.maximum(el_ply, 0)], FIXED)
     bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
              _spring_bandwidth(springs))
     if (bw + 1) * next_dof > MAX_BAND_ENTRIES:
@@ -373,6 +370,77 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
                   springs=tuple(springs), loads=loads, kel=kel, phi=np.tile(phi, ns))
 
 
+def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
+                                           tuple[int, int]]:
+    """Where every element and spring stiffness goes in the assembled system.
+
+    The source vector of a joint is the concatenation of ``kel + kbb``
+    (S·ne × 4 × 4), ``kbu`` (S·ne × 4), ``kuu`` (S·ne) and the springs' stiffnesses;
+    the destination is the concatenation of ``ab`` ((bw+1) × na), ``B`` (na × nm)
+    and ``C`` (nm × nm), each flattened in C order. The system is
+    ``dest[d] += sign · source[s]`` over the returned triples.
+
+    Args:
+        lay: The numbering.
+
+    Returns:
+        ``(dest, src, sign, (destination size, source size))``.
+    """
+    bw, na, nm = lay.bw, lay.na, lay.nm
+    edofs, kind, idx = lay.edofs, lay.tgt_kind, lay.tgt_idx
+    ne = edofs.shape[0]
+    n_ab, n_b = (bw + 1) * na, na * nm
+    off_kbu, off_kuu, off_sp = 16 * ne, 20 * ne, 21 * ne
+    e = np.arange(ne)
+    dest: list[np.ndarray] = []
+    src: list[np.ndarray] = []
+    sign: list[np.ndarray] = []
+
+    def add(d: np.ndarray, s: np.ndarray, v: float = 1.0) -> None:
+        dest.append(np.asarray(d, dtype=np.int64).ravel())
+        src.append(np.asarray(s, dtype=np.int64).ravel())
+        sign.append(np.full(np.size(d), v))
+
+    def ab_at(r: np.ndarray, c: np.ndarray) -> np.ndarray:
+        return (bw + r - c) * na + c
+
+    # Beam and foundation blocks: upper triangle of the bolt DOFs (an element's DOFs
+    # are numbered in increasing order, so the pairs a <= b of its matrix).
+    pa, pb = np.triu_indices(4)
+    rows, cols = edofs[:, pa], edofs[:, pb]
+    ok = (rows >= 0) & (cols >= 0)
+    add(ab_at(rows[ok], cols[ok]), (e[:, None] * 16 + pa * 4 + pb)[ok])
+    # Bolt–ply coupling: to the ply's own DOF in A, or to a free member's in B.
+    own = (kind == "a")[:, None] & (edofs >= 0)
+    tgt = np.broadcast_to(idx[:, None], edofs.shape)
+    add(ab_at(np.minimum(edofs, tgt)[own], np.maximum(edofs, tgt)[own]),
+        (off_kbu + e[:, None] * 4 + np.arange(4)[None, :])[own])
+    mem = (kind == "m")[:, None] & (edofs >= 0)
+    add(n_ab + edofs[mem] * nm + tgt[mem], (off_kbu + e[:, None] * 4 + np.arange(4))[mem])
+    # Ply–ply terms.
+    own_e, mem_e = kind == "a", kind == "m"
+    add(ab_at(idx[own_e], idx[own_e]), off_kuu + e[own_e])
+    add(n_ab + n_b + idx[mem_e] * nm + idx[mem_e], off_kuu + e[mem_e])
+    for s, spring in enumerate(lay.springs):
+        one = np.array([off_sp + s])
+        ends = [end for end in (spring.a, spring.b) if end[0] != "0"]
+        for k, i in ends:
+            add(ab_at(np.array([i]), np.array([i])) if k == "a"
+                else np.array([n_ab + n_b + i * nm + i]), one)
+        if len(ends) == 2:
+            (ka, ia), (kb, ib) = ends
+            if ka == "a" and kb == "a":
+                add(ab_at(np.array([min(ia, ib)]), np.array([max(ia, ib)])), one, -1.0)
+            elif ka == "m" and kb == "m":
+                add(np.array([n_ab + n_b + ia * nm + ib, n_ab + n_b + ib * nm + ia]),
+                    np.array([off_sp + s, off_sp + s]), -1.0)
+            else:
+                a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
+                add(np.array([n_ab + a_i * nm + m_i]), one, -1.0)
+    shape = (n_ab + n_b + nm * nm, off_sp + len(lay.springs))
+    return np.concatenate(dest), np.concatenate(src), np.concatenate(sign), shape
+
+
 def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
             kuu: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Assemble the beams, the given foundation matrices and the springs into (ab, B, C).
@@ -386,53 +454,14 @@ def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
     Returns:
         The upper-banded block ``A``, the border ``B`` and the block ``C``.
     """
-    bw, edofs, kind, idx = lay.bw, lay.edofs, lay.tgt_kind, lay.tgt_idx
-    ke = lay.kel + kbb
-    ab = np.zeros((bw + 1, lay.na))
-    B = np.zeros((lay.na, lay.nm))
-    C = np.zeros((lay.nm, lay.nm))
-    for a in range(4):
-        for b in range(4):
-            rows, cols = edofs[:, a], edofs[:, b]
-            ok = (rows >= 0) & (cols >= 0) & (rows <= cols)
-            np.add.at(ab, (bw + rows[ok] - cols[ok], cols[ok]), ke[ok, a, b])
-    # Bolt–ply coupling and ply–ply terms.
-    for a in range(4):
-        bdof = edofs[:, a]
-        own_e = (kind == "a") & (bdof >= 0)
-        r = np.minimum(bdof[own_e], idx[own_e])
-        c = np.maximum(bdof[own_e], idx[own_e])
-        np.add.at(ab, (bw + r - c, c), kbu[own_e, a])
-        mem_e = (kind == "m") & (bdof >= 0)
-        np.add.at(B, (bdof[mem_e], idx[mem_e]), kbu[mem_e, a])
-    own_e = kind == "a"
-    np.add.at(ab, (bw, idx[own_e]), kuu[own_e])
-    mem_e = kind == "m"
-    np.add.at(C, (idx[mem_e], idx[mem_e]), kuu[mem_e])
-    for sp in lay.springs:
-        _add_spring(ab, B, C, bw, sp)
-    return ab, B, C
-
-
-def _add_spring(ab: np.ndarray, B: np.ndarray, C: np.ndarray, bw: int, sp: Spring) -> None:
-    """Add one spring's stiffness between its endpoints."""
-    ends = [e for e in (sp.a, sp.b) if e[0] != "0"]
-    for kind, i in ends:
-        if kind == "a":
-            ab[bw, i] += sp.k
-        else:
-            C[i, i] += sp.k
-    if len(ends) == 2:
-        (ka, ia), (kb, ib) = ends
-        if ka == "a" and kb == "a":
-            r, c = min(ia, ib), max(ia, ib)
-            ab[bw + r - c, c] -= sp.k
-        elif ka == "m" and kb == "m":
-            C[ia, ib] -= sp.k
-            C[ib, ia] -= sp.k
-        else:
-            a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
-            B[a_i, m_i] -= sp.k
+    dest, src, sign, (n_dest, _) = scatter_indices(lay)
+    source = np.concatenate([(lay.kel + kbb).ravel(), kbu.ravel(), kuu.ravel(),
+                             [sp.k for sp in lay.springs]])
+    flat = np.bincount(dest, weights=sign * source[src], minlength=n_dest)
+    bw, na, nm = lay.bw, lay.na, lay.nm
+    n_ab = (bw + 1) * na
+    return (flat[:n_ab].reshape(bw + 1, na), flat[n_ab:n_ab + na * nm].reshape(na, nm),
+            flat[n_ab + na * nm:].reshape(nm, nm))
 
 
 def endpoint_value(end: Endpoint, x: np.ndarray, y: np.ndarray) -> np.ndarray:

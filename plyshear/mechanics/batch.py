@@ -28,24 +28,22 @@ from collections.abc import Sequence
 
 import numpy as np
 import scipy.sparse as sp
-from scipy.linalg import cho_solve_banded, cholesky_banded
 
 from plyshear.mechanics import beam
 from plyshear.mechanics.assembly import (
     Layout,
     Mesh,
-    Spring,
     build_mesh,
     layout,
     ply_moduli,
+    scatter_indices,
     section,
     spring_stiffness,
 )
-from plyshear.mechanics.conditioning import scaled_condition
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.recovery import Batch, recover
 from plyshear.mechanics.results import Solution
-from plyshear.mechanics.solve import SolveError, system_unbalance
+from plyshear.mechanics.solve import SolveError, solve_stacked, system_unbalance
 from plyshear.mechanics.solve import solve as solve_one
 from plyshear.model.joint import Joint
 from plyshear.model.modelfile import ModelError
@@ -76,10 +74,8 @@ def shape_key(joint: Joint, mesh: Mesh) -> tuple[object, ...]:
 def assembly_operator(lay: Layout) -> sp.csr_matrix:
     """The linear map from element and spring stiffnesses to the assembled system.
 
-    The source vector of one joint is the concatenation of ``(kel + kbb)`` (S·ne×4×4),
-    ``kbu`` (S·ne×4), ``kuu`` (S·ne) and the spring stiffnesses; the destination
-    is the concatenation of ``ab`` ((bw+1)×na), ``B`` (na×nm) and ``C`` (nm×nm),
-    each flattened in C order. It mirrors :func:`plyshear.mechanics.assembly.scatter`.
+    See :func:`plyshear.mechanics.assembly.scatter_indices` for the source and
+    destination vectors.
 
     Args:
         lay: The shared numbering.
@@ -87,66 +83,8 @@ def assembly_operator(lay: Layout) -> sp.csr_matrix:
     Returns:
         A sparse matrix of shape (destination size, source size).
     """
-    bw, na, nm = lay.bw, lay.na, lay.nm
-    edofs, kind, idx = lay.edofs, lay.tgt_kind, lay.tgt_idx
-    ne = edofs.shape[0]
-    n_ab, n_b = (bw + 1) * na, na * nm
-    off_kbu, off_kuu, off_sp = 16 * ne, 20 * ne, 21 * ne
-    e = np.arange(ne)
-    dest: list[np.ndarray] = []
-    src: list[np.ndarray] = []
-    sign: list[np.ndarray] = []
-
-    def add(d: np.ndarray, s: np.ndarray, v: float = 1.0) -> None:
-        dest.append(np.asarray(d, dtype=np.int64))
-        src.append(np.asarray(s, dtype=np.int64))
-        sign.append(np.full(np.size(d), v))
-
-    def ab_at(r: np.ndarray, c: np.ndarray) -> np.ndarray:
-        return (bw + r - c) * na + c
-
-    for a in range(4):
-        for b in range(4):
-            rows, cols = edofs[:, a], edofs[:, b]
-            ok = (rows >= 0) & (cols >= 0) & (rows <= cols)
-            add(ab_at(rows[ok], cols[ok]), e[ok] * 16 + a * 4 + b)
-    for a in range(4):
-        bdof = edofs[:, a]
-        own_e = (kind == "a") & (bdof >= 0)
-        r = np.minimum(bdof[own_e], idx[own_e])
-        c = np.maximum(bdof[own_e], idx[own_e])
-        add(ab_at(r, c), off_kbu + e[own_e] * 4 + a)
-        mem_e = (kind == "m") & (bdof >= 0)
-        add(n_ab + bdof[mem_e] * nm + idx[mem_e], off_kbu + e[mem_e] * 4 + a)
-    own_e = kind == "a"
-    add(ab_at(idx[own_e], idx[own_e]), off_kuu + e[own_e])
-    mem_e = kind == "m"
-    add(n_ab + n_b + idx[mem_e] * nm + idx[mem_e], off_kuu + e[mem_e])
-    for s, spring in enumerate(lay.springs):
-        _spring_entries(spring, off_sp + s, add, ab_at, n_ab, n_b, nm)
-    shape = (n_ab + n_b + nm * nm, off_sp + len(lay.springs))
-    d, s_, v = np.concatenate(dest), np.concatenate(src), np.concatenate(sign)
-    return sp.csr_matrix((v, (d, s_)), shape=shape)
-
-
-def _spring_entries(spring: Spring, source: int, add, ab_at, n_ab: int, n_b: int,
-                    nm: int) -> None:
-    """Record one spring's entries (as :func:`plyshear.mechanics.assembly._add_spring`)."""
-    one = np.array([source])
-    ends = [e for e in (spring.a, spring.b) if e[0] != "0"]
-    for kind, i in ends:
-        add(ab_at(np.array([i]), np.array([i])) if kind == "a"
-            else np.array([n_ab + n_b + i * nm + i]), one)
-    if len(ends) == 2:
-        (ka, ia), (kb, ib) = ends
-        if ka == "a" and kb == "a":
-            add(ab_at(np.array([min(ia, ib)]), np.array([max(ia, ib)])), one, -1.0)
-        elif ka == "m" and kb == "m":
-            add(np.array([n_ab + n_b + ia * nm + ib, n_ab + n_b + ib * nm + ia]),
-                np.array([source, source]), -1.0)
-        else:
-            a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
-            add(np.array([n_ab + a_i * nm + m_i]), one, -1.0)
+    dest, src, sign, shape = scatter_indices(lay)
+    return sp.csr_matrix((sign, (dest, src)), shape=shape)
 
 
 def solve_many(joints: Sequence[Joint]) -> list[Outcome]:
@@ -190,8 +128,8 @@ def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     with np.errstate(all="ignore"):
         try:
             return _solve_batched(joints, meshes)
-        except (SolveError, np.linalg.LinAlgError):
-            pass
+        except SolveError:
+            pass  # one or more singular: solve one by one, for each one's own error
     outcomes: list[Outcome] = []
     for joint in joints:
         try:
@@ -234,7 +172,7 @@ def _solve_batched(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     ab = dest[:, :(bw + 1) * na].reshape(n, bw + 1, na)
     B = dest[:, (bw + 1) * na:(bw + 1) * na + na * nm].reshape(n, na, nm)
     C = dest[:, (bw + 1) * na + na * nm:].reshape(n, nm, nm)
-    x, y, kappa = _solve_stacked(ab, B, C, loads)
+    x, y, kappa = solve_stacked(ab, B, C, loads)
     finite = np.isfinite(x).reshape(n, -1).all(axis=1) & np.isfinite(y).reshape(n, -1).all(axis=1)
     ok = np.nonzero(finite)[0]
     batch = Batch(
@@ -247,51 +185,3 @@ def _solve_batched(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     return [next(solved) if finite[i] else
             SolveError("the solution is not finite: check the magnitudes of the inputs")
             for i in range(n)]
-
-
-def _solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray
-                   ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Solve n bordered banded systems at once.
-
-    Args:
-        ab: Upper banded blocks, shape (n, bw + 1, na).
-        B: Borders, shape (n, na, nm).
-        C: Corners, shape (n, nm, nm).
-        loads: Member loads, shape (n, nm, 2).
-
-    Returns:
-        ``(x, y, kappa)``: shapes (n, na, 2), (n, nm, 2) and (n,).
-
-    Raises:
-        numpy.linalg.LinAlgError: If any system is not positive definite.
-    """
-    n, u1, na = ab.shape
-    nm = C.shape[-1]
-    big = np.ascontiguousarray(ab.transpose(1, 0, 2).reshape(u1, n * na))
-    cb = cholesky_banded(big, lower=False, check_finite=False)
-
-    def a_solve(rhs: np.ndarray) -> np.ndarray:
-        """Solve every block for its own right-hand sides, (n, na, k) → (n, na, k)."""
-        k = rhs.shape[2]
-        return cho_solve_banded((cb, False), rhs.reshape(n * na, k),
-                                check_finite=False).reshape(n, na, k)
-
-    XB = a_solve(B) if nm else np.zeros((n, na, 0))
-    S = C - np.einsum("nai,naj->nij", B, XB)
-    if nm:
-        np.linalg.cholesky(S)  # raises LinAlgError where a member system is singular
-
-    def apply(rhs: np.ndarray) -> np.ndarray:
-        """Solve the whole systems for right-hand sides (n, na + nm)."""
-        xa = a_solve(rhs[:, :na, None])
-        if not nm:
-            return xa[:, :, 0]
-        ym = np.linalg.solve(S, rhs[:, na:, None] - np.einsum("nai,nak->nik", B, xa))
-        return np.concatenate([xa - XB @ ym, ym], axis=1)[:, :, 0]
-
-    kappa = scaled_condition(ab, B, C, apply)
-    if not nm:
-        return np.zeros((n, na, 2)), np.zeros((n, 0, 2)), kappa
-    y = np.linalg.solve(S, loads)
-    x = -XB @ y
-    return x, y, kappa

@@ -117,6 +117,7 @@ def foundation(k: np.ndarray, phi: np.ndarray, L: np.ndarray) -> tuple[np.ndarra
     """
     n = shape_w(GAUSS_XI, phi, L)  # (e, g, 4)
     wk = (GAUSS_W[None, :] * (k * L)[:, None])  # (e, g)
-    kbb = np.einsum("eg,egi,egj->eij", wk, n, n)
-    kbu = -np.einsum("eg,egi->ei", wk, n)
+    wn = n * wk[:, :, None]  # (e, g, 4)
+    kbb = np.swapaxes(wn, 1, 2) @ n  # Σ_g w_g k L N_gᵀ N_g
+    kbu = -wn.sum(axis=1)
     return kbb, kbu

@@ -41,12 +41,27 @@ def load_path_graph(joint: Joint) -> nx.Graph:
 
 
 def unreachable_members(joint: Joint) -> list[str]:
-    """Return the names of members that no load path connects to a support."""
+    """Return the names of members that no load path connects to a support.
+
+    The graph of :func:`load_path_graph` has one hub, the bolt, so its
+    connectivity has a closed form (checked against networkx's components in
+    the tests): a supported member reaches the bolt if one of its plies bears,
+    and through the bolt every member with a bearing ply.
+    """
+    bears = {p.member for p in joint.plies
+             if p.member is not None and bearing.modulus(joint.analysis.bearing, joint.bolt, p) > 0}
+    held = {m.name for m in joint.members if m.support}
+    reached = held | bears if held & bears else held
+    return [m.name for m in joint.members if m.name not in reached]
+
+
+def unreachable_members_by_graph(joint: Joint) -> list[str]:
+    """:func:`unreachable_members` by the connected components of the networkx graph."""
     g = load_path_graph(joint)
-    held = [("member", m.name) for m in joint.members if m.support]
     reached: set[tuple[str, object]] = set()
-    for node in held:
-        reached |= nx.node_connected_component(g, node)
+    for m in joint.members:
+        if m.support:
+            reached |= nx.node_connected_component(g, ("member", m.name))
     return [m.name for m in joint.members if ("member", m.name) not in reached]
 
 

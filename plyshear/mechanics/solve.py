@@ -8,7 +8,7 @@ their Schur complement. x and y share the factorisation (two right-hand sides).
 from __future__ import annotations
 
 import numpy as np
-from scipy.linalg import cho_factor, cho_solve, cho_solve_banded, cholesky_banded
+from scipy.linalg import lapack
 
 from plyshear.mechanics.assembly import System, assemble
 from plyshear.mechanics.conditioning import scaled_condition
@@ -89,40 +89,86 @@ def recover_one(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,
 
 
 def _solve_system(sys: System) -> tuple[np.ndarray, np.ndarray, float]:
-    """Solve for the member loads.
+    """Solve one system for its member loads: ``(x, y, kappa)`` (see :func:`solve_stacked`)."""
+    x, y, kappa = solve_stacked(sys.ab[None], sys.B[None], sys.C[None], sys.loads[None])
+    return x[0], y[0], float(kappa[0])
+
+
+def band_factor(ab: np.ndarray) -> np.ndarray:
+    """Cholesky factor of a symmetric positive definite matrix in upper banded storage.
+
+    LAPACK's ``dpbtrf`` called directly: for the small systems of a bolt the
+    checks of :func:`scipy.linalg.cholesky_banded` cost more than the factorisation.
+
+    Raises:
+        SolveError: If the matrix is not positive definite.
+    """
+    c, info = lapack.dpbtrf(ab, lower=0)
+    if info != 0:
+        raise SolveError(f"the bolt stiffness matrix is singular (leading minor {info} "
+                         "is not positive definite)")
+    return c
+
+
+def band_solve(c: np.ndarray, rhs: np.ndarray) -> np.ndarray:
+    """Solve with the factor of :func:`band_factor` (LAPACK's ``dpbtrs``); rhs (n, k)."""
+    x, _ = lapack.dpbtrs(c, rhs, lower=0)
+    return x
+
+
+def solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray
+                  ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Solve n bordered banded systems ``[[A, B], [Bᵀ, C]]`` at once.
+
+    The blocks ``A`` laid side by side form one banded matrix of the same
+    bandwidth (the entries that would couple neighbours lie in the unused corner
+    of each block's storage and are zero), factorised by one LAPACK call; the
+    free members' unknowns are solved from their Schur complements
+    ``S = C − Bᵀ A⁻¹ B``.
+
+    Args:
+        ab: Upper banded blocks, shape (n, bw + 1, na).
+        B: Borders, shape (n, na, nm).
+        C: Corners, shape (n, nm, nm).
+        loads: Member loads, shape (n, nm, 2).
 
     Returns:
-        The A-block and member displacements, each with two columns (x, y), and
-        the scaled condition estimate of the whole system.
+        ``(x, y, kappa)``: shapes (n, na, 2), (n, nm, 2), and the scaled condition
+        estimate of every system, (n,).
+
+    Raises:
+        SolveError: If any system is singular.
     """
-    try:
-        cb = cholesky_banded(sys.ab, lower=False, check_finite=False)
-    except np.linalg.LinAlgError as exc:
-        raise SolveError(f"the bolt stiffness matrix is singular ({exc})") from None
-    nm = sys.C.shape[0]
-    XB = cho_solve_banded((cb, False), sys.B, check_finite=False)
-    S = sys.C - sys.B.T @ XB
-    try:
-        cf = cho_factor(S, check_finite=False) if nm else None
-    except np.linalg.LinAlgError as exc:
-        raise SolveError(f"the member system is singular ({exc})") from None
-    na = sys.ab.shape[1]
+    n, u1, na = ab.shape
+    nm = C.shape[-1]
+    cb = band_factor(np.ascontiguousarray(ab.transpose(1, 0, 2).reshape(u1, n * na)))
+
+    def a_solve(rhs: np.ndarray) -> np.ndarray:
+        """Solve every block for its own right-hand sides, (n, na, k) → (n, na, k)."""
+        k = rhs.shape[2]
+        return band_solve(cb, rhs.reshape(n * na, k)).reshape(n, na, k)
+
+    XB = a_solve(B) if nm else np.zeros((n, na, 0))
+    S = C - np.swapaxes(B, 1, 2) @ XB
+    if nm:
+        try:
+            np.linalg.cholesky(S)
+        except np.linalg.LinAlgError as exc:
+            raise SolveError(f"the member system is singular ({exc})") from None
 
     def apply(rhs: np.ndarray) -> np.ndarray:
-        """Solve the whole system for right-hand sides (k, na + nm)."""
-        r_a, r_m = rhs[:, :na].T, rhs[:, na:].T
-        xa = cho_solve_banded((cb, False), r_a, check_finite=False)
-        if cf is None:
-            return xa.T
-        ym = cho_solve(cf, r_m - sys.B.T @ xa, check_finite=False)
-        return np.concatenate([xa - XB @ ym, ym]).T
+        """Solve the whole systems for right-hand sides (n, na + nm)."""
+        xa = a_solve(rhs[:, :na, None])
+        if not nm:
+            return xa[:, :, 0]
+        ym = np.linalg.solve(S, rhs[:, na:, None] - np.swapaxes(B, 1, 2) @ xa)
+        return np.concatenate([xa - XB @ ym, ym], axis=1)[:, :, 0]
 
-    kappa = float(scaled_condition(sys.ab[None], sys.B[None], sys.C[None], apply)[0])
-    if cf is None:
-        return np.zeros((na, 2)), np.zeros((0, 2)), kappa
-    y = cho_solve(cf, sys.loads, check_finite=False)
-    x = -XB @ y
-    return x, y, kappa
+    kappa = scaled_condition(ab, B, C, apply)
+    if not nm:
+        return np.zeros((n, na, 2)), np.zeros((n, 0, 2)), kappa
+    y = np.linalg.solve(S, loads)
+    return -XB @ y, y, kappa
 
 
 def system_unbalance(ab: np.ndarray, B: np.ndarray, C: np.ndarray, x: np.ndarray,

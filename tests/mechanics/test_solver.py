@@ -210,3 +210,33 @@ def test_free_end_has_zero_shear_and_moment() -> None:
     for node in (0, -1):
         assert b.V[node] == pytest.approx((0.0, 0.0), abs=REL_ROUNDOFF * load)
         assert b.M[node] == pytest.approx((0.0, 0.0), abs=REL_ROUNDOFF * load * 40)
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.lists(st.tuples(st.sampled_from(["a", "b", "c", None]), st.booleans()),
+                min_size=2, max_size=8),
+       st.sets(st.sampled_from(["a", "b", "c"]), max_size=3))
+def test_load_path_closed_form_agrees_with_the_networkx_graph(plies, held) -> None:
+    import dataclasses
+
+    from plyshear.mechanics import bearing, loadpath
+    from plyshear.model.joint import Member
+
+    base = modelfile.loads(FORK)
+    used = sorted({m for m, _ in plies if m is not None})
+    joint = dataclasses.replace(
+        base,
+        plies=tuple(dataclasses.replace(base.plies[0], name=f"p{i}", member=m,
+                                        foundation_modulus=1e4 if bears else None)
+                    for i, (m, bears) in enumerate(plies)),
+        members=tuple(Member(name=m, support=m in held) for m in used))
+    zero_unless_set = {"component": lambda bolt, ply: ply.foundation_modulus or 0.0}
+    original = dict(bearing.LAWS)
+    bearing.LAWS.update(zero_unless_set)
+    try:
+        # networkx connected components of the bolt–ply–member graph
+        assert loadpath.unreachable_members(joint) == \
+            loadpath.unreachable_members_by_graph(joint)
+    finally:
+        bearing.LAWS.clear()
+        bearing.LAWS.update(original)
