@@ -407,7 +407,8 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
     except sk.SweepError as exc:
         fail(f"{model}: sweep: {exc}")
     key_texts = [k.text for k in keys]
-    chart = _sweep_chart(model, target, response, x_key, series, key_texts, capacity)
+    chart = _sweep_chart(model, target, response, x_key, series, keys, cases, capacity,
+                         no_check, len(joint.plies) - 1)
     options = sr.Options(capacity=capacity, check=not no_check)
     cols = sr.columns(keys, len(joint.plies) - 1, options)
     show = not quiet and len(cases) > sr.CHUNK
@@ -432,32 +433,46 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
 
         x, ser, fixed = chart
         fixed_at = {k: cases[0][key_texts.index(k)] for k in fixed}
-        fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units, joint.title)
+        fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units,
+                           f"variants of {Path(model).name}")
         _write_figure(fig, target, force)
+    if rows and all(r.get("error") for r in rows):
+        sys.exit(1)  # nothing could be solved: say so to scripts too
 
 
 def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
-                 series: str | None, keys: list[str], capacity: str
-                 ) -> tuple[str, str | None, list[str]] | None:
+                 series: str | None, keys: list[Any], cases: list[list[Any]], capacity: str,
+                 no_check: bool, planes: int) -> tuple[str, str | None, list[str]] | None:
     """Check the chart's options before the long part; return (x, series, other keys)."""
     if target is None:
         return None
     from plyshear.report.sweepplot import response_dimension
 
+    where = f"{model}: sweep: --response {response}"
     if response_dimension(response) is None:
         fail(f"{model}: sweep: --response {response!r} cannot be plotted; use utilization, "
-             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_plastic "
-             "or shear_plane_N")
-    if response.startswith("capacity_") and capacity == "none" or \
-            response in ("capacity_nonlinear", "capacity_plastic") and capacity != "full":
-        fail(f"{model}: sweep: --response {response} needs --capacity "
-             f"{'full' if response != 'capacity_elastic' else 'elastic'}")
+             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_plastic, "
+             "efficiency_nonlinear or shear_plane_N")
+    if response == "utilization" and no_check:
+        fail(f"{where} needs the check (drop --no-check)")
+    if response == "capacity_elastic" and capacity == "none":
+        fail(f"{where} needs --capacity elastic or full")
+    if response in ("capacity_nonlinear", "capacity_plastic", "efficiency_nonlinear") and \
+            capacity != "full":
+        fail(f"{where} needs --capacity full")
+    if response.startswith("shear_plane_") and not 1 <= int(response[12:]) <= planes:
+        fail(f"{where}: the model has planes 1 to {planes}")
+    texts = [k.text for k in keys]
     for name, k in (("--x", x_key), ("--series", series)):
-        if k is not None and k not in keys:
-            fail(f"{model}: sweep: {name} {k!r} is not a varied key ({', '.join(keys)})")
-    x = x_key or keys[0]
-    rest = [k for k in keys if k != x]
-    ser = series or (rest[0] if rest else None)
+        if k is not None and k not in texts:
+            fail(f"{model}: sweep: {name} {k!r} is not a varied key ({', '.join(texts)})")
+    x = x_key or texts[0]
+    rest = [k for k in texts if k != x]
+    ser = series if series is not None and series != x else (rest[0] if rest else None)
+    for k in (x, ser):
+        if k is not None and any(isinstance(c[texts.index(k)], list | dict) for c in cases):
+            fail(f"{model}: sweep: {k} has array values; plot against another key (--x, "
+                 "--series)")
     return x, ser, [k for k in rest if k != ser]
 
 

@@ -51,6 +51,9 @@ from plyshear.model.modelfile import ModelError
 #: Joints assembled in one product: bounds the dense source block
 #: (about 21 doubles per element and joint: 1000 joints of 100 elements ≈ 17 MB).
 CHUNK = 1000
+#: Doubles a batch may hold in its stacked systems (the single solve's own limit,
+#: MAX_BAND_ENTRIES, is per joint): larger groups are cut into smaller batches.
+BATCH_ENTRIES = 20_000_000
 
 Outcome = Solution | ModelError | SolveError
 
@@ -127,9 +130,15 @@ def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     """Solve joints of one shape together."""
     with np.errstate(all="ignore"):
         try:
-            return _solve_batched(joints, meshes)
-        except SolveError:
-            pass  # one or more singular: solve one by one, for each one's own error
+            lay0 = layout(joints[0], meshes[0])
+            per_joint = (lay0.bw + 1) * lay0.na + lay0.na * lay0.nm + 22 * lay0.edofs.shape[0]
+            step = max(1, BATCH_ENTRIES // per_joint)
+            out: list[Outcome] = []
+            for i in range(0, len(joints), step):
+                out += _solve_batched(joints[i:i + step], meshes[i:i + step], lay0)
+            return out
+        except (SolveError, ModelError):
+            pass  # singular, or too large: one by one, each with its own error
     outcomes: list[Outcome] = []
     for joint in joints:
         try:
@@ -139,9 +148,8 @@ def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
     return outcomes
 
 
-def _solve_batched(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
+def _solve_batched(joints: list[Joint], meshes: list[Mesh], lay0: Layout) -> list[Outcome]:
     n = len(joints)
-    lay0 = layout(joints[0], meshes[0])
     ns, ne = len(lay0.stations), lay0.ne
     # Per joint: the numbers that differ.
     EI = np.empty((n, ne))

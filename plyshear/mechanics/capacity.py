@@ -574,7 +574,13 @@ def elastic_capacity(joint: Joint, sol: Solution, lim: Limits | None = None,
     if q_max is None:
         q_max = bearing_strengths(joint)
     axis = joint.load_axis()
-    scale = sum(abs(float(np.dot(m.load, axis))) for m in joint.members if not m.support)
+    loads = np.array([m.load for m in joint.members if not m.support]).reshape(-1, 2)
+    along = loads @ axis
+    across = loads @ np.array([-axis[1], axis[0]])
+    if np.abs(across).max(initial=0.0) > 1e-9 * np.abs(along).max(initial=1.0):
+        raise CapacityError("the member loads are not collinear; the capacity scales one "
+                            "load direction")
+    scale = float(np.abs(along).sum())
     many = len(sol.bolts) > 1
     cands: list[tuple[float, str, str, float | None]] = []
     for b, bolt in enumerate(sol.bolts):

@@ -46,7 +46,7 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
         fixed: Values of the other varied keys at which the chart is drawn.
         response: The plotted column.
         units: The model's unit system.
-        title: The model's title.
+        title: A title (the model the variants come from).
 
     Returns:
         The figure.
@@ -73,7 +73,7 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
             grid[groups.index(r[series]), xs.index(r[x])] = r[response]
         mesh = ax.pcolormesh(xs, groups, grid, shading="nearest", cmap="viridis")
         fig.colorbar(mesh, ax=ax, label=label)
-        ax.set_ylabel(series)
+        ax.set_ylabel(key_label(series, units))
     else:
         for n, g in enumerate(groups):
             pts = sorted((pos[r[x]], r[response]) for r in keep
@@ -89,7 +89,7 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
             ax.legend(fontsize=7, frameon=False)
     if not numeric:
         ax.set_xticks(list(pos.values()), [str(v) for v in xs])
-    ax.set_xlabel(x)
+    ax.set_xlabel(key_label(x, units))
     _style(ax)
     at = ", ".join(f"{k} = {v}" for k, v in fixed.items())
     head = " — ".join(t for t in (title, f"at {at}" if at else "") if t)
@@ -98,12 +98,32 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
     return fig
 
 
+#: The dimension of the values of a key, by its last part (for the axis label).
+KEY_DIMENSIONS = {"diameter": "length", "length": "length", "thread_length": "length",
+                  "thickness": "length", "gap": "length", "edge": "length", "width": "length",
+                  "pitch": "length", "hole_offset": "length", "hole_clearance": "length",
+                  "joint_length": "length", "load": "force", "pretension": "force",
+                  "tension": "force", "fy": "stress", "fu": "stress", "E": "stress",
+                  "foundation_modulus": "stress", "link_stiffness": "stiffness"}
+
+
+def key_label(key: str, units: str) -> str:
+    """The axis label of a varied key, with its unit where the key has one."""
+    dim = KEY_DIMENSIONS.get(key.rsplit(".", 1)[-1])
+    return key if dim is None else f"{key} [{_units.system(units).label(dim)}]"
+
+
 def _distinct(values: Any) -> list[Any]:
+    """The distinct values in natural order: numbers by value, names like 8.8 and 10.9 too."""
     out: list[Any] = []
     for v in values:
         if v not in out:
             out.append(v)
-    try:
-        return sorted(out)
-    except TypeError:
-        return out
+
+    def order(v: Any) -> tuple[int, float, str]:
+        try:
+            return (0, float(v), "")
+        except (TypeError, ValueError):
+            return (1, 0.0, str(v))
+
+    return sorted(out, key=order)

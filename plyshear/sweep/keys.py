@@ -53,8 +53,12 @@ NAME_KEYS = frozenset({"grade", "steel", "threads", "ends", "hole", "bearing", "
                        "clearance", "standard", "method", "connector", "slip_class",
                        "fillers", "enters", "member"})
 
-_PLY_INDEX = re.compile(r"^ply\[(\d+)\]$")
-_NUMBER = re.compile(r"^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$")
+_PLY_INDEX = re.compile(r"^ply\[([0-9]{1,9})\]$")
+_NUMBER = re.compile(r"^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$")
+_INTEGER = re.compile(r"^[+-]?[0-9]+$")
+#: Integers with more digits than this are read as numbers (floats), as the model's
+#: loader would refuse them anyway, and Python limits conversions of huge integers.
+MAX_INT_DIGITS = 18
 
 
 class SweepError(ValueError):
@@ -151,13 +155,15 @@ def parse_value(token: str, key: Key | None = None) -> Any:
         return t[1:-1]
     if key is not None and key.path[-1] in NAME_KEYS:
         return t
-    if t.startswith("[") and t.endswith("]"):
+    if t.startswith("[") or t.endswith("]"):
+        if not (t.startswith("[") and t.endswith("]")) or t.count("[") != t.count("]"):
+            raise SweepError(f"{key.text if key else 'value'}: unbalanced brackets in {t!r}")
         inner = t[1:-1].strip()
         return [parse_value(x) for x in _split(inner)] if inner else []
     if t in ("true", "false"):
         return t == "true"
     if _NUMBER.match(t):
-        if re.fullmatch(r"[+-]?\d+", t):
+        if _INTEGER.match(t) and len(t.lstrip("+-")) <= MAX_INT_DIGITS:
             return int(t)
         return float(t)
     return t
@@ -214,11 +220,14 @@ def _range(key: str, text: str) -> list[float | int]:
         raise SweepError(f"{key}: the range {text!r} is not finite")
     if step == 0 or (stop - start) * step < 0:
         raise SweepError(f"{key}: the step {step:g} never gets from {start:g} to {stop:g}")
-    count = int(math.floor((stop - start) / step + RANGE_TOL)) + 1
+    steps = (stop - start) / step
+    if not math.isfinite(steps) or steps >= MAX_CASES:
+        raise SweepError(f"{key}: the range {text!r} has more than {MAX_CASES} values")
+    count = int(math.floor(steps + RANGE_TOL)) + 1
     if count > MAX_CASES:
         raise SweepError(f"{key}: the range {text!r} has {count} values "
                          f"(at most {MAX_CASES})")
-    integral = all(re.fullmatch(r"[+-]?\d+", p.strip()) for p in parts)
+    integral = all(_INTEGER.match(p.strip()) for p in parts)
     values = [start + i * step for i in range(count)]
     return [int(round(v)) for v in values] if integral else \
         [float(f"{v:.12g}") for v in values]  # 0.1 steps print as 0.3, not 0.30000000000000004
@@ -246,25 +255,30 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
     name = str(path)
     try:
         with open(path, newline="", encoding="utf-8-sig") as fh:
-            rows = list(csv.reader(fh))
+            reader = csv.reader(fh)
+            rows = [(reader.line_num, r) for r in reader if r]  # [] is a blank line
     except OSError as exc:
         raise SweepError(f"{name}: cannot read the file ({exc.strerror or exc})") from None
-    except (UnicodeDecodeError, csv.Error) as exc:
-        raise SweepError(f"{name}: not a UTF-8 CSV file ({exc})") from None
-    rows = [r for r in rows if any(c.strip() for c in r)]
+    except UnicodeDecodeError as exc:
+        raise SweepError(f"{name}: not UTF-8 text ({exc.reason} at byte {exc.start})") from None
+    except csv.Error as exc:
+        raise SweepError(f"{name}: not a readable CSV file ({exc})") from None
     if not rows:
         raise SweepError(f"{name}: empty; the first row names the keys")
     try:
-        keys = [parse_key(h, data) for h in rows[0]]
+        keys = [parse_key(h.strip(), data) for h in rows[0][1]]
     except SweepError as exc:
         raise SweepError(f"{name}: header: {exc}") from None
     _no_repeats(keys, name)
     cases = []
-    for n, row in enumerate(rows[1:], start=2):
+    for line, row in rows[1:]:
         if len(row) != len(keys):
-            raise SweepError(f"{name}: row {n}: {len(row)} cells for {len(keys)} keys")
-        cases.append([parse_value(c, k) if c.strip() else None
-                      for c, k in zip(row, keys, strict=True)])
+            raise SweepError(f"{name}: line {line}: {len(row)} cells for {len(keys)} keys")
+        try:
+            cases.append([parse_value(c, k) if c.strip() else None
+                          for c, k in zip(row, keys, strict=True)])
+        except SweepError as exc:
+            raise SweepError(f"{name}: line {line}: {exc}") from None
     if not cases:
         raise SweepError(f"{name}: no cases below the header")
     if len(cases) > MAX_CASES:

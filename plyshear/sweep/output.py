@@ -13,7 +13,8 @@ from plyshear import units as _units
 
 #: Columns shown on the terminal (the files carry them all).
 TERMINAL = ("case", "error", "max_shear", "worst_plane", "max_moment", "utilization",
-            "passes", "capacity_elastic", "capacity_nonlinear", "capacity_plastic")
+            "passes", "informative", "capacity_elastic", "load_factor", "capacity_nonlinear",
+            "capacity_plastic")
 #: Rows printed on the terminal before the rest is summarised.
 TERMINAL_ROWS = 40
 
@@ -41,15 +42,25 @@ def _cell(value: Any) -> str:
 
 
 def to_jsonl(rows: Sequence[dict[str, Any]], cols: Sequence[str]) -> str:
-    """The table as JSON lines: one object per case with every column (null where absent)."""
-    return "".join(json.dumps({c: r.get(c) for c in cols}) + "\n" for r in rows)
+    """The table as JSON lines: one object per case, every column (null: absent or not finite)."""
+    return "".join(json.dumps({c: _json(r.get(c)) for c in cols}, allow_nan=False) + "\n"
+                   for r in rows)
+
+
+def _json(value: Any) -> Any:
+    if isinstance(value, float) and not math.isfinite(value):
+        return None
+    if isinstance(value, list):
+        return [_json(v) for v in value]
+    return value
 
 
 def units_line(units: str) -> str:
     """Which units the numbers of the table are in."""
     u = _units.system(units)
     return (f"units: forces in {u.label('force')}, moments in {u.label('moment')}, "
-            f"lengths in {u.label('length')}; utilization and efficiency are ratios")
+            f"lengths in {u.label('length')}; utilization, load factor and efficiency are "
+            "ratios; capacities use nominal strengths (as plyshear capacity)")
 
 
 def text(rows: Sequence[dict[str, Any]], cols: Sequence[str], keys: Sequence[str],
@@ -60,7 +71,7 @@ def text(rows: Sequence[dict[str, Any]], cols: Sequence[str], keys: Sequence[str
     shown = [c for c in cols if c in keys or c in TERMINAL]
     if not any(r.get("error") for r in rows):
         shown.remove("error")
-    body = [[_short(r.get(c), fmt) for c in shown] for r in rows[:TERMINAL_ROWS]]
+    body = [[_short(r.get(c), fmt, c in keys) for c in shown] for r in rows[:TERMINAL_ROWS]]
     out = [table(shown, body)]
     if len(rows) > TERMINAL_ROWS:
         out.append(f"... {len(rows) - TERMINAL_ROWS} more cases (write them all with -o)")
@@ -69,10 +80,12 @@ def text(rows: Sequence[dict[str, Any]], cols: Sequence[str], keys: Sequence[str
     return "\n".join(out)
 
 
-def _short(value: Any, fmt: Any) -> str:
+def _short(value: Any, fmt: Any, raw: bool = False) -> str:
     if value is None:
         return ""
     if isinstance(value, bool):
+        if raw:  # a varied key's value, as written
+            return "true" if value else "false"
         return "yes" if value else "NO"
     if isinstance(value, float):
         return fmt(value)
@@ -91,4 +104,8 @@ def summary(rows: Sequence[dict[str, Any]]) -> str:
         hi = max(checked, key=lambda r: r["utilization"])
         line += (f"; {passing} pass; utilization from {lo['utilization']:.3f} "
                  f"(case {lo['case']}) to {hi['utilization']:.3f} (case {hi['case']})")
+    over = sum(1 for r in rows if (r.get("informative") or 0.0) > 1.0)
+    if over:
+        line += (f"\nwarning: {over} case(s) exceed 1.0 on an informative item (bolt bending, "
+                 "outside the standard's bolt clauses): see the 'informative' column")
     return line

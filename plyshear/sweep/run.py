@@ -30,7 +30,7 @@ CHUNK = 250
 CAPACITY_MODES = ("none", "elastic", "full")
 #: Columns of every row, before the plane shears (see :func:`columns`).
 BASE_COLUMNS = ("case", "error", "max_shear", "worst_plane", "max_moment", "utilization",
-                "governing", "passes")
+                "governing", "passes", "informative")
 
 
 @dataclass(frozen=True)
@@ -39,7 +39,8 @@ class Options:
 
     Attributes:
         capacity: ``"none"``; ``"elastic"``: the linear solution scaled to its
-            first failure event (cheap); ``"full"``: also the nonlinear and the
+            first failure event (cheap; nominal strengths, as ``plyshear capacity``);
+            ``"full"``: also the nonlinear and the
             plastic capacity (an incremental analysis per case, about 0.1 s).
         check: Check every case against the model's standard.
         batch: Solve same-shaped cases together (the batch path); False solves
@@ -59,10 +60,11 @@ def columns(keys: Sequence[Key], planes: int, options: Options) -> list[str]:
     """The column titles of the result table, in order."""
     cols = ["case", *(k.text for k in keys), *BASE_COLUMNS[1:]]
     if not options.check:
-        cols = [c for c in cols if c not in ("utilization", "governing", "passes")]
+        cols = [c for c in cols if c not in ("utilization", "governing", "passes",
+                                             "informative")]
     cols += [f"shear_plane_{i}" for i in range(1, planes + 1)]
     if options.capacity != "none":
-        cols += ["capacity_elastic", "capacity_event"]
+        cols += ["capacity_elastic", "load_factor", "capacity_event"]
     if options.capacity == "full":
         cols += ["capacity_nonlinear", "nonlinear_event", "capacity_plastic",
                  "efficiency_nonlinear"]
@@ -156,6 +158,9 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
                 out["utilization"] = _finite(gov.utilization)
                 out["governing"] = f"{gov.what}, {gov.place(joint.units)}"
             out["passes"] = res.passes
+            # items outside the standard's text (a bolt's bending): shown, never deciding
+            info = [i.utilization for i in res.items if i.informative]
+            out["informative"] = _finite(max(info)) if info else None
     if options.capacity != "none":
         try:
             el = elastic_capacity(joint, sol)
@@ -163,6 +168,8 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             out["capacity_event"] = str(exc)
         else:
             out["capacity_elastic"] = el.load / f
+            applied = _applied(joint)
+            out["load_factor"] = el.load / applied if applied > 0 else None
             out["capacity_event"] = f"{el.event}, {el.where}"
     if options.capacity == "full":
         from plyshear.mechanics.capacity import summarize
@@ -177,6 +184,11 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             out["capacity_plastic"] = s.plastic.load / f
             out["efficiency_nonlinear"] = _finite(s.efficiency(s.nonlinear.load))
     return out
+
+
+def _applied(joint: Any) -> float:
+    """The magnitude of the model's load pattern, N (Σ|P| of the loaded members)."""
+    return float(sum(math.hypot(*m.load) for m in joint.members if not m.support))
 
 
 def _finite(value: float) -> float | None:

@@ -28,9 +28,9 @@ from tests.conftest import FORK, MODELS
 #: Hager–Higham: a lower bound, within a factor of 3 in practice (Higham 1988, section 4).
 ESTIMATE_FACTOR = 3.0
 REL_ROUNDOFF = 1e-9  # statics: round-off of the load only
-#: Equilibrium of a flagged solve: the bearing forces are balanced on the supports
-#: exactly, so only the member rows carry κ·ε-sized round-off.
-REL_FLAGGED = 1e-6
+#: A flagged solve (κ ≈ 1.6e12) keeps about κ·ε ≈ 4e-4 of relative round-off in the
+#: worst case; measured 1e-7 on the symmetric plane shears.
+REL_FLAGGED = 1e-5
 
 
 def _dense(sys) -> np.ndarray:
@@ -93,11 +93,11 @@ def test_hostile_but_sound_stacks_solve_to_round_off(name: str) -> None:
     assert sol.condition < COND_WARN
     assert not any(w.startswith("ill-conditioned:") for w in sol.warnings)
     assert sol.equilibrium_residual < REL_ROUNDOFF
-    # statics of the symmetric fork: the lug pushes 100 kN, each plane carries half
-    # or the whole of it; the bearings of the fork legs add up to the load
-    legs = [pb.force_xy[0] for pb in sol.bolts[0].plies
-            if sol.joint.plies[pb.ply].member == "fork"]
-    assert sum(legs) == pytest.approx(100e3, rel=REL_ROUNDOFF)  # statics: ΣF = 0
+    # symmetry and statics: the fork is symmetric about the lug's mid-plane, so each of
+    # its two planes carries half of the lug's 100 kN (this is what ill-conditioning
+    # would spoil; the bearing balance on the supports alone cannot enforce it)
+    for plane in sol.planes:
+        assert abs(plane.shear_xy[0]) == pytest.approx(50e3, rel=REL_ROUNDOFF)
 
 
 def test_rigid_bolt_on_no_bearing_is_flagged_and_still_in_equilibrium() -> None:
@@ -110,8 +110,9 @@ def test_rigid_bolt_on_no_bearing_is_flagged_and_still_in_equilibrium() -> None:
     fork = next(m for m in sol.members if sol.joint.members[m.member].name == "fork")
     assert fork.reaction_xy[0] == pytest.approx(-100e3, rel=REL_FLAGGED)
     assert sol.equilibrium_residual < REL_FLAGGED
-    plane = sol.planes[0].shear_xy[0]
-    assert abs(plane) <= 100e3 * (1 + REL_FLAGGED)  # a plane never carries more than the load
+    # symmetry and statics: each plane carries half of the 100 kN, to about κ·ε
+    for plane in sol.planes:
+        assert abs(plane.shear_xy[0]) == pytest.approx(50e3, rel=REL_FLAGGED)
 
 
 def test_the_warning_reaches_the_terminal(write_model) -> None:

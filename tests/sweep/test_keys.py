@@ -66,7 +66,7 @@ def test_lists_ranges_names_and_arrays() -> None:
     ("ply[2].thickness=", "ply[2].thickness: no values after '='"),
     ("ply[2].thickness=1,,2", "an empty value"),
     ("ply[2].thickness", "write --vary KEY=VALUES"),
-    ("ply[2].thickness=0:1e7:1", "at most"),
+    ("ply[2].thickness=0:1e7:1", "more than 1000000 values"),
 ])
 def test_bad_values_name_the_key(spec: str, fragment: str) -> None:
     with pytest.raises(sk.SweepError) as err:
@@ -112,7 +112,7 @@ def test_case_table(tmp_path) -> None:
         sk.read_cases(bad, DATA)
     short = tmp_path / "short.csv"
     short.write_text("bolt.diameter,ply[2].thickness\n20\n", encoding="utf-8")
-    with pytest.raises(sk.SweepError, match="row 2: 1 cells for 2 keys"):
+    with pytest.raises(sk.SweepError, match="line 2: 1 cells for 2 keys"):
         sk.read_cases(short, DATA)
 
 
@@ -135,3 +135,70 @@ def test_cli_key_errors_are_one_line(write_model, args: list[str], fragment: str
     assert len(lines) == 1
     assert lines[0].startswith("error: ")
     assert fragment in lines[0]
+
+
+@pytest.mark.parametrize(("spec", "fragment"), [
+    # found in review: these once ended in OverflowError or ValueError tracebacks
+    ("ply[2].thickness=0:1e308:1e-308", "has more than 1000000 values"),
+    ("ply[2].thickness=0:1:5e-324", "has more than 1000000 values"),
+    ("member.lug.load=[1,2],[3", "unbalanced brackets"),
+])
+def test_hostile_values_are_one_line_errors(spec: str, fragment: str) -> None:
+    with pytest.raises(sk.SweepError, match=fragment.replace("[", r"\[")):
+        sk.parse_vary(spec, DATA)
+
+
+def test_long_integers_and_foreign_digits_do_not_crash() -> None:
+    big = "9" * 5000
+    assert _values(f"ply[2].thickness={big}") == [float("inf")]  # the loader refuses it
+    assert _values("ply[2].thickness=١٢") == ["١٢"]  # not ASCII digits: text for the loader
+
+
+def test_case_table_keeps_empty_rows_and_counts_lines(tmp_path) -> None:
+    path = tmp_path / "cases.csv"
+    path.write_text("\ufeff bolt.diameter , ply[2].thickness\n\n20,18\n,\n\n24\n",
+                    encoding="utf-8")
+    with pytest.raises(sk.SweepError, match="line 6: 1 cells for 2 keys"):
+        sk.read_cases(path, DATA)
+    path.write_text(" bolt.diameter , ply[2].thickness\n\n20,18\n,\n", encoding="utf-8")
+    keys, rows = sk.read_cases(path, DATA)
+    assert [k.text for k in keys] == ["bolt.diameter", "ply[2].thickness"]
+    assert rows == [[20, 18], [None, None]]  # an empty row is the model itself
+
+
+def test_jsonl_has_no_infinities() -> None:
+    import json
+
+    from plyshear.sweep.output import to_jsonl
+
+    line = to_jsonl([{"case": 1, "bolt.diameter": float("inf"), "x": [float("nan"), 1.0]}],
+                    ["case", "bolt.diameter", "x"])
+    assert json.loads(line) == {"case": 1, "bolt.diameter": None, "x": [None, 1.0]}
+
+
+@pytest.mark.parametrize(("args", "fragment"), [
+    (["--no-check", "--plot", "p.png"], "--response utilization needs the check"),
+    (["--plot", "p.png", "--response", "efficiency_nonlinear"], "needs --capacity full"),
+    (["--plot", "p.png", "--response", "shear_plane_99"], "the model has planes 1 to 2"),
+    (["--capacity", "none", "--plot", "p.png", "--response", "capacity_elastic"],
+     "needs --capacity elastic or full"),
+    (["--vary", "member.lug.load=[100,0],[200,0]", "--plot", "p.png", "--x",
+      "member.lug.load"], "member.lug.load has array values"),
+])
+def test_chart_options_are_checked_before_the_run(write_model, args: list[str],
+                                                  fragment: str) -> None:
+    path = write_model(FORK)
+    result = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
+                                       *args])
+    assert result.exit_code == 2
+    lines = result.stderr.strip().splitlines()
+    assert len(lines) == 1
+    assert fragment in lines[0]
+
+
+def test_a_sweep_where_every_case_fails_exits_1(write_model) -> None:
+    path = write_model(FORK)
+    result = CliRunner().invoke(main, ["sweep", str(path), "--vary", "pattern.count=2,3"])
+    assert result.exit_code == 1
+    assert "2 cases, 0 solved, 2 with errors" in result.stdout
+    assert "pattern: give positions, or both count and pitch" in result.stdout

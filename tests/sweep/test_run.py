@@ -73,12 +73,57 @@ def _variants() -> list:
     return out[::2] + out[1::2]
 
 
+#: The 1e-12 bar holds where round-off allows it: the variants are well conditioned
+#: (κ up to 2e5, the gusset). Near the warning threshold the paths differ by about κ·ε.
+COND_VARIANTS = 1e6
+
+
 def test_batch_path_equals_the_per_case_path() -> None:
     joints = _variants()
     batched = solve_many(joints)
     assert len(batched) == len(joints)
     for joint, sol in zip(joints, batched, strict=True):
+        assert sol.condition < COND_VARIANTS
         _assert_same_solution(sol, plyshear.solve(joint))
+
+
+def test_batch_path_cut_into_small_batches_gives_the_same(monkeypatch) -> None:
+    from plyshear.mechanics import batch
+
+    joints = _variants()
+    whole = solve_many(joints)
+    monkeypatch.setattr(batch, "BATCH_ENTRIES", 1)  # one joint a batch
+    for a, b in zip(solve_many(joints), whole, strict=True):
+        _assert_same_solution(a, b)  # round-off only: BLAS sums stacks of other sizes apart
+
+
+def test_a_joint_too_large_to_solve_is_its_own_error() -> None:
+    # found in review: the layout's "too large" ModelError escaped the batch and ended
+    # the whole sweep in a traceback
+    big = modelfile.loads(FORK.replace("[member.fork]", "[analysis]\nelements_per_ply = 1000\n"
+                                       "[pattern]\ncount = 500\npitch = 75\n[member.fork]")
+                          .replace("thickness = 10\n", "thickness = 80\nwidth = 300\n")
+                          .replace("thickness = 20\n", "thickness = 80\nwidth = 300\n"),
+                          "big.toml")
+    with pytest.raises(modelfile.ModelError, match="the system is too large"):
+        plyshear.solve(big)
+    good = plyshear.load_model(FORK_MODEL)
+    out = solve_many([good, big])
+    _assert_same_solution(out[0], plyshear.solve(good))
+    assert isinstance(out[1], modelfile.ModelError)
+    assert "the system is too large" in str(out[1])
+
+
+def test_loads_in_two_directions_have_no_elastic_capacity() -> None:
+    # found in review: the sweep scaled a non-collinear pattern that plyshear capacity
+    # refuses; now both refuse it
+    _, _, rows = _sweep_model(MODELS / "gusset-three-members.toml",
+                              ["member.angle-b.load=[0,35],-35"], sr.Options())
+    assert rows[0]["capacity_event"].startswith("the member loads are not collinear")
+    assert "capacity_elastic" not in rows[0]
+    assert rows[1]["capacity_elastic"] > 0
+    assert rows[1]["load_factor"] == pytest.approx(
+        rows[1]["capacity_elastic"] / (40 + 35 + 20), rel=1e-12)  # Σ|P| of the gusset, kN
 
 
 def test_batch_path_reports_each_failing_case_as_its_own_error() -> None:
@@ -96,10 +141,14 @@ def test_batch_path_reports_each_failing_case_as_its_own_error() -> None:
     _assert_same_solution(out[2], plyshear.solve(joints[2]))
 
 
-def _sweep(varies: list[str], options: sr.Options, **kw):
-    data = modelfile.read(FORK_MODEL)
+def _sweep_model(path: Path, varies: list[str], options: sr.Options, **kw):
+    data = modelfile.read(path)
     keys, cases = sk.cases([sk.parse_vary(v, data) for v in varies])
-    return keys, cases, sr.run(data, str(FORK_MODEL), keys, cases, options, **kw)
+    return keys, cases, sr.run(data, str(path), keys, cases, options, **kw)
+
+
+def _sweep(varies: list[str], options: sr.Options, **kw):
+    return _sweep_model(FORK_MODEL, varies, options, **kw)
 
 
 VARIES = ["bolt.diameter=20,24,30", "ply[2].thickness=12:24:6", "bolt.grade=8.8,10.9"]
