@@ -20,6 +20,7 @@ linear laws the x and y directions use the same matrix.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass
 
@@ -195,6 +196,11 @@ class Layout:
     def ne(self) -> int:
         """Elements of one bolt."""
         return self.mesh.ply.size
+
+    @functools.cached_property
+    def scatter_map(self) -> tuple[np.ndarray, np.ndarray, np.ndarray, tuple[int, int]]:
+        """:func:`scatter_indices` of this numbering, computed once (Newton reassembles often)."""
+        return scatter_indices(self)
 
     def station_slice(self, s: int) -> slice:
         """The element rows of station s."""
@@ -454,7 +460,7 @@ def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
     Returns:
         The upper-banded block ``A``, the border ``B`` and the block ``C``.
     """
-    dest, src, sign, (n_dest, _) = scatter_indices(lay)
+    dest, src, sign, (n_dest, _) = lay.scatter_map
     source = np.concatenate([(lay.kel + kbb).ravel(), kbu.ravel(), kuu.ravel(),
                              [sp.k for sp in lay.springs]])
     flat = np.bincount(dest, weights=sign * source[src], minlength=n_dest)
