@@ -10,16 +10,17 @@ numbering; only numbers differ. For such a group:
   (:func:`plyshear.mechanics.beam.stiffness`, :func:`~plyshear.mechanics.beam.foundation`);
 * their assembly is one sparse matrix product with an assembly operator built
   once from the shared numbering (:func:`assembly_operator`);
-* the banded blocks of all joints, laid side by side, form one banded matrix
-  with the same bandwidth (the blocks do not couple: the entries that would
-  couple them lie in the unused corner of each block's storage and are zero),
-  so one :func:`scipy.linalg.cholesky_banded` factorises them all;
-* the member borders are solved with batched dense algebra.
+* their banded blocks are factorised side by side as one banded matrix and
+  their member borders solved with batched dense algebra
+  (:func:`plyshear.mechanics.solve.solve_stacked`, which a single solve calls
+  with one block);
+* their results are recovered with array operations
+  (:func:`plyshear.mechanics.recovery.recover`, as for a single solve).
 
-Each joint's results are then taken from its own slice by the same code as the
-single-case path (:func:`plyshear.mechanics.solve.solve`), so the two agree to
-round-off. A group whose batched factorisation fails falls back to solving its
-joints one by one, so that the failing ones report their own errors.
+The assembly is the only step a single solve does differently (its own
+scatter), so the two agree to round-off. A group whose batched factorisation
+fails, or that is too large to lay out, falls back to solving its joints one by
+one, so that the failing ones report their own errors.
 """
 
 from __future__ import annotations
@@ -149,6 +150,7 @@ def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
 
 
 def _solve_batched(joints: list[Joint], meshes: list[Mesh], lay0: Layout) -> list[Outcome]:
+    """Assemble, solve and recover joints that share the numbering ``lay0``."""
     n = len(joints)
     ns, ne = len(lay0.stations), lay0.ne
     # Per joint: the numbers that differ.
