@@ -239,13 +239,31 @@ def run(base: Mapping[str, Any], source: str, keys: Sequence[Key],
                 results[i] = _chunk(job)
                 tick(len(job[3]))
         else:
-            with ProcessPoolExecutor(max_workers=n_workers) as pool:
+            with ProcessPoolExecutor(max_workers=n_workers, mp_context=_context()) as pool:
                 futures = {pool.submit(_chunk, job): i for i, job in enumerate(jobs)}
                 for fut in as_completed(futures):
                     i = futures[fut]
                     results[i] = fut.result()
                     tick(len(jobs[i][3]))
     return [row for part in results if part is not None for row in part]
+
+
+def _context() -> Any:
+    """Worker processes forked from a server that has plyshear loaded.
+
+    Forking the caller itself is unsafe once it runs threads (a Dask client, a
+    GUI); a fresh interpreter per worker pays the imports each time. Where the
+    platform has no fork server, the platform's default.
+    """
+    import multiprocessing
+
+    try:
+        ctx = multiprocessing.get_context("forkserver")
+    except ValueError:
+        return multiprocessing.get_context()
+    ctx.set_forkserver_preload(["plyshear.sweep.run", "plyshear.mechanics.batch",
+                                "plyshear.codes.check", "plyshear.model.modelfile"])
+    return ctx
 
 
 def _run_dask(address: str, jobs: list[tuple[Any, ...]],
