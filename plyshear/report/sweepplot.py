@@ -71,7 +71,8 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
         grid = np.full((len(groups), len(xs)), np.nan)
         for r in keep:
             grid[groups.index(r[series]), xs.index(r[x])] = r[response]
-        mesh = ax.pcolormesh(xs, groups, grid, shading="nearest", cmap="viridis")
+        mesh = ax.pcolormesh(np.array(xs, dtype=float), np.array(groups, dtype=float), grid,
+                             shading="nearest", cmap="viridis")
         fig.colorbar(mesh, ax=ax, label=label)
         ax.set_ylabel(key_label(series, units))
     else:
@@ -87,10 +88,10 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
             ax.axhline(1.0, color="#aa0000", linewidth=0.8, linestyle="--")
         if series:
             ax.legend(fontsize=7, frameon=False)
+    _style(ax)  # first: it sets a tick locator of its own
     if not numeric:
         ax.set_xticks(list(pos.values()), [str(v) for v in xs])
     ax.set_xlabel(key_label(x, units))
-    _style(ax)
     at = ", ".join(f"{k} = {v}" for k, v in fixed.items())
     head = " — ".join(t for t in (title, f"at {at}" if at else "") if t)
     if head:

@@ -171,7 +171,9 @@ def parse_value(token: str, key: Key | None = None) -> Any:
 
 def _split(text: str) -> list[str]:
     """Split at commas outside brackets and quotes."""
-    out, depth, quote, cur = [], 0, "", []
+    out: list[str] = []
+    cur: list[str] = []
+    depth, quote = 0, ""
     for ch in text:
         if quote:
             quote = "" if ch == quote else quote
