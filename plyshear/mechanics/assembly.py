@@ -314,7 +314,7 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     # right after the last node inside it (a ply ends at a node of its own).
     last_node = np.zeros(nplies, dtype=int)
     in_ply = mesh.ply >= 0
-    last_node[mesh.ply[in_ply]] = np.flatnonzero(in_ply) + 1  # the last write wins
+    np.maximum.at(last_node, mesh.ply[in_ply], np.flatnonzero(in_ply) + 1)
     bolt_dof = np.empty((ns, nn, 2), dtype=int)
     target: list[list[Endpoint]] = [[("0", FIXED)] * nplies for _ in range(ns)]
     next_dof = 0

@@ -1,8 +1,10 @@
-"""Linear solve of one bolt on bearing springs.
+"""Linear solve of a joint on bearing springs.
 
-The banded block ``A`` (bolt and own ply DOFs) is factorised once with
-:func:`scipy.linalg.cholesky_banded`; the few free-member DOFs are solved from
-their Schur complement. x and y share the factorisation (two right-hand sides).
+The banded block ``A`` (bolt and own ply DOFs) is factorised once by LAPACK's
+banded Cholesky; the few free-member DOFs are solved from their Schur
+complement. x and y share the factorisation (two right-hand sides).
+:func:`solve_stacked` does this for many same-shaped systems at once (the
+batch path); a single solve is a stack of one.
 """
 
 from __future__ import annotations
