@@ -410,7 +410,7 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
     chart = _sweep_chart(model, target, response, x_key, series, keys, cases, capacity,
                          no_check, len(joint.plies) - 1)
     options = sr.Options(capacity=capacity, check=not no_check)
-    cols = sr.columns(keys, len(joint.plies) - 1, options)
+    cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
     show = not quiet and len(cases) > sr.CHUNK
     with click.progressbar(length=len(cases), label=f"{len(cases)} cases", file=sys.stderr,
                            hidden=not show) as bar:

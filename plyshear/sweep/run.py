@@ -56,9 +56,11 @@ class Options:
             raise ValueError(f"capacity must be one of {', '.join(CAPACITY_MODES)}")
 
 
-def columns(keys: Sequence[Key], planes: int, options: Options) -> list[str]:
-    """The column titles of the result table, in order."""
+def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) -> list[str]:
+    """The column titles of the result table, in order (``worst_bolt`` for a row of bolts)."""
     cols = ["case", *(k.text for k in keys), *BASE_COLUMNS[1:]]
+    if bolts > 1:
+        cols.insert(cols.index("worst_plane"), "worst_bolt")
     if not options.check:
         cols = [c for c in cols if c not in ("utilization", "governing", "passes",
                                              "informative")]
@@ -139,9 +141,11 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
     per_plane = shears.max(axis=0) if shears.size else np.zeros(0)
     out: dict[str, Any] = {"error": ""}
     if per_plane.size:
-        worst = int(np.argmax(per_plane))
-        out["max_shear"] = float(per_plane[worst]) / f
-        out["worst_plane"] = worst + 1
+        bolt, worst = np.unravel_index(int(np.argmax(shears)), shears.shape)
+        out["max_shear"] = float(shears[bolt, worst]) / f
+        out["worst_plane"] = int(worst) + 1
+        if len(sol.bolts) > 1:
+            out["worst_bolt"] = int(bolt) + 1
     out["max_moment"] = max(b.max_moment for b in sol.bolts) / mo
     for i, v in enumerate(per_plane, start=1):
         out[f"shear_plane_{i}"] = float(v) / f

@@ -291,3 +291,16 @@ def test_progress_bar_on_long_runs(write_model) -> None:
     assert r.exit_code == 0, r.output
     assert "301 cases" in r.stderr  # the bar's label
     assert "301 cases, 301 solved" in r.stdout
+
+
+def test_a_row_names_the_bolt_of_its_worst_plane() -> None:
+    row_model = MODELS / "splice-six-bolts.toml"
+    keys, cases, rows = _sweep_model(row_model, ["pattern.pitch=60,90"],
+                                     sr.Options(capacity="none"), workers=1)
+    data = modelfile.read(row_model)
+    for values, row in zip(cases, rows, strict=True):
+        sol = plyshear.solve(modelfile.from_dict(sk.apply(data, keys, values), str(row_model)))
+        shears = np.array([[p.shear for p in b.planes] for b in sol.bolts])
+        bolt, plane = np.unravel_index(np.argmax(shears), shears.shape)
+        assert (row["worst_bolt"], row["worst_plane"]) == (bolt + 1, plane + 1)
+        assert row["max_shear"] == pytest.approx(shears.max() / 1e3, rel=REL_BATCH)  # kN
