@@ -505,26 +505,27 @@ def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
 
     Args:
         lay: The numbering.
-        x: ``A`` unknowns, shape (na, c) for c components.
-        y: Member unknowns, shape (nm, c).
+        x: ``A`` unknowns, shape (..., na, c) for c components (a leading batch
+            axis is optional).
+        y: Member unknowns, shape (..., nm, c).
 
     Returns:
-        ``(de, u_el, u_ply)``: element bolt DOFs (S·ne, 4, c), the displacement
-        of the body each element bears against (S·ne, c), and per station and
-        ply (S, np, c).
+        ``(de, u_el, u_ply)``: element bolt DOFs (..., S·ne, 4, c), the
+        displacement of the body each element bears against (..., S·ne, c), and
+        per station and ply (..., S, np, c).
     """
     ed = lay.edofs
-    de = np.where((ed >= 0)[:, :, None], x[np.maximum(ed, 0)], 0.0)
+    de = np.where((ed >= 0)[..., None], x[..., np.maximum(ed, 0), :], 0.0)
     kind = np.array([[t[0] for t in row] for row in lay.target])
     index = np.array([[t[1] for t in row] for row in lay.target])
-    u_ply = np.zeros((*kind.shape, x.shape[1]))
+    u_ply = np.zeros((*x.shape[:-2], *kind.shape, x.shape[-1]))
     on_a, on_m = kind == "a", kind == "m"
-    u_ply[on_a] = x[index[on_a]]
-    u_ply[on_m] = y[index[on_m]]
+    u_ply[..., on_a, :] = x[..., index[on_a], :]
+    u_ply[..., on_m, :] = y[..., index[on_m], :]
     ns = len(lay.target)
     station_of = np.repeat(np.arange(ns), lay.ne)
     ply = lay.el_ply
-    u_el = np.where(ply[:, None] >= 0, u_ply[station_of, np.maximum(ply, 0)], 0.0)
+    u_el = np.where((ply >= 0)[:, None], u_ply[..., station_of, np.maximum(ply, 0), :], 0.0)
     return de, u_el, u_ply
 
 

@@ -196,6 +196,31 @@ def hole_clearance(joint: Joint) -> float:
         return 2.0
 
 
+def load_pattern(joint: Joint) -> np.ndarray:
+    """The free members' loads along the load axis, N, in member order (the pattern scaled).
+
+    Raises:
+        CapacityError: If the loads are not collinear (the capacity scales one
+            direction) or there is no load.
+    """
+    axis = joint.load_axis()
+    loads = np.array([m.load for m in joint.members if not m.support],
+                     dtype=float).reshape(-1, 2)
+    along = loads @ axis
+    across = loads @ np.array([-axis[1], axis[0]])
+    if np.abs(across).max(initial=0.0) > 1e-9 * np.abs(along).max(initial=1.0):
+        raise CapacityError("the member loads are not collinear; the capacity analysis "
+                            "scales one load direction")
+    if not np.any(along != 0.0):
+        raise CapacityError("no load: the capacity needs a loaded member")
+    return along
+
+
+def pattern_total(joint: Joint) -> float:
+    """The magnitude of the model's load pattern, Σ|P| over the members, N."""
+    return sum(math.hypot(*m.load) for m in joint.members)
+
+
 class _Model:
     """The discretised joint along the load direction, for repeated evaluation."""
 
@@ -214,15 +239,8 @@ class _Model:
         self.curves = [laws.curve(name, joint.bolt, p, float(k)) for p, k in
                        zip(joint.plies, k_lin, strict=True)]
         self.gap_plus, self.gap_minus = clearances(joint)
-        axis = joint.load_axis()
-        self.pattern = self.lay.loads @ axis  # member loads along the axis, N
-        across = self.lay.loads @ np.array([-axis[1], axis[0]])
-        if np.abs(across).max(initial=0.0) > 1e-9 * np.abs(self.pattern).max(initial=1.0):
-            raise CapacityError("the member loads are not collinear; the capacity analysis "
-                                "scales one load direction")
+        self.pattern = load_pattern(joint)  # free members' loads along the axis, N
         self.scale = float(np.abs(self.pattern).sum())  # the pattern's magnitude: Σ|P_m|
-        if self.scale == 0.0:
-            raise CapacityError("no load: the capacity needs a loaded member")
         unit = self.pattern / self.scale  # first to O(1): a tiny load's square underflows
         self.c = unit / float(np.linalg.norm(unit))
 
@@ -395,7 +413,7 @@ REFERENCE_PATTERN_N = 1e3
 
 def reference_pattern(joint: Joint) -> Joint:
     """Return ``joint`` with its member loads scaled to a total of :data:`REFERENCE_PATTERN_N`."""
-    total = sum(math.hypot(*m.load) for m in joint.members)
+    total = pattern_total(joint)
     if not (total > 0.0 and math.isfinite(total)):
         return joint
     f = REFERENCE_PATTERN_N / total
@@ -566,21 +584,14 @@ def elastic_capacity(joint: Joint, sol: Solution, lim: Limits | None = None,
         The load (magnitude of the scaled pattern, N), the event and where.
 
     Raises:
-        CapacityError: If the solution carries no load.
+        CapacityError: If the solution carries no load, or loads in two directions.
     """
     if lim is None:
         z = sol.bolts[0].z
         lim = limits(joint, z, [p.threads for p in sol.planes])
     if q_max is None:
         q_max = bearing_strengths(joint)
-    axis = joint.load_axis()
-    loads = np.array([m.load for m in joint.members if not m.support]).reshape(-1, 2)
-    along = loads @ axis
-    across = loads @ np.array([-axis[1], axis[0]])
-    if np.abs(across).max(initial=0.0) > 1e-9 * np.abs(along).max(initial=1.0):
-        raise CapacityError("the member loads are not collinear; the capacity scales one "
-                            "load direction")
-    scale = float(np.abs(along).sum())
+    scale = float(np.abs(load_pattern(joint)).sum())
     many = len(sol.bolts) > 1
     cands: list[tuple[float, str, str, float | None]] = []
     for b, bolt in enumerate(sol.bolts):
@@ -601,7 +612,7 @@ def elastic_capacity(joint: Joint, sol: Solution, lim: Limits | None = None,
             if pb.force > 0 and np.isfinite(cap):
                 cands.append((cap / pb.force, "ply bearing strength",
                               f"{tag}ply {joint.plies[pb.ply].name}", None))
-    if not cands or scale == 0.0:
+    if not cands:
         raise CapacityError("no load: the capacity needs a loaded member")
     lam, event, where, z_ev = min(cands, key=lambda c: c[0])
     return Answer(float(lam * scale), event, where, z_ev)

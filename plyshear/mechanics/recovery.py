@@ -17,7 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from plyshear.mechanics.assembly import FIXED, Layout
+from plyshear.mechanics.assembly import FIXED, Layout, element_displacements, endpoint_value
 from plyshear.mechanics.conditioning import COND_WARN
 from plyshear.mechanics.results import (
     BoltResult,
@@ -73,7 +73,7 @@ def recover(b: Batch) -> list[Solution]:
     """Return the :class:`Solution` of every joint of the batch."""
     lay = b.layout
     n = len(b.joints)
-    ne, ns = lay.ne, len(lay.target)
+    ns = len(lay.target)
     nplies = len(lay.target[0])
     ply = lay.mesh.ply
     in_ply = ply >= 0
@@ -88,17 +88,7 @@ def recover(b: Batch) -> list[Solution]:
 
     L = np.diff(b.z, axis=1)  # (n, ne)
     # Element displacements and the body each element bears against.
-    ed = lay.edofs
-    de_all = np.where((ed >= 0)[None, :, :, None], b.x[:, np.maximum(ed, 0)], 0.0)
-    kind = np.array([[t[0] for t in row] for row in lay.target])
-    index = np.array([[t[1] for t in row] for row in lay.target])
-    u_ply = np.zeros((n, ns, nplies, 2))
-    u_ply[:, kind == "a"] = b.x[:, index[kind == "a"]]
-    u_ply[:, kind == "m"] = b.y[:, index[kind == "m"]]
-    station_of = np.repeat(np.arange(ns), ne)
-    el_ply = lay.el_ply
-    u_all = np.where((el_ply >= 0)[None, :, None],
-                     u_ply[:, station_of, np.maximum(el_ply, 0)], 0.0)
+    de_all, u_all, u_ply = element_displacements(lay, b.x, b.y)
     # Foundation forces on the element DOFs; their w-sum is the force the bolt
     # applies to the ply over the element.
     ff_all = b.kbb @ de_all + b.kbu[..., None] * u_all[:, :, None, :]
@@ -126,8 +116,10 @@ def recover(b: Batch) -> list[Solution]:
         per_station.append((V, M, w, q, on_bolt, u_ply[:, st] - wmean))
     # Springs held by a support pull on it: links, and the segments next to a held ply.
     segments = np.zeros((n, max(ns - 1, 0), nplies, 2))
+    x_by_dof, y_by_dof = np.moveaxis(b.x, 1, 0), np.moveaxis(b.y, 1, 0)  # (dof, n, 2)
     for s_i, sp in enumerate(lay.springs):
-        ua, ub = _endpoint(sp.a, b.x, b.y), _endpoint(sp.b, b.x, b.y)
+        ua, ub = endpoint_value(sp.a, x_by_dof, y_by_dof), endpoint_value(sp.b, x_by_dof,
+                                                                          y_by_dof)
         k = b.kspring[:, s_i, None]
         for end, other in ((sp.a, ub), (sp.b, ua)):
             if end[0] == "0":
@@ -137,16 +129,6 @@ def recover(b: Batch) -> list[Solution]:
     residual = _residuals(b, reaction)
     return [_solution(b, i, per_station, reaction[i], segments[i], float(residual[i]))
             for i in range(n)]
-
-
-def _endpoint(end: tuple[str, int], x: np.ndarray, y: np.ndarray) -> np.ndarray:
-    """A spring endpoint's displacement in every joint, (n, 2) (zero where held)."""
-    kind, i = end
-    if kind == "a":
-        return x[:, i]
-    if kind == "m":
-        return y[:, i]
-    return np.zeros((x.shape[0], 2))
 
 
 def _solution(b: Batch, i: int, per_station: list, reaction: np.ndarray,

@@ -31,24 +31,17 @@ def banded_matvec(ab: np.ndarray, x: np.ndarray) -> np.ndarray:
         ab: Shape (u + 1, n), or (batch, u + 1, n).
         x: Shape (n,) or (n, k); with a batch, (batch, n, k).
     """
-    if ab.ndim == 3:
-        u = ab.shape[1] - 1
-        n = ab.shape[2]
-        y = ab[:, u, :, None] * x
-        for k in range(1, u + 1):
-            d = ab[:, u - k, k:, None]
-            y[:, : n - k] += d * x[:, k:]
-            y[:, k:] += d * x[:, : n - k]
-        return y
-    u = ab.shape[0] - 1
-    n = ab.shape[1]
-    y = ab[u][:, None] * x if x.ndim == 2 else ab[u] * x
+    if ab.ndim == 2:
+        x2 = x[:, None] if x.ndim == 1 else x
+        y = banded_matvec(ab[None], x2[None])[0]
+        return y[:, 0] if x.ndim == 1 else y
+    u = ab.shape[1] - 1
+    n = ab.shape[2]
+    y = ab[:, u, :, None] * x
     for k in range(1, u + 1):
-        d = ab[u - k, k:]
-        if x.ndim == 2:
-            d = d[:, None]
-        y[: n - k] += d * x[k:]
-        y[k:] += d * x[: n - k]
+        d = ab[:, u - k, k:, None]
+        y[:, : n - k] += d * x[:, k:]
+        y[:, k:] += d * x[:, : n - k]
     return y
 
 

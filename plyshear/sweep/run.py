@@ -133,7 +133,7 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
     import numpy as np
 
     from plyshear import units as _units
-    from plyshear.mechanics.capacity import CapacityError, elastic_capacity
+    from plyshear.mechanics.capacity import CapacityError, elastic_capacity, pattern_total
 
     u = _units.system(joint.units)
     f, mo = u.factor("force"), u.factor("moment")
@@ -172,8 +172,7 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             out["capacity_event"] = str(exc)
         else:
             out["capacity_elastic"] = el.load / f
-            applied = _applied(joint)
-            out["load_factor"] = el.load / applied if applied > 0 else None
+            out["load_factor"] = el.load / pattern_total(joint)  # > 0: a load was scaled
             out["capacity_event"] = f"{el.event}, {el.where}"
     if options.capacity == "full":
         from plyshear.mechanics.capacity import summarize
@@ -188,11 +187,6 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             out["capacity_plastic"] = s.plastic.load / f
             out["efficiency_nonlinear"] = _finite(s.efficiency(s.nonlinear.load))
     return out
-
-
-def _applied(joint: Any) -> float:
-    """The magnitude of the model's load pattern, N (Σ|P| of the loaded members)."""
-    return float(sum(math.hypot(*m.load) for m in joint.members if not m.support))
 
 
 def _finite(value: float) -> float | None:
