@@ -42,7 +42,8 @@ def _new_axes(ax: Axes | None) -> Axes:
     return fig.add_subplot()
 
 
-def _style(ax: Axes) -> None:
+def style_axes(ax: Axes) -> None:
+    """The house style of an axes: a few x ticks, a light grid, open top and right."""
     ax.xaxis.set_major_locator(MaxNLocator(nbins=4))
     ax.grid(True, color="#cccccc", linewidth=0.5)
     for side in ("top", "right"):
@@ -131,7 +132,7 @@ def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -
     symbol = {"shear": "V", "moment": "M", "deflection": "w"}[which]
     ax.set_xlabel(f"bolt {which} {symbol} [{u.label(dim)}]")
     ax.set_ylabel(f"z along bolt [{u.label('length')}]")
-    _style(ax)
+    style_axes(ax)
     return ax
 
 
@@ -191,7 +192,7 @@ def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int 
     ax.set_ylim(z[-1] + 0.05 * (z[-1] - z[0]), z[0] - 0.05 * (z[-1] - z[0]))
     ax.set_xlabel(f"bearing pressure q/d [{u.label('stress')}]")
     ax.set_ylabel(f"z along bolt [{u.label('length')}]")
-    _style(ax)
+    style_axes(ax)
     return ax
 
 
@@ -282,7 +283,7 @@ def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = Non
     ax.set_xlabel(f"slip along the load [{u.label('length')}]")
     ax.set_ylabel(f"load [{u.label('force')}]")
     ax.set_title("load–slip", fontsize=9)
-    _style(ax)
+    style_axes(ax)
     return ax
 
 
@@ -311,7 +312,7 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
     ax.set_ylabel(f"plane shear [{u.label('force')}]")
     ax.set_title("plane shears", fontsize=9)
     ax.legend(fontsize=7, frameon=False)
-    _style(ax)
+    style_axes(ax)
     return ax
 
 
@@ -336,7 +337,7 @@ def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
     ax.set_ylabel("plane shear / joint load [-]")
     ax.set_title("share along the row", fontsize=9)
     ax.legend(fontsize=6, frameon=False)
-    _style(ax)
+    style_axes(ax)
     return ax
 
 
@@ -380,7 +381,7 @@ def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
         ax.set_xlabel("number of shear planes [-]")
         ax.set_xticks(n)
         ax.legend(fontsize=7, frameon=False)
-        _style(ax)
+        style_axes(ax)
         ax.xaxis.set_major_locator(MaxNLocator(integer=True))
     axs[0].set_title("capacity", fontsize=9)
     axs[1].set_title("does the extra plane pay?", fontsize=9)
@@ -404,7 +405,7 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
                     edgecolor=INK, linewidth=0.6)
         ax.set_xlabel(f"{label} [{u.label('force')}]")
         ax.set_ylabel("samples [-]")
-        _style(ax)
+        style_axes(ax)
     fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "
                  f"({result.service_shear.size} samples)", fontsize=10)
     return fig
@@ -429,5 +430,5 @@ def plot_row(solution: Solution, ax: Axes | None = None) -> Axes:
     ax.set_ylabel(f"plane shear [{u.label('force')}]")
     ax.set_title("plane shears along the row", fontsize=9)
     ax.legend(fontsize=7, frameon=False)
-    _style(ax)
+    style_axes(ax)
     return ax

@@ -8,7 +8,7 @@ from typing import Any
 from matplotlib.figure import Figure
 
 from plyshear import units as _units
-from plyshear.report.diagrams import INK, _style
+from plyshear.report.diagrams import INK, style_axes
 
 #: Responses that can be plotted, with their dimension (for the axis label).
 RESPONSES = {
@@ -88,7 +88,7 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
             ax.axhline(1.0, color="#aa0000", linewidth=0.8, linestyle="--")
         if series:
             ax.legend(fontsize=7, frameon=False)
-    _style(ax)  # first: it sets a tick locator of its own
+    style_axes(ax)  # first: it sets a tick locator of its own
     if not numeric:
         ax.set_xticks(list(pos.values()), [str(v) for v in xs])
     ax.set_xlabel(key_label(x, units))
