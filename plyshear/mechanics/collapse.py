@@ -93,8 +93,9 @@ ACTIVE_SLACK = 1e-6
 #: ... and it works in the mechanism when its share of the dissipation (its LP
 #: multiplier times its bound, over the load factor: the shares sum to one) is above this.
 ACTIVE_WORK = 1e-8
-#: A section point is outside the polygon when it passes a face by more than this fraction.
-FACE_TOL = 1e-9
+#: A section point is outside the polygon when it passes a face by more than this
+#: fraction (above HiGHS' feasibility tolerance, so that a face already there is not re-cut).
+FACE_TOL = 1e-6
 MAX_CUTS = 50  # rounds of adding polygon faces before giving up
 
 
@@ -177,6 +178,7 @@ class _Field:
         ply_force: Force every ply receives from every bolt, N, (S, plies).
         bar: Force of every ply between stations i and i + 1, N, (S − 1, plies).
         mechanism: The mechanism read from the active constraints.
+        cuts: (station, z, face) of the polygon faces the LP needed.
     """
 
     factor: float
@@ -187,6 +189,7 @@ class _Field:
     ply_force: np.ndarray
     bar: np.ndarray
     mechanism: Mechanism
+    cuts: tuple[np.ndarray, np.ndarray, np.ndarray]
 
 
 def collapse(joint: Joint, bearing: Sequence[float], moment: Callable[[np.ndarray], np.ndarray],
@@ -222,13 +225,13 @@ def collapse(joint: Joint, bearing: Sequence[float], moment: Callable[[np.ndarra
     b, caps, pattern = _inputs(joint, bearing, net_sections, sides, tol)
     total = float(np.abs(pattern).sum())
     n = START_ELEMENTS
-    prev = _solve(joint, n, b, moment, shear, caps, pattern, sides)
+    prev = _solve(joint, n, b, moment, shear, caps, pattern, sides, None)
     while True:
         if n >= MAX_ELEMENTS:
             raise CapacityError(f"collapse load did not converge to {tol:g} by {MAX_ELEMENTS} "
                                 "elements per ply")
         n *= 2
-        field = _solve(joint, n, b, moment, shear, caps, pattern, sides)
+        field = _solve(joint, n, b, moment, shear, caps, pattern, sides, prev.cuts)
         change = _relative_change(prev.factor, field.factor)
         if change < tol:
             return Collapse(load=field.factor * total, factor=field.factor,
@@ -472,6 +475,20 @@ class _Program:
         return (sp.diags(scale * np.cos(phi) / mp[point]) @ self.em[point]
                 + sp.diags(scale * np.sin(phi) / vu[point]) @ self.ev[point]).tocsr()
 
+    def seed_cuts(self, seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None
+                  ) -> tuple[np.ndarray, np.ndarray]:
+        """Faces (point, face) at the points nearest to ``seed``'s, and at their neighbours."""
+        if seed is None or seed[0].size == 0:
+            return np.zeros(0, dtype=int), np.zeros(0, dtype=int)
+        station, z, face = seed
+        near = np.clip(np.searchsorted(self.z_point, z), 0, self.np - 1)
+        local = np.clip(np.concatenate([near - 1, near, near + 1]), 0, self.np - 1)
+        point = np.tile(station, 3) * self.np + local
+        mp, vu = self.point_limits()
+        keep = np.isfinite(mp[point]) & np.isfinite(vu[point])
+        key = np.unique(point[keep] * self.sides + np.tile(face, 3)[keep])
+        return key // self.sides, key % self.sides
+
     def violated_faces(self, x: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Points outside the polygon, each with the face it crosses and both neighbours."""
         mp, vu = self.point_limits()
@@ -500,14 +517,16 @@ def _point_strength(f: Callable[[np.ndarray], np.ndarray], zp: np.ndarray,
 
 
 def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callable,
-           caps: np.ndarray, pattern: np.ndarray, sides: int) -> _Field:
+           caps: np.ndarray, pattern: np.ndarray, sides: int,
+           seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None = None) -> _Field:
     """Solve the LP of ``n`` elements per ply; return its field and mechanism.
 
     The polygon's faces enter by cutting planes: solve with |M| ≤ Mp and
     |V| ≤ Vu only, add the faces that the solution crosses (with their
     neighbours), solve again, until no point is outside. The last LP's optimum
     satisfies every face, so it is the optimum of the LP with all of them,
-    at a fraction of its size.
+    at a fraction of its size. ``seed`` (station, z, face) starts from the faces
+    a coarser mesh needed, at the points nearest to them.
     """
     lp = _Program(joint, _mesh(joint, n), b, moment, shear, caps, pattern, sides)
     a_eq = lp.equalities()
@@ -516,8 +535,7 @@ def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callabl
     bounds = lp.bounds()
     c = np.zeros(lp.nvar)
     c[lp.lam] = -1.0
-    cut_point = np.zeros(0, dtype=int)
-    cut_face = np.zeros(0, dtype=int)
+    cut_point, cut_face = lp.seed_cuts(seed)
     for _ in range(MAX_CUTS):
         a_ub = sp.vstack([a_box, lp.face_rows(cut_point, cut_face), a_net], format="csr")
         b_ub = np.concatenate([np.ones(a_box.shape[0] + cut_point.size), b_net])
@@ -530,15 +548,19 @@ def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callabl
             break
         key = np.unique(np.concatenate([cut_point, new_point]) * sides
                         + np.concatenate([cut_face, new_face]))
+        if key.size == cut_point.size:
+            break  # crossed only within the solver's tolerance of faces already there
         cut_point, cut_face = key // sides, key % sides
     else:
         raise CapacityError(f"collapse LP: the M–V polygon still cut after {MAX_CUTS} rounds")
     work = _Work(res, bounds, b_ub, max(float(res.x[lp.lam]), 1e-300))
     sec_point = np.concatenate([box_point, cut_point])
-    return _field(lp, res.x, _mechanism(lp, work, res.x, sec_point, net_where))
+    cuts = (cut_point // lp.np, lp.z_point[cut_point % lp.np], cut_face)
+    return _field(lp, res.x, _mechanism(lp, work, res.x, sec_point, net_where), cuts)
 
 
-def _field(lp: _Program, x: np.ndarray, mechanism: Mechanism) -> _Field:
+def _field(lp: _Program, x: np.ndarray, mechanism: Mechanism,
+           cuts: tuple[np.ndarray, np.ndarray, np.ndarray]) -> _Field:
     """The LP's solution in N and mm."""
     mesh = lp.mesh
     q = np.stack([x[lp.q(s)] for s in range(lp.ns)]) * lp.qref
@@ -550,7 +572,7 @@ def _field(lp: _Program, x: np.ndarray, mechanism: Mechanism) -> _Field:
     for i in range(lp.ns - 1):
         bar[i] = np.where(lp.entry_after, -force[: i + 1].sum(axis=0), force[i + 1:].sum(axis=0))
     return _Field(factor=float(x[lp.lam]) * lp.force / lp.total, mesh=mesh, q=q, V=V, M=M,
-                  ply_force=force, bar=bar, mechanism=mechanism)
+                  ply_force=force, bar=bar, mechanism=mechanism, cuts=cuts)
 
 
 class _Work:
