@@ -28,17 +28,29 @@ the first station (``enters = "before"``) or the last, so the bar force of ply
 j between stations i and i + 1 is the bearing the ply receives on the side
 away from the entry, bounded by the ply's net-section strength.
 
-At every node the section satisfies :math:`|M| \le M_p`, :math:`|V| \le V_u`
-and :math:`(M/M_p)^2 + (V/V_u)^2 \le 1`, the ellipse replaced by the regular
+Every section satisfies :math:`|M| \le M_p`, :math:`|V| \le V_u` and
+:math:`(M/M_p)^2 + (V/V_u)^2 \le 1`, the ellipse replaced by the regular
 polygon of ``sides`` sides inscribed in it (vertices on the ellipse, four of
 them on the axes, so pure bending and pure shear are exact). The polygon lies
 inside the ellipse: it lowers the answer by at most the fraction
-:math:`1 - \cos(\pi/\text{sides})` (0.48 % at 32 sides, 1.9 % at 16).
+:math:`1 - \cos(\pi/\text{sides})` (0.48 % at 32 sides, 1.9 % at 16). The
+criterion holds at every section, not only at the nodes: under a uniform load
+an element's (M, V) runs along a quadratic Bézier curve, inside the triangle
+of its end states and the control point :math:`(M_a + V_a L_e/2,\; V_a + q_e
+L_e/2)`, so the criterion (convex) is imposed at the nodes and at every
+element's control point, with the least strength of the element there (a
+strength that steps inside an element, at a thread start, is resolved to the
+element's length).
 
 The load factor :math:`\lambda` is maximised with ``scipy.optimize.linprog``
-(HiGHS) on sparse matrices, and the mesh doubled, from
+(HiGHS) on sparse matrices. The polygon's faces enter as cutting planes: the
+LP is solved with the box :math:`|M| \le M_p`, :math:`|V| \le V_u`, the faces
+that its solution crosses are added, and so on until none is crossed (that
+optimum satisfies every face, so it is the optimum of the full LP); a finer
+mesh starts from the faces the coarser one needed. The mesh is doubled, from
 :data:`START_ELEMENTS` elements per ply, until the collapse load moves by less
-than ``tol``.
+than ``tol``; the meshes are nested, so the load does not fall on doubling
+(where the strengths are steady along each element).
 
 The theorem and what the answer means
 -------------------------------------
@@ -46,10 +58,11 @@ Static (lower-bound) theorem of limit analysis (Neal, *The Plastic Methods of
 Structural Analysis*, from memory): a load carried by a statically admissible
 field — in equilibrium and nowhere above the strength — does not exceed the
 collapse load of a perfectly plastic structure; the largest such load is the
-collapse load. The field here is exactly in equilibrium and the polygon is
-inside the strength; the section is checked at the nodes, so between two nodes
-of an element the moment may exceed :math:`M_p` by at most
-:math:`|q_e| L_e^2/8`, an error that the mesh doubling drives below ``tol``.
+collapse load. The field here is exactly in equilibrium and inside the
+polygon at every section, so the answer is a true lower bound of the
+rigid-plastic collapse load with those strengths; the restriction to uniform
+bearing per element (a jump of sign only at a node) costs a little, which the
+mesh doubling drives below ``tol``.
 The answer assumes unlimited ductility of bearing, bending and shear (no
 deformation limit, no fracture in bending, no rope effect of the bolt's
 tension): it is the rigid-plastic collapse of the joint, the generalisation of
@@ -290,7 +303,10 @@ def _mesh(joint: Joint, n: int) -> _Mesh:
 
 def _strength(f: Callable[[np.ndarray], np.ndarray], z: np.ndarray, what: str) -> np.ndarray:
     """Evaluate a strength callable on the nodes and check it."""
-    v = np.broadcast_to(np.asarray(f(z.copy()), dtype=float), z.shape).copy()
+    try:
+        v = np.broadcast_to(np.asarray(f(z.copy()), dtype=float), z.shape).copy()
+    except ValueError:
+        raise ValueError(f"{what}: the strength function must return one value per z") from None
     if np.any(np.isnan(v)) or np.any(v <= 0):
         raise ValueError(f"{what}: strengths must be > 0 (inf for no limit)")
     return v

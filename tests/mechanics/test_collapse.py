@@ -171,14 +171,19 @@ def test_double_shear_pin_that_shears_carries_two_plane_strengths() -> None:
     assert result.mechanism.hinges == ()
 
 
-def test_gap_puts_moment_beside_shear_on_the_ellipse() -> None:
+@pytest.mark.parametrize(("mp", "planes", "hinges"), [
+    (1e6, ((0, 1),), []),  # V/Vu = 0.89 > M/Mp = 0.45: the plane shears
+    (3e5, (), [10.0, 20.0]),  # V/Vu = 0.51 < M/Mp = 0.86: hinges at the gap's faces
+])
+def test_gap_puts_moment_beside_shear_on_the_ellipse(mp, planes, hinges) -> None:
     # statics: across a gap g the shear V is constant and M = ±V g/2 at its faces
     # (antisymmetric lap, strong plies), so (V/Vu)² + (V g/(2 Mp))² = 1 there
-    g, vu, mp = 10.0, 1e5, 1e6
+    g, vu = 10.0, 1e5
     joint = modelfile.loads(LAP.format(gap=g))
     exact = 1.0 / math.hypot(1.0 / vu, g / (2 * mp))
-    loads = [collapse(joint, [1e5, 1e5], _constant(mp), _constant(vu), sides=s).load
-             for s in (16, 32, 64, 128)]
+    results = [collapse(joint, [1e5, 1e5], _constant(mp), _constant(vu), sides=s)
+               for s in (16, 32, 64, 128)]
+    loads = [r.load for r in results]
     # nested inscribed polygons: more sides never lower the answer ...
     assert all(b >= a * (1 - REL_SOLVER) for a, b in zip(loads, loads[1:], strict=False))
     # ... each below the ellipse by at most 1 − cos(π/sides) (the docstring's bound)
@@ -187,6 +192,9 @@ def test_gap_puts_moment_beside_shear_on_the_ellipse() -> None:
         assert load <= exact * (1 + REL_SOLVER)
     assert loads[-1] == pytest.approx(exact, rel=1 - math.cos(math.pi / 128))
     assert loads[0] < loads[-1] * (1 - 1e-3)  # the interaction does govern here
+    mech = results[1].mechanism
+    assert mech.planes == planes
+    assert [h.z for h in mech.hinges] == pytest.approx(hinges, abs=1e-9)
 
 
 def test_clamped_ends_stop_the_rotation_mode() -> None:
