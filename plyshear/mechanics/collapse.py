@@ -253,7 +253,7 @@ def collapse(joint: Joint, bearing: Sequence[float], moment: Callable[[np.ndarra
 
 
 def _relative_change(old: float, new: float) -> float:
-    """|new − old| / new, zero when both are zero."""
+    """|new − old| over the larger of the two, zero when they are equal."""
     if new == old:
         return 0.0
     return abs(new - old) / max(abs(new), abs(old))
