@@ -210,6 +210,40 @@ class BoltShearCurve(BearingCurve):
         return np.where(delta < self.delta0, self.k0, exact)
 
 
+@dataclass(frozen=True)
+class CappedCurve(BearingCurve):
+    """A law capped at a strength: q = min(q_law(δ), q_cap), flat from there on.
+
+    The bearing law gives the stiffness; the ply's bearing strength
+    (:mod:`plyshear.mechanics.strengths`) bounds it.
+
+    Attributes:
+        inner: The uncapped law.
+    """
+
+    inner: BearingCurve
+
+    def _q(self, delta: np.ndarray) -> np.ndarray:
+        return np.minimum(self.inner._q(delta), self.q_max)
+
+    def _dq(self, delta: np.ndarray) -> np.ndarray:
+        return np.where(self.inner._q(delta) < self.q_max, self.inner._dq(delta), 0.0)
+
+
+def capped(cv: BearingCurve, q_cap: float) -> BearingCurve:
+    """Return ``cv`` capped at ``q_cap`` (N/mm per mm); unchanged if its own peak is lower.
+
+    A capped law with no deformation limit of its own takes the 1/4 in hole
+    elongation that the 2.4 d t Fu strength is tied to (AISC 360-22
+    Commentary J3.10).
+    """
+    if cv.q_max <= q_cap:
+        return cv
+    limit = cv.delta_limit if math.isfinite(cv.delta_limit) else HOLE_ELONGATION
+    return CappedCurve(name=cv.name, q_max=q_cap, delta_limit=limit, k0=cv.k0,
+                       source=f"{cv.source}; capped at the ply's bearing strength", inner=cv)
+
+
 def rex_easterling_stiffness(bolt: Bolt, ply: Ply) -> tuple[float, float, float, float]:
     r"""Return the Rex & Easterling (2003) initial stiffness of a ply and its parts, N/mm.
 

@@ -24,6 +24,8 @@ HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
 #: Bearing-law names a model file may give; plyshear.mechanics.bearing implements each.
 BEARING_LAWS = ("component", "elastic-plastic", "plate-bearing", "bolt-shear")
 CLEARANCE_MODES = ("fitted", "concentric", "offset")
+#: The bolt's bending in the capacity analysis (see :mod:`plyshear.mechanics.section`).
+BOLT_MODELS = ("strain-hardening", "elastic-plastic", "elastic")
 
 
 @dataclass(frozen=True)
@@ -178,6 +180,12 @@ class Analysis:
             bears from the start), "concentric" or "offset".
         hole_clearance: Diametral hole clearance, mm; None = from the hole
             table of the check standard for the bolt's hole type.
+        bolt: The bolt's bending in the capacity analysis: "strain-hardening"
+            (elastic to fyb, hardening to fub at the grade's minimum elongation),
+            "elastic-plastic" (no hardening) or "elastic" (never yields).
+        deformation_limits: End the incremental analysis at the ply's bearing
+            deformation limit and at the bolt's elongation (False: run to the
+            peak or to a slip of one bolt diameter).
     """
 
     bearing: str = "component"
@@ -185,6 +193,8 @@ class Analysis:
     beam: str = "timoshenko"
     clearance: str = "fitted"
     hole_clearance: float | None = None
+    bolt: str = "strain-hardening"
+    deformation_limits: bool = True
 
 
 @dataclass(frozen=True)

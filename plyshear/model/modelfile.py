@@ -20,6 +20,7 @@ from plyshear.model import catalog
 from plyshear.model.joint import (
     BEAM_THEORIES,
     BEARING_LAWS,
+    BOLT_MODELS,
     CLEARANCE_MODES,
     END_FIXITIES,
     HOLE_TYPES,
@@ -61,7 +62,8 @@ PLY_KEYS = (
     "foundation_modulus", "link_stiffness", "E", "hole_offset",
 )
 MEMBER_KEYS = ("support", "load", "enters")
-ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance")
+ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance", "bolt",
+                 "deformation_limits")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
               "slip_critical", "slip_class", "joint_length")
 
@@ -524,8 +526,12 @@ def _analysis(r: _Reader, a: Mapping[str, Any]) -> Analysis:
     clearance = r.choice(a.get("clearance", "fitted"), "analysis.clearance", CLEARANCE_MODES)
     hole = r.positive(a["hole_clearance"], "analysis.hole_clearance", "length", zero_ok=True) \
         if "hole_clearance" in a else None
+    bolt = r.choice(a.get("bolt", "strain-hardening"), "analysis.bolt", BOLT_MODELS)
+    limits = a.get("deformation_limits", True)
+    if not isinstance(limits, bool):
+        raise r.fail("analysis.deformation_limits", f"must be true or false (got {_kind(limits)})")
     return Analysis(bearing=bearing, elements_per_ply=n, beam=beam, clearance=clearance,
-                    hole_clearance=hole)
+                    hole_clearance=hole, bolt=bolt, deformation_limits=limits)
 
 
 def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:

@@ -1,0 +1,173 @@
+"""The nominal strengths every capacity answer is bounded by, in one place.
+
+For a joint (N, mm, MPa):
+
+* each ply's **bearing strength** as a line load along the bolt, N/mm of bolt
+  length (the ply's total is that times its thickness): the AISC 360-22
+  J3.10(a)(1) nominal bearing and tear-out strengths, hole deformation at
+  service a consideration, per unit thickness:
+  min(2.4·d·F_u, 1.2·l_c·F_u), with l_c = edge − d_h/2 where the ply gives
+  its edge (bearing alone otherwise). A law with a lower ceiling of its own
+  (the Rex & Easterling peak) keeps its own. The bearing law gives the
+  stiffness; this gives the strength, so the linear stiffness laws are
+  bounded too;
+* each section's **shear rupture strength** 0.62·f_ub·A (A = A_s where the
+  section is threaded, the shank's area elsewhere; Kulak, Fisher & Struik
+  1987, :data:`plyshear.mechanics.laws.SHEAR_OVER_TENSION`);
+* each section's **plastic moment** f_yb·d³/6 (d: the shank, or the diameter
+  of the stress area through threads);
+* the **net-section strengths** F_u·(w − d_h)·t of the plies of a bolt row.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+
+import numpy as np
+
+from plyshear.mechanics import laws
+from plyshear.mechanics.assembly import build_mesh, ply_moduli
+from plyshear.mechanics.section import plastic_moment
+from plyshear.model import catalog
+from plyshear.model.joint import Joint
+
+#: AISC 360-22 J3.10(a)(1): tear-out strength 1.2·l_c·t·F_u, hole deformation at
+#: service a design consideration (the companion of 2.4·d·t·F_u).
+C_TEAROUT = 1.2
+#: Hole clearance taken when the standard's hole table has no row for the bolt, mm.
+FALLBACK_CLEARANCE = 2.0
+
+
+def law_name(joint: Joint) -> str:
+    """The nonlinear law behind the model's bearing law ("component" is linear)."""
+    return "linear" if joint.analysis.bearing == "component" else joint.analysis.bearing
+
+
+def hole_clearance(joint: Joint) -> float:
+    """Diametral clearance of the holes, mm: the model's, or the standard's hole table."""
+    if joint.analysis.hole_clearance is not None:
+        return joint.analysis.hole_clearance
+    d = joint.bolt.diameter
+    try:
+        return catalog.hole_diameter(d, joint.bolt.hole, joint.check.standard) - d
+    except catalog.CatalogError:
+        return FALLBACK_CLEARANCE
+
+
+@dataclass(frozen=True)
+class Strengths:
+    """Nominal strengths of a joint.
+
+    Attributes:
+        bearing: Bearing strength of every ply per unit length of bolt, N/mm.
+        bearing_rule: What governs each ply's bearing strength, for the report.
+        curves: Every ply's bearing curve under the model's law, capped at its
+            bearing strength (the incremental analysis uses these).
+        plane: Shear rupture strength of every plane, N (head to nut).
+        plane_threaded: Whether each plane's section is threaded.
+        net_section: Net-section strength of every ply between bolts, N (inf
+            where the ply gives no width).
+        diameter_shank: The shank's diameter, mm.
+        diameter_thread: The diameter of the stress area, mm.
+        fyb: Bolt yield strength, MPa.
+        fub: Bolt tensile strength, MPa.
+        thickness: Every ply's thickness, mm.
+        threaded_along: The bolt's ``threaded_along(z)``, for the section lookups.
+    """
+
+    bearing: np.ndarray
+    bearing_rule: tuple[str, ...]
+    curves: tuple[laws.BearingCurve, ...]
+    plane: np.ndarray
+    plane_threaded: tuple[bool, ...]
+    net_section: np.ndarray
+    diameter_shank: float
+    diameter_thread: float
+    fyb: float
+    fub: float
+    thickness: np.ndarray
+    threaded_along: Callable[[np.ndarray], np.ndarray]
+
+    def diameter(self, threaded: np.ndarray) -> np.ndarray:
+        """Section diameter where ``threaded`` (mm)."""
+        return np.where(threaded, self.diameter_thread, self.diameter_shank)
+
+    def moment(self, z: np.ndarray) -> np.ndarray:
+        """Plastic moment of the bolt section at ``z``, N·mm."""
+        return plastic_moment(self.fyb, self.diameter(self.threaded_along(np.asarray(z))))
+
+    def shear(self, z: np.ndarray) -> np.ndarray:
+        """Shear rupture strength of the bolt section at ``z``, N."""
+        d = self.diameter(self.threaded_along(np.asarray(z)))
+        return laws.SHEAR_OVER_TENSION * self.fub * np.pi * d**2 / 4.0
+
+    @property
+    def ply_force(self) -> np.ndarray:
+        """Every ply's total bearing strength, N (line strength × thickness)."""
+        return self.bearing * self.thickness
+
+    @property
+    def shank_moment(self) -> float:
+        """The shank's plastic moment, N·mm."""
+        return float(plastic_moment(self.fyb, self.diameter_shank))
+
+
+def plane_strength(joint: Joint, threaded: bool) -> float:
+    """Shear rupture strength of one plane of the bolt, N (0.62·fub·A)."""
+    area = joint.bolt.stress_area if threaded else joint.bolt.gross_area
+    return laws.SHEAR_OVER_TENSION * joint.bolt.fub * area
+
+
+def plane_threads(joint: Joint) -> tuple[bool, ...]:
+    """Whether the bolt is threaded at each plane (head to nut)."""
+    mesh = build_mesh(joint)
+    return tuple(joint.bolt.threaded_at(float(mesh.z[n])) for n in mesh.plane_nodes)
+
+
+def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
+    """Every ply's bearing strength per unit bolt length (N/mm) and what governs it."""
+    d = joint.bolt.diameter
+    dh = d + hole_clearance(joint)
+    q, rule = [], []
+    for p in joint.plies:
+        bearing = laws.C_BEARING * d * p.fu
+        if p.edge is not None and C_TEAROUT * (p.edge - dh / 2.0) * p.fu < bearing:
+            q.append(max(C_TEAROUT * (p.edge - dh / 2.0) * p.fu, 0.0))
+            rule.append("tear-out 1.2 lc t fu")
+        else:
+            q.append(bearing)
+            rule.append("bearing 2.4 d t fu")
+    return np.array(q), tuple(rule)
+
+
+def strengths(joint: Joint) -> Strengths:
+    """Return the nominal strengths of ``joint``.
+
+    Raises:
+        ValueError: If a ply's bearing law cannot be built (e.g. an edge
+            distance that leaves no material beyond the hole).
+    """
+    b = joint.bolt
+    q, rule = ply_bearing(joint)
+    name = law_name(joint)
+    curves, rules = [], list(rule)
+    for j, (p, k) in enumerate(zip(joint.plies, ply_moduli(joint), strict=True)):
+        cv = laws.curve(name, b, p, float(k))
+        if cv.q_max <= q[j]:
+            q[j] = cv.q_max
+            rules[j] = f"{cv.name} law's peak"
+        else:
+            cv = laws.capped(cv, float(q[j]))
+        curves.append(cv)
+    threads = plane_threads(joint)
+    d0 = b.diameter + hole_clearance(joint)
+    net = np.array([p.fu * (p.width - d0) * p.thickness if p.width is not None else math.inf
+                    for p in joint.plies])
+    return Strengths(
+        bearing=q, bearing_rule=tuple(rules), curves=tuple(curves),
+        plane=np.array([plane_strength(joint, t) for t in threads]), plane_threaded=threads,
+        net_section=net, diameter_shank=b.diameter,
+        diameter_thread=math.sqrt(4.0 * b.stress_area / math.pi), fyb=b.fyb, fub=b.fub,
+        thickness=np.array([p.thickness for p in joint.plies]), threaded_along=b.threaded_along)
