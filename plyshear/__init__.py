@@ -7,6 +7,7 @@ The stable Python API::
     sol = plyshear.solve(joint)                    # linear solution
     sol.to_dict()                                  # the JSON result
     res = plyshear.check(joint, sol)               # .to_dict() gives the "check" section
+    cap = plyshear.capacity(sol)                   # every capacity answer (nominal, N)
 
 Imports are lazy so that ``plyshear --help`` starts without loading scipy.
 """
@@ -20,6 +21,7 @@ __version__ = "0.1.0"
 
 if TYPE_CHECKING:
     from plyshear.codes.check import CheckResult
+    from plyshear.mechanics.capacity import CapacitySummary
     from plyshear.mechanics.results import Solution
     from plyshear.model.joint import Joint
 
@@ -28,6 +30,7 @@ __all__ = [
     "ModelError",
     "SolveError",
     "__version__",
+    "capacity",
     "check",
     "load_model",
     "solve",
@@ -106,3 +109,23 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
     from plyshear.codes.check import check as _check
 
     return _check(joint, solution, standard, method)
+
+
+def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
+    """Every capacity answer of a joint: elastic, nonlinear, collapse and shear-only.
+
+    Args:
+        joint_or_solution: The joint, or its linear solution (which carries the
+            joint and is not solved again).
+
+    Returns:
+        The summary: ``.elastic``, ``.nonlinear`` (with ``.analysis.events``),
+        ``.collapse`` (with ``.mechanism``), ``.plastic`` (the shear-only
+        bound), ``.strengths``; nominal loads in N.
+
+    Raises:
+        plyshear.mechanics.capacity.CapacityError: If an analysis fails.
+    """
+    from plyshear.mechanics.capacity import summarize
+
+    return summarize(joint_or_solution)

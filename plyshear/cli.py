@@ -194,31 +194,14 @@ def _summarize(joint: Any) -> Any:
         fail(f"{joint.source}: capacity: {exc}")
 
 
-def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
-    """The JSON ``capacity`` section, in the joint's units."""
-    from plyshear import units
+def _check_quietly(joint: Any, sol: Any) -> Any:
+    """The check of a solution for the capacity's verdict line, or None if it cannot run."""
+    from plyshear.codes.check import check
 
-    u = units.system(joint.units)
-    f, ln = u.factor("force"), u.factor("length")
-
-    def answer(a: Any) -> dict[str, Any]:
-        where = a.where if a.z is None else f"{a.where} at z = {a.z / ln:.4g} {u.label('length')}"
-        return {"load": a.load / f, "event": a.event, "where": where}
-
-    hist = summary.analysis.history
-    return {
-        "planes": summary.planes,
-        "plane_strength": summary.plane_strength / f,
-        "elastic": answer(summary.elastic),
-        "nonlinear": answer(summary.nonlinear),
-        "plastic": {"load": summary.plastic.load / f, "cut": list(summary.cut)},
-        "efficiency": {k: summary.efficiency(getattr(summary, k).load)
-                       for k in ("elastic", "nonlinear", "plastic")},
-        "bearing": joint.analysis.bearing,
-        "clearance": joint.analysis.clearance,
-        "curve": {"slip": [s.slip / ln for s in hist], "load": [s.load / f for s in hist],
-                  "plane_shear": [(s.plane_shear / f).tolist() for s in hist]},
-    }
+    try:
+        return check(joint, sol)
+    except ValueError:
+        return None
 
 
 @main.command("capacity")
@@ -233,10 +216,13 @@ def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
 def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
                  scatter: int | None, seed: int) -> None:
-    """Find the ultimate capacity of MODEL: elastic, nonlinear and plastic.
+    """Find the ultimate capacity of MODEL: elastic, nonlinear, collapse, shear-only.
 
-    Nominal strengths, no resistance factors. The bearing law is the model's
-    [analysis] bearing (a nonlinear law such as "plate-bearing" for redistribution).
+    Nominal strengths, each with its design value under the model's standard
+    (AISC phi or 1/Omega, EN 1/gamma_M2) beside it, and a line that sets the
+    nonlinear design capacity against the model's load and the check's verdict.
+    The bearing law is the model's [analysis] bearing, capped at each ply's
+    bearing strength; the bolt yields as [analysis] bolt says.
     With --scatter, the plies' holes are placed at random within the clearance and
     the spread of the worst plane shear and of the capacity is reported; --plot then
     draws their histograms.
@@ -247,14 +233,17 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         _scatter(joint, scatter, seed, as_json, target, force)
         return
     summary = _summarize(joint)
+    result = _check_quietly(joint, summary.solution)
     if as_json:
-        data = _solve(joint).to_dict(diagram=False)
-        data["capacity"] = capacity_dict(summary, joint)
+        from plyshear.report.capacity_data import capacity_dict
+
+        data = summary.solution.to_dict(diagram=False)
+        data["capacity"] = capacity_dict(summary, joint, result)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import capacity_text
 
-        click.echo(capacity_text(summary, joint))
+        click.echo(capacity_text(summary, joint, result))
     if target is not None:
         from plyshear.report import diagrams
 
@@ -320,6 +309,8 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
         fail(f"{model}: planes: {exc}")
     if as_json:
         from plyshear import units
+        from plyshear.report.capacity_data import capacity_dict
+        from plyshear.report.text import plane_gains
 
         variants = []
         for r in rows:
@@ -327,7 +318,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
             entry.pop("curve")
             variants.append(entry)
         data = {"format": 1, "units": units.system(joint.units).labels(), "keep": keep,
-                "planes": variants}
+                "planes": variants, "gains": plane_gains(rows, joint)}
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import planes_text
@@ -361,7 +352,8 @@ SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
               help="Write a chart of --response against the varied keys (.png, .svg, .pdf).")
 @click.option("--response", default="utilization", show_default=True,
               help="The plotted column: utilization, max_shear, max_moment, "
-                   "capacity_elastic, capacity_nonlinear, capacity_plastic, shear_plane_N.")
+                   "capacity_elastic, capacity_nonlinear, capacity_collapse, capacity_plastic, "
+                   "shear_plane_N.")
 @click.option("--x", "x_key", default=None, help="Key on the chart's x axis (default: the "
               "first varied).")
 @click.option("--series", default=None, help="Key drawn as one line per value (default: the "
@@ -451,13 +443,15 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
     where = f"{model}: sweep: --response {response}"
     if response_dimension(response) is None:
         fail(f"{model}: sweep: --response {response!r} cannot be plotted; use utilization, "
-             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_plastic, "
+             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_collapse, "
+             "capacity_plastic, "
              "efficiency_nonlinear or shear_plane_N")
     if response == "utilization" and no_check:
         fail(f"{where} needs the check (drop --no-check)")
     if response == "capacity_elastic" and capacity == "none":
         fail(f"{where} needs --capacity elastic or full")
-    if response in ("capacity_nonlinear", "capacity_plastic", "efficiency_nonlinear") and \
+    if response in ("capacity_nonlinear", "capacity_collapse", "capacity_plastic",
+                    "efficiency_nonlinear") and \
             capacity != "full":
         fail(f"{where} needs --capacity full")
     if response.startswith("shear_plane_") and not 1 <= int(response[12:]) <= planes:

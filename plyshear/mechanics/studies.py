@@ -27,16 +27,36 @@ from plyshear.model.joint import Joint, Ply
 KEEP_MODES = ("total", "ply")
 
 
+def packs_between(joint: Joint) -> dict[tuple[str, str], tuple[Ply, ...]]:
+    """The fillers and packs of the model's stack, by the pair of members they separate.
+
+    For each ordered pair (X, Y) of members, the loose plies between the first
+    ply of X that is followed (after loose plies only) by a ply of Y.
+    """
+    out: dict[tuple[str, str], tuple[Ply, ...]] = {}
+    last: str | None = None
+    pending: list[Ply] = []
+    for p in joint.plies:
+        if p.member is None:
+            pending.append(p)
+            continue
+        if last is not None and last != p.member:
+            out.setdefault((last, p.member), tuple(pending))
+        last, pending = p.member, []
+    return out
+
+
 def rebuild(joint: Joint, planes: int, keep: str = "total") -> Joint:
     """Return the model's two-member stack rebuilt with ``planes`` shear planes.
 
-    The plies alternate between the member of the first ply (A, also the last
-    ply when ``planes`` is even… and odd alike: A B A B …) and the other member
-    (B), copying each member's first ply for steel, edge and width. Fillers
-    and gaps are dropped.
+    The plies alternate between the member of the first ply (A) and the other
+    member (B): A B A B …, copying each member's first ply for steel, edge and
+    width. Every plane from X to Y keeps the fillers and packs the model has
+    between its first ply of X and the next of Y (so the model's own plane
+    count rebuilds the model's stack). Gaps and hole offsets are dropped.
 
     Args:
-        joint: A joint whose plies belong to exactly two members.
+        joint: A joint whose plies belong to exactly two members (and fillers).
         planes: Number of shear planes, ≥ 1.
         keep: ``"total"``: each member keeps its total thickness, shared
             equally among its plies; ``"ply"``: each ply keeps its member's
@@ -67,9 +87,16 @@ def rebuild(joint: Joint, planes: int, keep: str = "total") -> Joint:
     for m in members:
         own = [p.thickness for p in plies if p.member == m]
         thick[m] = sum(own) / count[m] if keep == "total" else sum(own) / len(own)
-    new = []
+    pack = packs_between(joint)
+    new: list[Ply] = []
     seen = {m: 0 for m in members}
-    for m in order:
+    fillers = 0
+    for i, m in enumerate(order):
+        if i:
+            for f in pack.get((order[i - 1], m), ()):  # type: ignore[arg-type]
+                fillers += 1
+                new.append(dataclasses.replace(f, name=f"{f.name}-{fillers}", gap=0.0,
+                                               hole_offset=0.0))
         seen[m] += 1
         new.append(dataclasses.replace(template[m], name=f"{m}-{seen[m]}", thickness=thick[m],
                                        gap=0.0, hole_offset=0.0))

@@ -275,10 +275,12 @@ def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = Non
     slip = [s.slip / u.factor("length") for s in hist]
     load = [s.load / u.factor("force") for s in hist]
     ax.plot(slip, load, color=INK, linewidth=1.4, marker=".", markersize=3)
-    ax.axhline(summary.plastic.load / u.factor("force"), color=INK, linestyle="--",
-               linewidth=0.8)
-    ax.annotate("plastic bound", (slip[-1], summary.plastic.load / u.factor("force")),
-                fontsize=7, xytext=(-60, 3), textcoords="offset points")
+    for answer, label, style in ((summary.collapse, "collapse (LP)", "-."),
+                                 (summary.plastic, "shear-only bound", "--")):
+        level = answer.load / u.factor("force")
+        ax.axhline(level, color=INK, linestyle=style, linewidth=0.8)
+        ax.annotate(label, (slip[-1], level), fontsize=7, xytext=(-70, 3),
+                    textcoords="offset points")
     ax.plot([slip[-1]], [load[-1]], marker="x", color=INK)
     ax.set_xlabel(f"slip along the load [{u.label('length')}]")
     ax.set_ylabel(f"load [{u.label('force')}]")

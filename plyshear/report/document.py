@@ -53,7 +53,7 @@ def build(joint: Joint) -> ReportData:
     sol = solve(joint)
     res = check(joint, sol)
     try:
-        cap: CapacitySummary | None = summarize(joint)
+        cap: CapacitySummary | None = summarize(sol)
         note = ""
     except CapacityError as exc:
         cap, note = None, f"capacity not available: {exc}"
@@ -245,7 +245,7 @@ def to_html(data: ReportData) -> str:
                      f"({_esc(gov.clause)}).</p>")
     parts.append("<h2>5 Capacity and plane efficiency</h2>")
     if data.capacity is not None:
-        parts.append(f"<pre>{_esc(capacity_text(data.capacity, joint))}</pre>")
+        parts.append(f"<pre>{_esc(capacity_text(data.capacity, joint, data.check))}</pre>")
         fig = diagrams.capacity_figure(data.capacity, joint)
         parts.append(f"<figure>{_svg(fig)}</figure>")
     else:
@@ -281,7 +281,7 @@ def to_pdf(data: ReportData) -> bytes:
         fig.set_size_inches(11.69, 8.27)
         pdf.savefig(fig)
         _text_page(pdf, "Design check", check_text(data.check, data.solution).splitlines())
-        lines = (capacity_text(data.capacity, joint).splitlines() if data.capacity
+        lines = (capacity_text(data.capacity, joint, data.check).splitlines() if data.capacity
                  else [data.capacity_note])
         lines += ["", "ASSUMPTIONS", *[f"- {a}" for a in assumptions(data)]]
         _text_page(pdf, "Capacity and assumptions", lines)

@@ -17,6 +17,7 @@ RESPONSES = {
     "max_moment": "moment",
     "capacity_elastic": "force",
     "capacity_nonlinear": "force",
+    "capacity_collapse": "force",
     "capacity_plastic": "force",
     "efficiency_nonlinear": "ratio",
 }

@@ -202,47 +202,68 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     return "\n".join(out)
 
 
-def capacity_text(summary: CapacitySummary, joint: Joint) -> str:
-    """Return the terminal report of the capacity analysis."""
+def capacity_text(summary: CapacitySummary, joint: Joint,
+                  result: CheckResult | None = None) -> str:
+    """Return the terminal report of the capacity analysis.
+
+    Args:
+        summary: The capacity answers.
+        joint: The joint (units, settings).
+        result: The check of the same solution, for the verdict line (optional).
+    """
+    from plyshear.report import capacity_data as cd
+
     u = _units.system(joint.units)
     f, lf = u.factor("force"), u.label("force")
-
-    def place(a: Answer) -> str:
-        if a.z is not None:
-            return f"{a.where} at z = {fmt(a.z / u.factor('length'))} {u.label('length')}"
-        return a.where
-
-    rows = [
-        ["elastic (linear, first event)", fmt(summary.elastic.load / f),
-         f"{summary.efficiency(summary.elastic.load):.2f}",
-         f"{summary.elastic.event}, {place(summary.elastic)}"],
-        ["nonlinear (first event)", fmt(summary.nonlinear.load / f),
-         f"{summary.efficiency(summary.nonlinear.load):.2f}",
-         f"{summary.nonlinear.event}, {place(summary.nonlinear)}"],
-        ["plastic bound (max flow)", fmt(summary.plastic.load / f),
-         f"{summary.efficiency(summary.plastic.load):.2f}", f"cut: {summary.plastic.where}"],
-    ]
+    k, basis = cd.factor(joint)
+    rows = []
+    for name, label in cd.ANSWERS:
+        a = summary.answers[name]
+        what = {"collapse": cd.mechanism_short(summary), "plastic": f"cut: {a.where}"}.get(
+            name, f"{a.event}, {cd.where(a, joint)}")
+        rows.append([label, fmt(a.load / f), fmt(a.load * k / f),
+                     f"{summary.efficiency(a.load):.2f}", what])
     title = joint.title or (joint.source or "joint")
+    a = joint.analysis
     out = [title,
-           f"capacity: bearing law {joint.analysis.bearing}, clearance "
-           f"{joint.analysis.clearance}, nominal strengths (no resistance factors)",
+           f"capacity: bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; "
+           f"nominal strengths; design = nominal x {k:.3g} ({basis})",
            f"{summary.planes} planes between members; one plane's rupture strength "
            f"0.62 fub A = {fmt(summary.plane_strength / f)} {lf}", ""]
-    out.append(table(["answer", f"load [{lf}]", "efficiency", "first event / mechanism"],
-                     rows, "lrrl"))
+    out.append(table(["answer", f"nominal [{lf}]", f"design [{lf}]", "efficiency",
+                      "end event / mechanism"], rows, "lrrrl"))
     out.append("")
     out.append("efficiency = load / (planes x one plane's strength): 1.00 means every plane "
                "pulls its full weight")
-    peak = summary.analysis.peak
-    out.append(f"nonlinear analysis: {len(summary.analysis.history)} states, peak load "
-               f"{fmt(peak / f)} {lf}")
+    out.append("collapse mechanism: " + ("; ".join(cd.mechanism_parts(summary, joint))
+                                         or "no active constraint"))
+    out.append("")
+    out.append("nonlinear analysis, in order:")
+    ev_rows = [[fmt(e.load / f), e.event, cd.where(Answer(e.load, e.event, e.where, e.z), joint)]
+               for e in summary.analysis.events]
+    out.append(table([f"load [{lf}]", "event", "where"], ev_rows, "rll"))
+    out.append(f"({len(summary.analysis.history)} states, peak load "
+               f"{fmt(summary.analysis.peak / f)} {lf})")
+    out.append("")
+    s = summary.strengths
+    st_rows = [[f"ply {p.name}", fmt(float(q) / f), r]
+               for p, q, r in zip(joint.plies, s.ply_force, s.bearing_rule, strict=True)]
+    st_rows += [[f"plane {i + 1}", fmt(float(v) / f),
+                 "0.62 fub As (threads)" if t else "0.62 fub Ab (shank)"]
+                for i, (v, t) in enumerate(zip(s.plane, s.plane_threaded, strict=True))]
+    out.append(table(["strength", f"nominal [{lf}]", "rule"], st_rows, "lrl"))
+    out.append(f"bolt plastic moment (shank) fyb d^3/6 = "
+               f"{fmt(s.shank_moment / u.factor('moment'))} {u.label('moment')}")
+    out.append("")
+    out.append(cd.verdict(summary, joint, result).text)
+    out += [f"note: {n}" for n in cd.notes(summary, joint)]
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)
 
 
 def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
-    """Return the planes study as a table: capacity and efficiency per number of planes."""
+    """Return the planes study: capacities and efficiencies per number of planes, and gains."""
     u = _units.system(joint.units)
     f, lf = u.factor("force"), u.label("force")
     table_rows = []
@@ -250,27 +271,37 @@ def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
         s = r.summary
         table_rows.append([
             str(r.planes), fmt(s.plane_strength * r.planes / f), fmt(s.elastic.load / f),
-            fmt(s.nonlinear.load / f), fmt(s.plastic.load / f),
-            f"{s.efficiency(s.elastic.load):.2f}", f"{s.efficiency(s.nonlinear.load):.2f}",
-            f"{s.efficiency(s.plastic.load):.2f}", s.nonlinear.event,
+            fmt(s.nonlinear.load / f), fmt(s.collapse.load / f), fmt(s.plastic.load / f),
+            f"{s.efficiency(s.nonlinear.load):.2f}", f"{s.efficiency(s.collapse.load):.2f}",
+            s.nonlinear.event,
         ])
     what = "each member keeps its total thickness" if keep == "total" \
         else "each ply keeps its thickness"
     out = [joint.title or (joint.source or "joint"),
-           f"planes study: the stack rebuilt with 2 to {rows[-1].planes} planes ({what}); "
-           "nominal strengths", ""]
+           f"planes study: the stack rebuilt with 2 to {rows[-1].planes} planes ({what}, "
+           "fillers and packs kept); nominal strengths", ""]
     out.append(table(["planes", f"n x plane [{lf}]", f"elastic [{lf}]", f"nonlinear [{lf}]",
-                      f"plastic [{lf}]", "eff. el.", "eff. nl.", "eff. pl.",
-                      "first event (nonlinear)"], table_rows, "rrrrrrrrl"))
-    gains = [(b.planes, b.summary.nonlinear.load - a.summary.nonlinear.load)
-             for a, b in zip(rows, rows[1:], strict=False)]
+                      f"collapse [{lf}]", f"shear-only [{lf}]", "eff. nl.", "eff. coll.",
+                      "end of the nonlinear analysis"], table_rows, "rrrrrrrrl"))
     out.append("")
-    for n, gain in gains:
-        verb = "adds" if gain > 0 else "loses"
-        out.append(f"plane {n}: {verb} {fmt(abs(gain) / f)} {lf} of nonlinear capacity")
+    out += plane_gains(rows, joint)
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)
+
+
+def plane_gains(rows: list[PlanesRow], joint: Joint) -> list[str]:
+    """One sentence per added plane: what it adds to the nonlinear and collapse loads."""
+    u = _units.system(joint.units)
+    f, lf = u.factor("force"), u.label("force")
+    out = []
+    for a, b in zip(rows, rows[1:], strict=False):
+        nl = b.summary.nonlinear.load - a.summary.nonlinear.load
+        lp = b.summary.collapse.load - a.summary.collapse.load
+        pct = 100.0 * nl / a.summary.nonlinear.load
+        out.append(f"plane {b.planes} adds {fmt(nl / f)} {lf} ({pct:+.1f} %) to the nonlinear "
+                   f"ultimate and {fmt(lp / f)} {lf} to the collapse load")
+    return out
 
 
 def scatter_text(result: ScatterResult, joint: Joint) -> str:

@@ -14,7 +14,7 @@ from plyshear import units as _units
 #: Columns shown on the terminal (the files carry them all).
 TERMINAL = ("case", "error", "max_shear", "worst_bolt", "worst_plane", "max_moment", "utilization",
             "passes", "informative", "capacity_elastic", "load_factor", "capacity_nonlinear",
-            "capacity_plastic")
+            "capacity_collapse", "capacity_plastic")
 #: Rows printed on the terminal before the rest is summarised.
 TERMINAL_ROWS = 40
 

@@ -68,8 +68,8 @@ def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) 
     if options.capacity != "none":
         cols += ["capacity_elastic", "load_factor", "capacity_event"]
     if options.capacity == "full":
-        cols += ["capacity_nonlinear", "nonlinear_event", "capacity_plastic",
-                 "efficiency_nonlinear"]
+        cols += ["capacity_nonlinear", "nonlinear_event", "capacity_collapse",
+                 "capacity_plastic", "efficiency_nonlinear"]
     return cols
 
 
@@ -178,13 +178,14 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
         from plyshear.mechanics.capacity import summarize
 
         try:
-            s = summarize(joint)
+            s = summarize(sol)
         except CapacityError as exc:
             out["nonlinear_event"] = str(exc)
         else:
             out["capacity_nonlinear"] = s.nonlinear.load / f
             out["nonlinear_event"] = f"{s.nonlinear.event}, {s.nonlinear.where}"
-            out["capacity_plastic"] = s.plastic.load / f
+            out["capacity_collapse"] = s.collapse.load / f
+            out["capacity_plastic"] = s.plastic.load / f  # the shear-only bound
             out["efficiency_nonlinear"] = _finite(s.efficiency(s.nonlinear.load))
     return out
 

@@ -25,7 +25,7 @@ EXAMPLES = sorted(MODELS.glob("*.toml"))
 KN = 1e3  # N per kN: the FORK fixture is in kN-mm
 # JSON floats print with repr: the division by the unit factor is the only rounding.
 REL_ROUNDOFF = 1e-12
-ANSWER_KEYS = {"load", "event", "where"}
+ANSWER_KEYS = {"load", "design_load", "event", "where"}
 PNG_MAGIC = b"\x89PNG\r\n\x1a\n"
 
 FORK_EP = FORK + '[analysis]\nbearing = "elastic-plastic"\n'
@@ -42,9 +42,13 @@ def test_json_capacity_section_keeps_the_contract(write_model) -> None:
     cap = _capacity_json(path)["capacity"]
     assert {"planes", "plane_strength", "elastic", "nonlinear", "plastic", "efficiency"} <= set(cap)
     assert set(cap["elastic"]) == ANSWER_KEYS
-    assert set(cap["nonlinear"]) == ANSWER_KEYS
-    assert set(cap["plastic"]) == {"load", "cut"}
-    assert set(cap["efficiency"]) == {"elastic", "nonlinear", "plastic"}
+    assert set(cap["nonlinear"]) == ANSWER_KEYS | {"events", "peak"}
+    assert set(cap["plastic"]) == {"load", "design_load", "cut"}
+    assert set(cap["collapse"]) >= {"load", "design_load", "efficiency", "mechanism"}
+    assert set(cap["collapse"]["mechanism"]) >= {"hinges", "bearing", "planes"}
+    assert set(cap["strengths"]) == {"bolt_plastic_moment", "planes", "plies"}
+    assert set(cap["efficiency"]) == {"elastic", "nonlinear", "collapse", "plastic"}
+    assert all(set(e) == {"event", "load", "where"} for e in cap["nonlinear"]["events"])
     assert cap["planes"] == 2  # leg | lug | leg
     joint = plyshear.load_model(path)
     # Kulak, Fisher & Struik (1987): 0.62 fub A_s (threads assumed in every plane
@@ -58,19 +62,23 @@ def test_json_capacity_section_keeps_the_contract(write_model) -> None:
 def test_json_efficiency_is_load_over_planes_times_strength(write_model) -> None:
     cap = _capacity_json(write_model(FORK_EP))["capacity"]
     full = cap["planes"] * cap["plane_strength"]
-    for key in ("elastic", "nonlinear", "plastic"):
+    for key in ("elastic", "nonlinear", "collapse", "plastic"):
         assert cap["efficiency"][key] == pytest.approx(cap[key]["load"] / full, rel=REL_ROUNDOFF)
-    assert cap["nonlinear"]["load"] <= cap["plastic"]["load"]
+    assert cap["collapse"]["load"] <= cap["plastic"]["load"]
 
 
 def test_json_loads_are_the_summary_in_model_units(write_model) -> None:
     path = write_model(FORK_EP)
     cap = _capacity_json(path)["capacity"]
     summary = capacity.summarize(plyshear.load_model(path))
-    for key in ("elastic", "nonlinear", "plastic"):
+    for key in ("elastic", "nonlinear", "collapse", "plastic"):
         ref = getattr(summary, key).load / KN
         assert cap[key]["load"] == pytest.approx(ref, rel=REL_ROUNDOFF)
     assert cap["nonlinear"]["event"] == summary.nonlinear.event
+    # the design value is the nominal times the standard's factor: the fixture is AISC
+    # LRFD, phi = 0.75 (AISC 360-22 J3.6)
+    for key in ("elastic", "nonlinear", "collapse", "plastic"):
+        assert cap[key]["design_load"] == pytest.approx(0.75 * cap[key]["load"], rel=1e-12)
 
 
 def test_plot_writes_a_png_and_refuses_to_overwrite(write_model, tmp_path) -> None:

@@ -92,11 +92,15 @@ def test_alternating_stack_bound_is_planes_times_plane_strength(planes) -> None:
     assert bound.load == pytest.approx(planes * strength, rel=REL_MAXFLOW)
     assert bound.cut == tuple(f"plane {i}" for i in range(1, planes + 1))
     assert capacity.separating_planes(joint) == planes
-    # the same through the summary: the linear ("component") law has no bearing cap
+    # the same through the summary, where every ply's bearing is bounded too:
+    # AISC 360-22 J3.10(a), 2.4 d t Fu per ply (no edge given: bearing, not tear-out)
     summary = capacity.summarize(joint)
-    assert summary.plastic.load == pytest.approx(planes * strength, rel=REL_MAXFLOW)
-    assert summary.cut == bound.cut
-    assert summary.efficiency(summary.plastic.load) == pytest.approx(1.0, rel=REL_MAXFLOW)
+    q = [2.4 * joint.bolt.diameter * p.fu * p.thickness for p in joint.plies]
+    loaded = [p.member == "b" for p in joint.plies]
+    expected = _cheapest_cut([strength] * planes, q, loaded)
+    assert summary.plastic.load == pytest.approx(expected, rel=REL_MAXFLOW)
+    assert summary.efficiency(summary.plastic.load) == pytest.approx(
+        expected / (planes * strength), rel=REL_MAXFLOW)
 
 
 @pytest.mark.parametrize(
@@ -123,8 +127,11 @@ def test_summary_plastic_bound_of_the_fork_example() -> None:
     sol = plyshear.solve(joint)
     # Kulak, Fisher & Struik (1987): 0.62 fub A, A by the thread at each plane
     r = [capacity.plane_strength(joint, p.threads) for p in sol.planes]
-    # AISC 360-22 J3.10(a): 2.4 d t Fu per ply, the elastic-plastic law's yield
-    q = [2.4 * joint.bolt.diameter * p.fu * p.thickness for p in joint.plies]
+    # AISC 360-22 J3.10(a)(1): min(2.4 d t Fu, 1.2 lc t Fu), lc = edge - dh/2, with
+    # dh = d + 2 mm for an M24 in a normal hole (EN 1090-2:2018 Table 11)
+    d = joint.bolt.diameter
+    q = [min(2.4 * d * p.fu, 1.2 * (p.edge - (d + 2.0) / 2.0) * p.fu) * p.thickness
+         for p in joint.plies]
     loaded = [not joint.members[joint.member_index()[p.member]].support for p in joint.plies]
     expected = _cheapest_cut(r, q, loaded)
     assert summary.plastic.load == pytest.approx(expected, rel=REL_MAXFLOW)
