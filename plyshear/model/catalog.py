@@ -2,7 +2,9 @@
 
 Every table is a CSV file in ``plyshear/model/data`` with a ``source`` column
 naming the published source of the row (``from memory: ...`` where the value
-was recalled rather than read). The files are read once, on first use, with
+was recalled rather than read). Provenance stays in the catalogue and the docs:
+a message a user reads names the standard and the range only (the steels'
+``standard`` column). The files are read once, on first use, with
 :mod:`importlib.resources`.
 
 Internal units are N, mm and MPa. Inch data are stored in inches (sizes,
@@ -83,15 +85,19 @@ class PlateSteel:
     Attributes:
         key: Model-file key ("S355", "A36", ...).
         E: Elastic modulus, MPa.
-        source: Published sources of the thickness bands, "; "-joined.
+        source: Published sources of the thickness bands, "; "-joined (provenance:
+            for the catalogue and the docs, never for a user's error line).
         bands: ``(t_max, fy, fu)`` per band in increasing ``t_max``, mm and MPa;
             a band covers ``previous t_max < t <= t_max``.
+        standard: The standard and table the bands come from, as an error line
+            names it ("EN 1993-1-1:2005 Table 3.1, EN 10025-2").
     """
 
     key: str
     E: float
     source: str
     bands: tuple[tuple[float, float, float], ...] = ()
+    standard: str = ""
 
     def strength(self, t: float) -> tuple[float, float]:
         """Yield and tensile strength for a thickness.
@@ -112,8 +118,8 @@ class PlateSteel:
                 return fy, fu
         t_top = self.bands[-1][0]
         raise ValueError(
-            f"steel {self.key}: thickness {t} mm is outside the tabulated range "
-            f"0 < t <= {t_top:g} mm ({self.source.split('; ')[0]})"
+            f"steel {self.key}: thickness {t:g} mm is outside the tabulated range "
+            f"0 < t <= {t_top:g} mm ({self.standard})"
         )
 
 
@@ -187,6 +193,7 @@ def _steels() -> dict[str, PlateSteel]:
     bands: dict[str, list[tuple[float, float, float]]] = {}
     sources: dict[str, list[str]] = {}
     moduli: dict[str, float] = {}
+    standards: dict[str, str] = {}
     for row in _rows("steels.csv"):
         key = row["key"]
         unit = row["unit"]
@@ -197,12 +204,14 @@ def _steels() -> dict[str, PlateSteel]:
         if row["source"] not in sources.setdefault(key, []):
             sources[key].append(row["source"])
         moduli[key] = float(row["E"])
+        standards[key] = row["standard"]
     return {
         key: PlateSteel(
             key=key,
             E=moduli[key],
             source="; ".join(sources[key]),
             bands=tuple(sorted(bands[key])),
+            standard=standards[key],
         )
         for key in bands
     }
