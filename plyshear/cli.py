@@ -175,6 +175,7 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     if as_json:
         data = sol.to_dict()
         data["check"] = result.to_dict()
+        data["warnings"] = data["warnings"] + list(result.warnings)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import check_text
@@ -519,6 +520,8 @@ def validate_cmd(model: str) -> None:
                f"units {joint.units}, check {joint.check.standard}")
     for w in sanity.warnings(joint):
         click.echo(f"warning: {w}")
+    for note in sanity.notes(joint):
+        click.echo(f"note: {note}")
 
 
 @main.command("demo")

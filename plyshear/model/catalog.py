@@ -34,7 +34,8 @@ _ROUNDOFF = 1e-9  # mm: keeps the tolerance inclusive despite binary round-off
 
 HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
 STANDARDS = ("aisc360-22", "en1993-1-8")
-DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv")
+DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv",
+              "nuts.csv")
 
 
 class CatalogError(KeyError):
@@ -240,6 +241,16 @@ def _astm_thread_lengths() -> tuple[tuple[float, str, float], ...]:
         (float(r["d_mm"]), r["label"], float(r["thread_length_in"]) * MM_PER_IN)
         for r in _rows("thread_lengths_astm.csv")
     )
+
+
+@cache
+def _nuts() -> tuple[tuple[float, float], ...]:
+    """``(d mm, nut height mm)`` per size."""
+    rows = []
+    for r in _rows("nuts.csv"):
+        scale = MM_PER_IN if r["unit"] == "in" else 1.0
+        rows.append((_parse_number(r["d"]) * scale, _parse_number(r["height"]) * scale))
+    return tuple(rows)
 
 
 @cache
@@ -470,6 +481,24 @@ def thread_length(d: float, grade: str, length: float | None = None) -> float:
         else:
             b = 2.0 * d + 25.0
     return b if length is None else min(b, length)
+
+
+def nut_height(d: float) -> float | None:
+    """Height of the nut of a tabulated size.
+
+    ISO 4032 hexagon nuts (style 1, the largest height m) for metric sizes;
+    ASME B18.2.2 heavy hex nuts (the ASTM A563 structural nut) for inch sizes.
+
+    Args:
+        d: Nominal diameter, mm.
+
+    Returns:
+        Nut height, mm, or None if the size is not tabulated.
+    """
+    for d_tab, height in _nuts():
+        if abs(d_tab - d) <= SIZE_TOL + _ROUNDOFF:
+            return height
+    return None
 
 
 # --------------------------------------------------------------------------- holes
