@@ -160,7 +160,7 @@ def test_en_1993_1_1_table_3_1_beyond_80_mm_raises(key):
 
 
 def test_out_of_range_message_names_the_standard_and_range_not_the_provenance():
-    with pytest.raises(ValueError) as info:
+    with pytest.raises(ValueError, match="outside the tabulated range") as info:
         catalog.steel("S355").strength(90.0)
     # EN 1993-1-1:2005 Table 3.1 tabulates t <= 80 mm
     assert str(info.value) == ("steel S355: thickness 90 mm is outside the tabulated range "
