@@ -54,24 +54,18 @@ NUT_M24, PITCH_M24 = 21.5, 3.0
 NUT_3_4_IN, PITCH_3_4_IN = 47 / 64, 1 / 10
 
 
-def test_a_protrusion_of_a_nut_and_two_pitches_is_fine() -> None:
-    length = 40 + NUT_M24 + 2 * PITCH_M24  # grip 40 mm
-    text = _edit('grade = "8.8"', f'grade = "8.8"\nlength = {length}\nthread_length = 10')
-    assert sanity.warnings(_joint(text)) == []
-
-
 def test_a_protrusion_short_of_a_nut_and_two_pitches_warns() -> None:
-    length = 40 + NUT_M24 + 2 * PITCH_M24 - 0.5
+    length = 40 + NUT_M24 + 2 * PITCH_M24 - 0.5  # grip 40 mm
     text = _edit('grade = "8.8"', f'grade = "8.8"\nlength = {length}\nthread_length = 10')
     line = _only(text, "bolt.length")
     assert f"protrudes {NUT_M24 + 2 * PITCH_M24 - 0.5:g} mm past the grip" in line
     assert f"a nut ({NUT_M24:g} mm) plus 2 thread pitches ({PITCH_M24:g} mm each)" in line
-
-
-def test_a_pin_has_no_nut_to_protrude_past() -> None:
-    text = _edit('grade = "8.8"', 'grade = "8.8"\nlength = 41\nthreads = "excluded"')
-    text += '\n[check]\nconnector = "pin"\n'
-    assert sanity.warnings(_joint(text)) == []
+    # exactly a nut and two pitches is enough
+    enough = text.replace(f"length = {length}", f"length = {length + 0.5}")
+    assert sanity.warnings(_joint(enough)) == []
+    # and a pin has no nut to protrude past
+    pin = text.replace("thread_length = 10", 'threads = "excluded"')
+    assert sanity.warnings(_joint(pin + '\n[check]\nconnector = "pin"\n')) == []
 
 
 def test_thread_in_a_ply_thinner_than_the_pitch() -> None:
