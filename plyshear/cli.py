@@ -76,6 +76,14 @@ def _load(path: str) -> Any:
     return _guard(lambda: plyshear.load_model(path))
 
 
+def _echo_sanity(joint: Any) -> None:
+    """Print the sanity warnings to stderr, for commands whose output does not carry them."""
+    from plyshear.model import sanity
+
+    for w in sanity.warnings(joint):
+        click.echo(f"warning: {one_line(w)}", err=True)
+
+
 def _solve(joint: Any) -> Any:
     import plyshear
     from plyshear.mechanics.solve import SolveError
@@ -244,6 +252,7 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     """
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     if scatter is not None:
         _scatter(joint, scatter, seed, as_json, target, force)
         return
@@ -315,6 +324,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     try:
         rows = _guard(lambda: planes_study(joint, max_planes, keep))
     except (ValueError, CapacityError) as exc:
@@ -400,6 +410,7 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
             fail(f"{output}: exists; use --force to replace it")
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     data = _guard(lambda: modelfile.read(model))
     try:
         parsed = [sk.parse_vary(v, data) for v in varies]

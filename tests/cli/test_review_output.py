@@ -81,9 +81,10 @@ def test_the_reviews_short_bolt_no_longer_passes(write_model) -> None:
 
 def test_a_short_protrusion_is_a_warning_in_every_command(write_model) -> None:
     path = write_model(FORK.replace('grade = "8.8"', 'grade = "8.8"\nlength = 60'))
-    for command in ("validate", "solve", "check"):
-        out = _run(command, str(path)).output
-        assert "bolt.length: the bolt protrudes 20 mm past the grip" in out, command
+    for args in (["validate"], ["solve"], ["check"], ["capacity"], ["planes", "--max", "3"],
+                 ["sweep", "--vary", "bolt.grade=8.8,10.9", "--quiet"]):
+        result = CliRunner().invoke(main, [args[0], str(path), *args[1:]])
+        assert "bolt.length: the bolt protrudes 20 mm past the grip" in result.output, args
 
 
 def test_the_demo_bolt_protrudes_a_nut_and_two_pitches() -> None:
