@@ -172,8 +172,8 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
         # then the clause's own value there
         k = int(np.argmax((m / mrd) ** 2 + (v / vrd) ** 2))
         value = en.pin_interaction(float(m[k]), float(mrd[k]), float(v[k]), float(vrd[k]))
-        rule = ("(M/MRd)^2 + (Fv/FvRd)^2 with M and Fv of the same section; [check] "
-                "pin_interaction = \"same-section\"")
+        rule = ("(M/MRd)^2 + (Fv/FvRd)^2 with M and Fv of the same section ([check] "
+                "pin_interaction = \"same-section\")")
         z = float(zs[k])
     else:
         i, j = int(np.argmax(m / mrd)), int(np.argmax(v / vrd))
@@ -181,7 +181,7 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
         rule = (f"(M/MRd)^2 + (Fv/FvRd)^2 with the largest M (z = "
                 f"{length_str(joint.units, float(zs[i]))}) and the largest Fv (z = "
                 f"{length_str(joint.units, float(zs[j]))}), conservative; [check] "
-                f"pin_interaction = \"same-section\" combines one section's")
+                f"pin_interaction = \"same-section\" takes M and Fv of one section")
         z = float(zs[i])
     return CheckItem("bending + shear", "bolt", value, 1.0, "ratio",
                      (cited(en.pin_interaction),), informative=informative, z=z,
