@@ -76,6 +76,14 @@ def _load(path: str) -> Any:
     return _guard(lambda: plyshear.load_model(path))
 
 
+def _echo_sanity(joint: Any) -> None:
+    """Print the sanity warnings to stderr, for commands whose output does not carry them."""
+    from plyshear.model import sanity
+
+    for w in sanity.warnings(joint):
+        click.echo(f"warning: {one_line(w)}", err=True)
+
+
 def _solve(joint: Any) -> Any:
     import plyshear
     from plyshear.mechanics.solve import SolveError
@@ -175,6 +183,7 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     if as_json:
         data = sol.to_dict()
         data["check"] = result.to_dict()
+        data["warnings"] = data["warnings"] + list(result.warnings)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import check_text
@@ -229,6 +238,7 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     """
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     if scatter is not None:
         _scatter(joint, scatter, seed, as_json, target, force)
         return
@@ -303,6 +313,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     try:
         rows = _guard(lambda: planes_study(joint, max_planes, keep))
     except (ValueError, CapacityError) as exc:
@@ -391,6 +402,7 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
             fail(f"{output}: exists; use --force to replace it")
     target = _plot_target(plot, force)
     joint = _load(model)
+    _echo_sanity(joint)
     data = _guard(lambda: modelfile.read(model))
     try:
         parsed = [sk.parse_vary(v, data) for v in varies]
@@ -513,6 +525,8 @@ def validate_cmd(model: str) -> None:
                f"units {joint.units}, check {joint.check.standard}")
     for w in sanity.warnings(joint):
         click.echo(f"warning: {w}")
+    for note in sanity.notes(joint):
+        click.echo(f"note: {note}")
 
 
 @main.command("demo")

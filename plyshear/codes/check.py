@@ -25,6 +25,9 @@ from plyshear.model.joint import Joint
 STANDARDS = ("aisc360-22", "en1993-1-8")
 #: Planes whose shear is below this fraction of the load transfer nothing (slip).
 SLIP_PLANE_MIN_SHARE = 1e-6
+#: A utilization above this is far more likely a load or size typed in the wrong
+#: unit system than a real design (common practice, no source).
+UTILIZATION_SUSPECT = 20.0
 
 
 @dataclass(frozen=True)
@@ -87,6 +90,9 @@ class CheckResult:
         items: Every check item.
         notes: Assumptions and omissions the engineer must know.
         units: Unit system of the output.
+        loads: The level of the demands: "factored" or "service".
+        warnings: What the engineer must read beside the verdict: informative
+            items above 1.0, utilizations too large to be real.
     """
 
     standard: str
@@ -95,6 +101,8 @@ class CheckResult:
     items: tuple[CheckItem, ...]
     notes: tuple[str, ...] = field(default_factory=tuple)
     units: str = "N-mm"
+    loads: str = "factored"
+    warnings: tuple[str, ...] = field(default_factory=tuple)
 
     @property
     def governing(self) -> CheckItem | None:
@@ -138,6 +146,8 @@ class CheckResult:
                 "clause": gov.clause},
             "passes": self.passes,
             "notes": list(self.notes),
+            "loads": self.loads,
+            "warnings": list(self.warnings),
         }
 
 
@@ -160,11 +170,13 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
         The :class:`CheckResult`.
 
     Raises:
-        ValueError: For an unknown standard, or a slip class given for another
-            standard.
+        ValueError: For an unknown standard, a slip class given for another
+            standard, or loads of the wrong level for the method (factored loads
+            checked by ASD, service loads by LRFD or EN).
     """
     standard = standard or joint.check.standard
     method = method or joint.check.method
+    require_load_level(joint, standard, method)
     if standard != joint.check.standard and joint.check.slip_class is not None:
         # The classes share letters but not friction coefficients (AISC Class A is
         # mu 0.30, EN Class A is mu 0.5): never carry one across.
@@ -174,12 +186,99 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
     if standard == "aisc360-22":
         from plyshear.codes import check_aisc
 
-        return check_aisc.check(joint, solution, method)
-    if standard == "en1993-1-8":
+        result = check_aisc.check(joint, solution, method)
+    elif standard == "en1993-1-8":
         from plyshear.codes import check_en
 
-        return check_en.check(joint, solution)
-    raise ValueError(f"unknown standard '{standard}'; known: {', '.join(STANDARDS)}")
+        result = check_en.check(joint, solution)
+    else:
+        raise ValueError(f"unknown standard '{standard}'; known: {', '.join(STANDARDS)}")
+    notes = list(result.notes)
+    fitted = fitted_holes_note(joint)
+    if fitted:
+        notes.append(fitted)
+    return dataclasses.replace(result, loads=load_level(joint, standard, method),
+                               notes=tuple(dict.fromkeys(notes)),
+                               warnings=tuple(check_warnings(joint, result)))
+
+
+def strength_level(standard: str, method: str) -> str:
+    """The load level a strength check takes: service for ASD, factored otherwise."""
+    return "service" if standard == "aisc360-22" and method == "asd" else "factored"
+
+
+def load_level(joint: Joint, standard: str, method: str) -> str:
+    """The level of the model's loads: as declared, else what the method takes."""
+    return joint.check.loads or strength_level(standard, method)
+
+
+def require_load_level(joint: Joint, standard: str, method: str) -> None:
+    """Refuse a strength check of loads declared at the other level.
+
+    ASD divides the nominal strength by Ω and compares it with service loads;
+    LRFD and EN 1993-1-8 compare design resistances with factored loads. The
+    same numbers cannot be both.
+
+    Raises:
+        ValueError: With one line that says how to fix it.
+    """
+    have = load_level(joint, standard, method)
+    need = strength_level(standard, method)
+    if have == need:
+        return
+    name = {"aisc360-22": f"AISC 360-22 {method.upper()}", "en1993-1-8": "EN 1993-1-8"}.get(
+        standard, standard)
+    fix = ("check them by LRFD or EN 1993-1-8, or give service loads and [check] loads = "
+           "\"service\"" if have == "factored" else
+           "check them by ASD, or give factored loads and [check] loads = \"factored\"")
+    raise ValueError(f"the loads are declared {have} ([check] loads) but {name} takes {need} "
+                     f"loads: {fix}")
+
+
+def check_warnings(joint: Joint, result: CheckResult) -> list[str]:
+    """What the engineer must read under the verdict.
+
+    An informative item above 1.0 (outside the standard's text, so it does not
+    decide the verdict), and any utilization above :data:`UTILIZATION_SUSPECT`,
+    which is far more likely a value typed in the wrong unit system.
+    """
+    out = []
+    for item in result.sorted_items():
+        if item.informative and item.utilization > 1.0:
+            out.append(f"{item.what}, {item.place(result.units)}: utilization "
+                       f"{item.utilization:.3f} > 1.0 on an informative item (outside the "
+                       "standard's text, so it does not decide the verdict): the engineer "
+                       "must judge it")
+    worst = max(result.items, key=lambda i: i.utilization, default=None)
+    if worst is not None and worst.utilization > UTILIZATION_SUSPECT:
+        u = _units.system(joint.units)
+        load = max(joint.members, key=lambda m: float(np.hypot(*m.load)))
+        shown = ", ".join(f"{v / u.factor('force'):.6g}" for v in load.load)
+        out.append(f"utilization {worst.utilization:.6g} > {UTILIZATION_SUSPECT:g} "
+                   f"({worst.what} at {worst.place(result.units)}): a load or size in the "
+                   f"wrong units? The file's units = \"{joint.units}\" read member."
+                   f"{load.name}.load as [{shown}] {u.label('force')}")
+    return out
+
+
+def fitted_holes_note(joint: Joint) -> str | None:
+    """Say that the linear split assumes fitted holes when the holes have clearance."""
+    from plyshear.model import catalog
+
+    clearance = joint.analysis.hole_clearance
+    if clearance is None:
+        d = joint.bolt.diameter
+        try:
+            clearance = catalog.hole_diameter(d, joint.bolt.hole, joint.check.standard) - d
+        except (catalog.CatalogError, ValueError):
+            clearance = None
+    if clearance is not None and clearance <= 0.0:
+        return None
+    size = "" if clearance is None else f" ({length_str(joint.units, clearance)} diametral)"
+    model = joint.source if joint.source and " " not in joint.source else "MODEL"
+    return (f"the plane shears assume fitted holes (every ply bears from the first load); "
+            f"the holes have clearance{size}: study its effect on the split with "
+            f"`plyshear capacity {model} --scatter 200`")
 
 
 # Helpers shared by the standards ------------------------------------------------

@@ -127,12 +127,20 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
                                    (cited(en.F_b_Rd_pin),)))
             continue
         e2 = ply.width / 2.0 if ply.width is not None else None
+        k1_note = ""
         try:
             if ply.edge is not None:
                 ab = en.alpha_b(ply.edge, None, d0, b.fub, ply.fu, end_bolt=True)
             else:
                 ab = min(b.fub / ply.fu, 1.0)
-            k1 = en.k_1(e2, None, d0, edge_bolt=e2 is not None)
+            if e2 is None:
+                # no width: the edge distance across the load is unknown; the smallest
+                # the standard allows gives the smallest k1 (conservative)
+                k1 = en.k_1(en.e_min(d0), None, d0, edge_bolt=True)
+                k1_note = (f" (no width given: k1 from the minimum e2 = 1.2 d0 = "
+                           f"{length_str(joint.units, en.e_min(d0))}, Table 3.3; conservative)")
+            else:
+                k1 = en.k_1(e2, None, d0, edge_bolt=True)
         except ValueError as exc:
             items.append(CheckItem("edge distance", where, en.e_min(d0),
                                    min(v for v in (ply.edge, e2) if v is not None), "length",
@@ -145,8 +153,39 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             clauses.append(cited(en.bearing_hole_factor))
         items.append(CheckItem("bearing", where, pb.force, frd, "force", tuple(clauses),
                                note=f"k1 {k1:.2f}, alpha_b {ab:.2f}, "
-                                    f"d0 {length_str(joint.units, d0)}"))
+                                    f"d0 {length_str(joint.units, d0)}{k1_note}"))
     return items
+
+
+def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...],
+                   informative: bool, tail: str) -> CheckItem:
+    """Table 3.10 bending with shear, by the model's ``[check] pin_interaction`` rule.
+
+    "max-max" (the default, conservative): the largest M/M_Rd along the bolt with
+    the largest F_v/F_v,Rd, wherever each occurs. "same-section": the moment and
+    the shear of one section, at the section where their combination peaks.
+    """
+    m, mrd, v, vrd = arrays
+    zs = bolt.z
+    if joint.check.pin_interaction == "same-section":
+        # the node where the interaction peaks (its terms are monotonic in both ratios),
+        # then the clause's own value there
+        k = int(np.argmax((m / mrd) ** 2 + (v / vrd) ** 2))
+        value = en.pin_interaction(float(m[k]), float(mrd[k]), float(v[k]), float(vrd[k]))
+        rule = ("(M/MRd)^2 + (Fv/FvRd)^2 with M and Fv of the same section ([check] "
+                "pin_interaction = \"same-section\")")
+        z = float(zs[k])
+    else:
+        i, j = int(np.argmax(m / mrd)), int(np.argmax(v / vrd))
+        value = en.pin_interaction(float(m[i]), float(mrd[i]), float(v[j]), float(vrd[j]))
+        rule = (f"(M/MRd)^2 + (Fv/FvRd)^2 with the largest M (z = "
+                f"{length_str(joint.units, float(zs[i]))}) and the largest Fv (z = "
+                f"{length_str(joint.units, float(zs[j]))}), conservative; [check] "
+                f"pin_interaction = \"same-section\" takes M and Fv of one section")
+        z = float(zs[i])
+    return CheckItem("bending + shear", "bolt", value, 1.0, "ratio",
+                     (cited(en.pin_interaction),), informative=informative, z=z,
+                     note=rule + tail)
 
 
 def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckItem]:
@@ -169,14 +208,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
                            float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
                            informative=informative, z=float(bolt.z[i]),
                            note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
-    # the node where the interaction peaks (its terms are monotonic in both ratios), then
-    # the clause's own value there
-    k = int(np.argmax((m / mrd) ** 2 + (v / vrd) ** 2))
-    inter_k = en.pin_interaction(float(m[k]), float(mrd[k]), float(v[k]), float(vrd[k]))
-    items.append(CheckItem("bending + shear", "bolt",
-                           inter_k, 1.0, "ratio", (cited(en.pin_interaction),),
-                           informative=informative, z=float(bolt.z[k]),
-                           note="(M/MRd)^2 + (Fv/FvRd)^2" + tail))
+    items.append(_bending_shear(joint, bolt, (m, mrd, v, vrd), informative, tail))
     # Tension and combined (Table 3.4).
     if b.tension > 0:
         ftrd = en.F_t_Rd(b.fub, b.stress_area)

@@ -2,7 +2,9 @@
 
 Every table is a CSV file in ``plyshear/model/data`` with a ``source`` column
 naming the published source of the row (``from memory: ...`` where the value
-was recalled rather than read). The files are read once, on first use, with
+was recalled rather than read). Provenance stays in the catalogue and the docs:
+a message a user reads names the standard and the range only (the steels'
+``standard`` column). The files are read once, on first use, with
 :mod:`importlib.resources`.
 
 Internal units are N, mm and MPa. Inch data are stored in inches (sizes,
@@ -32,7 +34,8 @@ _ROUNDOFF = 1e-9  # mm: keeps the tolerance inclusive despite binary round-off
 
 HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
 STANDARDS = ("aisc360-22", "en1993-1-8")
-DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv")
+DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv",
+              "nuts.csv")
 
 
 class CatalogError(KeyError):
@@ -83,15 +86,19 @@ class PlateSteel:
     Attributes:
         key: Model-file key ("S355", "A36", ...).
         E: Elastic modulus, MPa.
-        source: Published sources of the thickness bands, "; "-joined.
+        source: Published sources of the thickness bands, "; "-joined (provenance:
+            for the catalogue and the docs, never for a user's error line).
         bands: ``(t_max, fy, fu)`` per band in increasing ``t_max``, mm and MPa;
             a band covers ``previous t_max < t <= t_max``.
+        standard: The standard and table the bands come from, as an error line
+            names it ("EN 1993-1-1:2005 Table 3.1, EN 10025-2").
     """
 
     key: str
     E: float
     source: str
     bands: tuple[tuple[float, float, float], ...] = ()
+    standard: str = ""
 
     def strength(self, t: float) -> tuple[float, float]:
         """Yield and tensile strength for a thickness.
@@ -112,8 +119,8 @@ class PlateSteel:
                 return fy, fu
         t_top = self.bands[-1][0]
         raise ValueError(
-            f"steel {self.key}: thickness {t} mm is outside the tabulated range "
-            f"0 < t <= {t_top:g} mm ({self.source.split('; ')[0]})"
+            f"steel {self.key}: thickness {t:g} mm is outside the tabulated range "
+            f"0 < t <= {t_top:g} mm ({self.standard})"
         )
 
 
@@ -187,6 +194,7 @@ def _steels() -> dict[str, PlateSteel]:
     bands: dict[str, list[tuple[float, float, float]]] = {}
     sources: dict[str, list[str]] = {}
     moduli: dict[str, float] = {}
+    standards: dict[str, str] = {}
     for row in _rows("steels.csv"):
         key = row["key"]
         unit = row["unit"]
@@ -197,12 +205,14 @@ def _steels() -> dict[str, PlateSteel]:
         if row["source"] not in sources.setdefault(key, []):
             sources[key].append(row["source"])
         moduli[key] = float(row["E"])
+        standards[key] = row["standard"]
     return {
         key: PlateSteel(
             key=key,
             E=moduli[key],
             source="; ".join(sources[key]),
             bands=tuple(sorted(bands[key])),
+            standard=standards[key],
         )
         for key in bands
     }
@@ -231,6 +241,16 @@ def _astm_thread_lengths() -> tuple[tuple[float, str, float], ...]:
         (float(r["d_mm"]), r["label"], float(r["thread_length_in"]) * MM_PER_IN)
         for r in _rows("thread_lengths_astm.csv")
     )
+
+
+@cache
+def _nuts() -> tuple[tuple[float, float], ...]:
+    """``(d mm, nut height mm)`` per size."""
+    rows = []
+    for r in _rows("nuts.csv"):
+        scale = MM_PER_IN if r["unit"] == "in" else 1.0
+        rows.append((_parse_number(r["d"]) * scale, _parse_number(r["height"]) * scale))
+    return tuple(rows)
 
 
 @cache
@@ -461,6 +481,24 @@ def thread_length(d: float, grade: str, length: float | None = None) -> float:
         else:
             b = 2.0 * d + 25.0
     return b if length is None else min(b, length)
+
+
+def nut_height(d: float) -> float | None:
+    """Height of the nut of a tabulated size.
+
+    ISO 4032 hexagon nuts (style 1, the largest height m) for metric sizes;
+    ASME B18.2.2 heavy hex nuts (the ASTM A563 structural nut) for inch sizes.
+
+    Args:
+        d: Nominal diameter, mm.
+
+    Returns:
+        Nut height, mm, or None if the size is not tabulated.
+    """
+    for d_tab, height in _nuts():
+        if abs(d_tab - d) <= SIZE_TOL + _ROUNDOFF:
+            return height
+    return None
 
 
 # --------------------------------------------------------------------------- holes

@@ -213,6 +213,13 @@ class CheckSettings:
             (AISC Class A, EN Class D).
         joint_length: Length of the bolt pattern along the force, mm, for the
             long-joint rules (0 for a single bolt).
+        loads: What the model's loads are, "factored" or "service", as the file
+            declares it; None = the level the check's method takes (factored for
+            LRFD and EN, service for ASD).
+        allow_unloaded: Accept a joint whose members carry no load.
+        pin_interaction: EN 1993-1-8 Table 3.10 pin bending with shear:
+            "max-max" (the largest moment with the largest shear, conservative)
+            or "same-section" (moment and shear of one section).
     """
 
     standard: str = "aisc360-22"
@@ -223,6 +230,9 @@ class CheckSettings:
     slip_critical: bool = False
     slip_class: str | None = None
     joint_length: float = 0.0
+    loads: str | None = None
+    allow_unloaded: bool = False
+    pin_interaction: str = "max-max"
 
 
 @dataclass(frozen=True)

@@ -65,7 +65,13 @@ MEMBER_KEYS = ("support", "load", "enters")
 ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance", "bolt",
                  "deformation_limits")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
-              "slip_critical", "slip_class", "joint_length")
+              "slip_critical", "slip_class", "joint_length", "loads", "allow_unloaded",
+              "pin_interaction")
+#: What the file's loads are: design (factored) or service level.
+LOAD_LEVELS = ("factored", "service")
+#: EN 1993-1-8 Table 3.10 pin bending with shear: the maxima wherever they occur, or
+#: the moment and the shear of one section.
+PIN_INTERACTIONS = ("max-max", "same-section")
 
 
 class ModelError(ValueError):
@@ -309,9 +315,31 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
                              "for its axial stiffness")
     analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
     check = _check(r, r.table(data.get("check", {}), "check"))
+    _require_reach(r, bolt, plies)
+    _require_load(r, members, check)
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
                  stations=stations)
+
+
+def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:
+    """Refuse a bolt shorter than the grip: it does not reach through the stack."""
+    grip = sum(p.gap + p.thickness for p in plies)
+    if bolt.length is not None and grip > bolt.length * (1 + 1e-12):
+        shown = r.system.from_internal
+        unit = r.system.label("length")
+        raise r.fail("bolt.length", f"{_fmt(shown(bolt.length, 'length'))} {unit} is shorter "
+                     f"than the grip {_fmt(shown(grip, 'length'))} {unit}: the bolt does not "
+                     "reach through the stack; give the under-head length of a longer bolt")
+
+
+def _require_load(r: _Reader, members: tuple[Member, ...], check: CheckSettings) -> None:
+    """Refuse a joint whose members carry no load, unless the file allows it."""
+    if check.allow_unloaded or any(m.is_loaded for m in members):
+        return
+    raise r.fail("member", "no member carries a load, so every check would pass with "
+                 "utilization 0; give a loaded member a load (or set [check] "
+                 "allow_unloaded = true, e.g. for a sweep that sets the loads)")
 
 
 #: Bolts and plies already read, by their table's exact content (a sweep reads the
@@ -365,14 +393,17 @@ def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
     if "thread_length" in b:
         if length is None:
             raise r.fail("bolt.thread_length", "needs bolt.length to place the threads")
-        thread_length = r.positive(b["thread_length"], "bolt.thread_length", "length")
+        thread_length = r.positive(b["thread_length"], "bolt.thread_length", "length",
+                                   zero_ok=True)
         if thread_length > length:
             raise r.fail("bolt.thread_length", "must not exceed bolt.length")
     elif length is not None:
         try:
             thread_length = min(length, catalog.thread_length(d, grade.key, length))
         except catalog.CatalogError as exc:
-            raise r.fail("bolt.thread_length", f"not given and {exc}") from None
+            if threads != "excluded":
+                raise r.fail("bolt.thread_length", f"not given and {exc}") from None
+            # a pin or plain dowel: no thread in any plane, nothing to place
     if "stress_area" in b:
         stress_area = r.positive(b["stress_area"], "bolt.stress_area", "area")
         if stress_area > math.pi * d * d / 4:
@@ -551,5 +582,13 @@ def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
     slip_class = r.choice(c["slip_class"], "check.slip_class", classes) \
         if "slip_class" in c else None
     length = r.positive(c.get("joint_length", 0), "check.joint_length", "length", zero_ok=True)
+    unloaded = c.get("allow_unloaded", False)
+    if not isinstance(unloaded, bool):
+        raise r.fail("check.allow_unloaded", f"must be true or false (got {_kind(unloaded)})")
+    loads = r.choice(c["loads"], "check.loads", LOAD_LEVELS) if "loads" in c else None
+    interaction = r.choice(c.get("pin_interaction", "max-max"), "check.pin_interaction",
+                           PIN_INTERACTIONS)
     return CheckSettings(standard=standard, method=method, connector=connector,
-                         fillers=fillers, slip_class=slip_class, joint_length=length, **flags)
+                         fillers=fillers, slip_class=slip_class, joint_length=length,
+                         loads=loads, allow_unloaded=unloaded, pin_interaction=interaction,
+                         **flags)

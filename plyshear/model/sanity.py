@@ -8,7 +8,17 @@ the key it concerns, in the joint's own units.
 The rules, with their sources:
 
 * **grip longer than the bolt**: ``joint.grip > bolt.length`` — the bolt cannot
-  pass the stack (geometry, no clause).
+  pass the stack (geometry, no clause). The model file refuses such a bolt; the
+  warning remains for joints built in Python.
+* **short protrusion**: a bolt (not a pin) whose length past the grip is less
+  than a nut plus two thread pitches, the usual minimum for full nut engagement
+  (common practice; nut heights of ISO 4032 and ASME B18.2.2 heavy hex nuts from
+  :func:`plyshear.model.catalog.nut_height`).
+* **sizes in the wrong units**: a bolt diameter outside
+  :data:`BOLT_DIAMETER_RANGE` or a ply thickness outside
+  :data:`PLY_THICKNESS_RANGE` (mm) is far more likely a number typed in another
+  unit system than a real part; the line names the file's ``units`` and the
+  value as read.
 * **thread in a ply thinner than one pitch**: a ply in the threaded length
   (by ``bolt.threaded_at``) that is thinner than the coarse thread pitch bears
   on less than one thread turn (geometry; pitch from
@@ -51,6 +61,12 @@ LONG_GRIP_RATIO = 20.0
 CONTRAST_RATIO = 1000.0
 #: EN 1993-1-8:2005 Table 3.3: e1,min = e2,min = 1.2 d0.
 EN_E_MIN_FACTOR = 1.2
+#: Thread pitches a bolt should protrude past its nut (common practice).
+PROTRUSION_PITCHES = 2
+#: Bolt and pin diameters outside this range, mm, suggest the wrong units (common practice).
+BOLT_DIAMETER_RANGE = (3.0, 200.0)
+#: Ply thicknesses outside this range, mm, suggest the wrong units (common practice).
+PLY_THICKNESS_RANGE = (0.5, 500.0)
 #: AISC 360-22 Table J3.4 beyond the tabulated sizes: 1.25 d.
 AISC_E_MIN_FACTOR_LARGE = 1.25
 
@@ -93,10 +109,38 @@ def warnings(joint: Joint) -> list[str]:
     u = _units.system(joint.units)
     out: list[str] = []
     out += _grip(joint, u)
+    out += _protrusion(joint, u)
+    out += _unit_ranges(joint, u)
     out += _threads_in_thin_plies(joint, u)
     out += _shims(joint, u)
     out += _edges(joint, u)
     out += _contrasts(joint)
+    return out
+
+
+def notes(joint: Joint) -> list[str]:
+    """Return what ``validate`` says of assumptions the check will make, one line each.
+
+    Not warnings (the joint is ordinary), but values the model leaves to a
+    conservative default: an EN 1993-1-8 bolt bearing on a ply without ``width``
+    takes k1 from the standard's minimum edge distance e2 = 1.2 d0 (Table 3.3),
+    k1 = 2.8 · 1.2 − 1.7 = 1.66 (Table 3.4).
+
+    Args:
+        joint: The joint (N, mm, MPa).
+
+    Returns:
+        Notes in ply order; empty when nothing is assumed.
+    """
+    if joint.check.standard != "en1993-1-8" or joint.check.connector == "pin":
+        return []
+    out = []
+    for i, ply in enumerate(joint.plies):
+        if ply.width is None and not ply.is_filler:
+            out.append(f"{_ply_key(i, ply)}.width: not given; EN 1993-1-8 bearing takes k1 "
+                       f"from the minimum edge distance across the load, e2 = "
+                       f"{EN_E_MIN_FACTOR:g} d0 (Table 3.3): k1 = "
+                       f"{2.8 * EN_E_MIN_FACTOR - 1.7:.2f}, conservative")
     return out
 
 
@@ -119,6 +163,47 @@ def _grip(joint: Joint, u: _units.UnitSystem) -> list[str]:
     if ratio > LONG_GRIP_RATIO:
         out.append(f"bolt.diameter: very long grip, grip/d = {ratio:.3g} > {LONG_GRIP_RATIO:g} "
                    "(common practice): bending governs and the solve may be ill-conditioned")
+    return out
+
+
+def _protrusion(joint: Joint, u: _units.UnitSystem) -> list[str]:
+    bolt = joint.bolt
+    if bolt.length is None or joint.check.connector == "pin":
+        return []
+    nut = catalog.nut_height(bolt.diameter)
+    pitch = catalog.thread_pitch(bolt.diameter)
+    if nut is None or pitch is None:
+        return []
+    past = bolt.length - joint.grip
+    need = nut + PROTRUSION_PITCHES * pitch
+    if past < 0 or past >= need - _TOL:
+        return []  # shorter than the grip: refused by the model file, warned by _grip
+    return [f"bolt.length: the bolt protrudes {_len(past, u)} past the grip, less than a nut "
+            f"({_len(nut, u)}) plus {PROTRUSION_PITCHES} thread pitches ({_len(pitch, u)} "
+            f"each) = {_len(need, u)} (common practice): choose a bolt at least "
+            f"{_len(joint.grip + need, u)} long"]
+
+
+def _as_read(value: float, dimension: str, u: _units.UnitSystem) -> str:
+    """A length as the file gave it, with its system, and in mm when that differs."""
+    shown = f"{u.from_internal(value, dimension):.4g} {u.label(dimension)}"
+    mm = "" if u.label(dimension) == "mm" else f" = {value:.4g} mm"
+    return f"{shown} as read with units = \"{u.name}\"{mm}"
+
+
+def _unit_ranges(joint: Joint, u: _units.UnitSystem) -> list[str]:
+    out = []
+    lo, hi = BOLT_DIAMETER_RANGE
+    d = joint.bolt.diameter
+    if not lo <= d <= hi:
+        out.append(f"bolt.diameter: {_as_read(d, 'length', u)} is outside {lo:g} to {hi:g} mm, "
+                   "the range of bolts and pins: is the file's units right?")
+    lo, hi = PLY_THICKNESS_RANGE
+    for i, ply in enumerate(joint.plies):
+        if not lo <= ply.thickness <= hi:
+            out.append(f"{_ply_key(i, ply)}.thickness: {_as_read(ply.thickness, 'length', u)} "
+                       f"is outside {lo:g} to {hi:g} mm, the range of plates: is the file's "
+                       "units right?")
     return out
 
 

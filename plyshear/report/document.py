@@ -185,8 +185,8 @@ def assumptions(data: ReportData) -> list[str]:
         f"mesh: {a.elements_per_ply} elements per ply and gap (none shorter than d/40)",
         f"hole clearance in the capacity analysis: {a.clearance}",
         f"equilibrium residual of the solve: {sol.equilibrium_residual:.1e} of the load",
-        "demands are the model's loads as given: factored for LRFD and EN 1993-1-8, "
-        "service-level for ASD",
+        f"demands are the model's loads as given, taken as {data.check.loads} loads "
+        "([check] loads; default factored for LRFD and EN 1993-1-8, service for ASD)",
         "the capacity uses nominal strengths without resistance factors",
     ]
     out += [f"warning: {w}" for w in sol.warnings]
@@ -234,7 +234,7 @@ def to_html(data: ReportData) -> str:
     res = data.check
     parts.append(f"<h2>4 Design check: {_esc(res.edition)}, "
                  f"{_esc({'lrfd': 'LRFD', 'asd': 'ASD'}.get(res.method, 'partial factors'))}"
-                 "</h2>")
+                 f"; loads: {_esc(res.loads)}</h2>")
     headers, rows, marked = check_rows(data)
     parts.append(_html_table(headers, rows, marked))
     gov = res.governing
@@ -243,6 +243,7 @@ def to_html(data: ReportData) -> str:
         parts.append(f"<p>The joint {verdict}: governing {_esc(gov.what)} at "
                      f"{_esc(gov.place(res.units))}, utilization {gov.utilization:.3f} "
                      f"({_esc(gov.clause)}).</p>")
+    parts += [f"<p><strong>Warning:</strong> {_esc(w)}</p>" for w in res.warnings]
     parts.append("<h2>5 Capacity and plane efficiency</h2>")
     if data.capacity is not None:
         parts.append(f"<pre>{_esc(capacity_text(data.capacity, joint, data.check))}</pre>")

@@ -7,7 +7,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult
+from plyshear.codes.check import CheckResult, fitted_holes_note
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
@@ -125,6 +125,9 @@ def solution_text(sol: Solution) -> str:
     out.append("")
     out.append(equal_split_line(sol))
     out.append(f"equilibrium residual: {sol.equilibrium_residual:.1e} (relative to the load)")
+    fitted = fitted_holes_note(joint)
+    if fitted:
+        out.append(f"note: {fitted}")
     out += [f"WARNING: {w}" for w in sol.warnings]
     out.append("")
     out.append(CAUTION)
@@ -183,7 +186,11 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     title = solution.joint.title or (solution.joint.source or "joint")
     capacity_word = {"lrfd": "design strength", "asd": "allowable strength"}.get(
         result.method, "design resistance")
-    out = [title, f"check: {result.edition}, {method} (capacity = {capacity_word})", ""]
+    declared = "declared in [check] loads" if solution.joint.check.loads else \
+        f"the {'EN 1993-1-8' if result.method not in ('lrfd', 'asd') else method} default; " \
+        "declare [check] loads to be sure"
+    out = [title, f"check: {result.edition}, {method} (capacity = {capacity_word}); "
+                  f"loads: {result.loads} ({declared})", ""]
     out.append(table(["check", "where", "demand", "capacity", "unit", "util.", "clause", ""],
                      rows, "llrrlrll"))
     out.append("")
@@ -191,12 +198,12 @@ def check_text(result: CheckResult, solution: Solution) -> str:
         verdict = "PASSES" if result.passes else "FAILS"
         out.append(f"{verdict}: governing {gov.what} at {gov.place(result.units)}, utilization "
                    f"{gov.utilization:.3f} ({gov.clause})")
+    out += [f"WARNING: {w}" for w in result.warnings]
     out.append(equal_split_line(solution))
     for note in result.notes:
         out.append(f"note: {note}")
     out += [f"WARNING: {w}" for w in solution.warnings]
-    out.append("Demands are the model's loads as given: factored for LRFD and EN, "
-               "service-level for ASD.")
+    out.append(f"Demands are the model's loads as given, taken as {result.loads} loads.")
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)

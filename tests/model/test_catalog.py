@@ -116,15 +116,35 @@ def test_unknown_grade_raises_catalog_error_listing_known_keys():
 @pytest.mark.parametrize(
     ("key", "t", "fy", "fu"),
     [
-        ("S235", 10.0, 235.0, 360.0),  # from memory: EN 1993-1-1:2005 Table 3.1
+        ("S235", 10.0, 235.0, 360.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-2
         ("S235", 40.0, 235.0, 360.0),  # from memory: EN 1993-1-1:2005 Table 3.1 (t <= 40)
         ("S235", 40.5, 215.0, 360.0),  # from memory: EN 1993-1-1:2005 Table 3.1
         ("S275", 20.0, 275.0, 430.0),  # from memory: EN 1993-1-1:2005 Table 3.1
         ("S275", 80.0, 255.0, 410.0),  # from memory: EN 1993-1-1:2005 Table 3.1
-        ("S355", 40.0, 355.0, 490.0),  # from memory: EN 1993-1-1:2005 Table 3.1
-        ("S355", 60.0, 335.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1
-        ("S460", 30.0, 460.0, 540.0),  # from memory: EN 1993-1-1:2005 Table 3.1
-        ("S460", 50.0, 430.0, 540.0),  # from memory: EN 1993-1-1:2005 Table 3.1
+        ("S355", 12.0, 355.0, 510.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-2
+        ("S355", 40.0, 355.0, 510.0),  # from memory: EN 1993-1-1:2005 Table 3.1 (t <= 40)
+        ("S355", 40.5, 335.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1 (40 < t <= 80)
+        ("S355", 80.0, 335.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1
+        ("S450", 30.0, 440.0, 550.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-2
+        ("S450", 50.0, 410.0, 550.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-2
+        ("S460", 30.0, 460.0, 540.0),  # from memory: Table 3.1, S460N and S460M both 460/540
+        ("S460", 50.0, 430.0, 530.0),  # from memory: Table 3.1, the lower: S460M/ML 430/530
+        ("S275N", 20.0, 275.0, 390.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S275N", 60.0, 255.0, 370.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S355N", 20.0, 355.0, 490.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S355N", 60.0, 335.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S420N", 20.0, 420.0, 520.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S420N", 60.0, 390.0, 520.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S460N", 20.0, 460.0, 540.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S460N", 60.0, 430.0, 540.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-3
+        ("S275M", 20.0, 275.0, 370.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S275M", 60.0, 255.0, 360.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S355M", 20.0, 355.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S355M", 60.0, 335.0, 450.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S420M", 20.0, 420.0, 520.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S420M", 60.0, 390.0, 500.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S460M", 20.0, 460.0, 540.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
+        ("S460M", 60.0, 430.0, 530.0),  # from memory: EN 1993-1-1:2005 Table 3.1, EN 10025-4
     ],
 )
 def test_en_1993_1_1_table_3_1_thickness_bands(key, t, fy, fu):
@@ -133,10 +153,19 @@ def test_en_1993_1_1_table_3_1_thickness_bands(key, t, fy, fu):
     assert s.E == pytest.approx(210000.0, rel=REL_EXACT)  # EN 1993-1-1:2005 3.2.6
 
 
-@pytest.mark.parametrize("key", ["S235", "S275", "S355", "S460"])
+@pytest.mark.parametrize("key", ["S235", "S275", "S355", "S450", "S460", "S355N", "S460M"])
 def test_en_1993_1_1_table_3_1_beyond_80_mm_raises(key):
     with pytest.raises(ValueError, match="0 < t <= 80 mm"):
         catalog.steel(key).strength(80.5)
+
+
+def test_out_of_range_message_names_the_standard_and_range_not_the_provenance():
+    with pytest.raises(ValueError, match="outside the tabulated range") as info:
+        catalog.steel("S355").strength(90.0)
+    # EN 1993-1-1:2005 Table 3.1 tabulates t <= 80 mm
+    assert str(info.value) == ("steel S355: thickness 90 mm is outside the tabulated range "
+                               "0 < t <= 80 mm (EN 1993-1-1:2005 Table 3.1, EN 10025-2)")
+    assert "memory" not in str(info.value)
 
 
 @pytest.mark.parametrize("t", [0.0, -5.0])
@@ -167,10 +196,10 @@ def test_astm_plate_steels_in_ksi(key, fy_ksi, fu_ksi, fy_si, fu_si):
 def test_unknown_steel_raises_catalog_error_listing_known_keys():
     with pytest.raises(catalog.CatalogError) as info:
         catalog.steel("S999")
-    assert str(info.value) == (
-        "unknown steel 'S999'; known: S235, S275, S355, S460, A36, A572-50, A992"
-    )
-    assert catalog.steel_keys() == ["S235", "S275", "S355", "S460", "A36", "A572-50", "A992"]
+    known = ["S235", "S275", "S355", "S450", "S460", "S275N", "S355N", "S420N", "S460N",
+             "S275M", "S355M", "S420M", "S460M", "A36", "A572-50", "A992"]
+    assert str(info.value) == f"unknown steel 'S999'; known: {', '.join(known)}"
+    assert catalog.steel_keys() == known
 
 
 # --------------------------------------------------------------------------- threads

@@ -39,16 +39,33 @@ def test_no_example_has_a_warning(model: str) -> None:
 
 
 def test_grip_longer_than_the_bolt() -> None:
-    # the plies add up to 40 mm; the bolt is 30 mm under the head
-    text = _edit('grade = "8.8"', 'grade = "8.8"\nlength = 30\nthread_length = 10')
+    # the model file refuses it (tests/model); a joint built in Python still warns.
+    # The plies add up to 40 mm; the bolt is 30 mm under the head.
+    joint = _joint(FORK).with_bolt(length=30.0, thread_length=10.0)
+    found = [w for w in sanity.warnings(joint) if w.startswith("bolt.length")]
+    assert len(found) == 1, found
+    assert "40 mm" in found[0]
+    assert "30 mm" in found[0]
+
+
+# Nut heights, from memory: ISO 4032 style 1 m max M24 = 21.5 mm; ASME B18.2.2 heavy hex
+# 3/4 in: H = 47/64 in. Pitches: ISO 261 coarse M24 = 3 mm; UNC 3/4-10: 0.1 in.
+NUT_M24, PITCH_M24 = 21.5, 3.0
+NUT_3_4_IN, PITCH_3_4_IN = 47 / 64, 1 / 10
+
+
+def test_a_protrusion_short_of_a_nut_and_two_pitches_warns() -> None:
+    length = 40 + NUT_M24 + 2 * PITCH_M24 - 0.5  # grip 40 mm
+    text = _edit('grade = "8.8"', f'grade = "8.8"\nlength = {length}\nthread_length = 10')
     line = _only(text, "bolt.length")
-    assert "40 mm" in line
-    assert "30 mm" in line
-
-
-def test_grip_equal_to_the_bolt_is_fine() -> None:
-    text = _edit('grade = "8.8"', 'grade = "8.8"\nlength = 40\nthread_length = 10')
-    assert sanity.warnings(_joint(text)) == []
+    assert f"protrudes {NUT_M24 + 2 * PITCH_M24 - 0.5:g} mm past the grip" in line
+    assert f"a nut ({NUT_M24:g} mm) plus 2 thread pitches ({PITCH_M24:g} mm each)" in line
+    # exactly a nut and two pitches is enough
+    enough = text.replace(f"length = {length}", f"length = {length + 0.5}")
+    assert sanity.warnings(_joint(enough)) == []
+    # and a pin has no nut to protrude past
+    pin = text.replace("thread_length = 10", 'threads = "excluded"')
+    assert sanity.warnings(_joint(pin + '\n[check]\nconnector = "pin"\n')) == []
 
 
 def test_thread_in_a_ply_thinner_than_the_pitch() -> None:
@@ -155,11 +172,45 @@ def test_a_ply_a_thousand_times_stiffer_than_its_neighbour() -> None:
 
 
 def test_messages_are_in_the_models_units() -> None:
+    # grip 0.5 + 0.625 + 0.375 + 0.5 = 2 in; a 2.5 in bolt protrudes 0.5 in
     text = (MODELS / "splice-with-filler.toml").read_text(encoding="utf-8")
-    text = _edit('grade = "A325"\nlength = 3.25', 'grade = "A325"\nlength = 1.5', text)
+    text = _edit('grade = "A325"\nlength = 3.25', 'grade = "A325"\nlength = 2.5', text)
     line = _only(text, "bolt.length")
-    assert "2 in" in line
-    assert "1.5 in" in line
+    assert "protrudes 0.5 in" in line
+    need = NUT_3_4_IN + 2 * PITCH_3_4_IN
+    assert f"= {need:.4g} in" in line
+    assert f"at least {2 + need:.4g} in long" in line
+
+
+@pytest.mark.parametrize(("diameter", "units", "shown"), [
+    ("1.5", "kN-mm", '1.5 mm as read with units = "kN-mm"'),
+    ("250", "kN-mm", '250 mm as read with units = "kN-mm"'),
+])
+def test_a_diameter_outside_bolt_sizes_names_the_units(diameter, units, shown) -> None:
+    # common practice: bolts and pins run from about 3 mm to 200 mm
+    text = _edit("diameter = 24", f"diameter = {diameter}\nthreads = \"excluded\"")
+    found = [w for w in sanity.warnings(_joint(text)) if w.startswith("bolt.diameter")]
+    assert any(shown in w and "outside 3 to 200 mm" in w for w in found), found
+
+
+def test_a_kip_in_diameter_read_as_inches_names_the_mm() -> None:
+    # 24 typed as a metric diameter in a kip-in file: 24 in = 609.6 mm (1 in = 25.4 mm)
+    text = (MODELS / "splice-with-filler.toml").read_text(encoding="utf-8")
+    text = _edit('diameter = "3/4 in"', "diameter = 24", text)
+    text = _edit('threads = "auto"', 'threads = "excluded"', text)
+    text = _edit("length = 3.25", "length = 30", text)
+    found = [w for w in sanity.warnings(_joint(text)) if w.startswith("bolt.diameter")]
+    assert len(found) == 1, found
+    assert f'24 in as read with units = "kip-in" = {24 * 25.4:.4g} mm' in found[0]
+
+
+@pytest.mark.parametrize("t", ["0.4", "600"])
+def test_a_ply_outside_plate_sizes_names_the_units(t) -> None:
+    # common practice: plates run from about 0.5 mm to 500 mm
+    text = _edit('thickness = 20\nsteel = "S355"', f"thickness = {t}\nfy = 355\nfu = 510")
+    found = [w for w in sanity.warnings(_joint(text)) if "outside 0.5 to 500 mm" in w]
+    assert len(found) == 1, sanity.warnings(_joint(text))
+    assert found[0].startswith(f"ply[2] 'lug'.thickness: {t} mm as read with units = \"kN-mm\"")
 
 
 def test_warnings_is_pure() -> None:
