@@ -11,7 +11,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult
+from plyshear.codes.check import CheckResult, load_level
 from plyshear.codes.resistance import design_factor
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.model.joint import Joint
@@ -102,8 +102,7 @@ def verdict(summary: CapacitySummary, joint: Joint, result: CheckResult | None) 
     fu, lf = u.factor("force"), u.label("force")
     design = summary.nonlinear.load * f
     load = summary.model_load
-    level = "service" if joint.check.method == "asd" and \
-        joint.check.standard == "aisc360-22" else "factored"
+    level = load_level(joint, joint.check.standard, joint.check.method)
     holds = design >= load
     numbers = (f"the nonlinear design capacity {design / fu:.4g} {lf} ({basis}) against the "
                f"model's {level} load {load / fu:.4g} {lf}")
