@@ -203,8 +203,7 @@ def _is_range(key: Key, text: str) -> bool:
 
 
 def count_values(key: Key, text: str) -> int:
-    """How many values ``text`` gives, without expanding a range (or failing as
-    :func:`parse_values` would)."""
+    """How many values ``text`` gives, without expanding a range."""
     text = text.strip()
     if text and _is_range(key, text):
         return _range_spec(key.text, text)[2]
