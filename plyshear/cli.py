@@ -17,23 +17,33 @@ from typing import Any, NoReturn
 
 import click
 
+EXIT_FAILS = 1
 EXIT_BAD_INPUT = 2
+EXIT_FAULT = 3
+#: Exit codes of a run stopped by a signal: 128 + the signal's number (shells' rule).
+EXIT_SIGNAL = {2: 130, 15: 143}
+#: Longest error line printed: a key of a million characters is named, not echoed.
+MAX_ERROR_LINE = 300
 FIGURE_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
 
 
-def one_line(text: str) -> str:
-    """Escape what would break or hide a line: line and paragraph separators, controls."""
-    return "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text)
+def one_line(text: str, most: int = MAX_ERROR_LINE) -> str:
+    """Escape what would break or hide a line (separators, controls); cut it at ``most``."""
+    line = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text[:4 * most])
+    return line if len(line) <= most else line[:most - 25] + f"... ({len(text)} characters)"
 
 
-def fail(message: str) -> NoReturn:
-    """Print one error line and exit with code 2."""
+def fail(message: str, code: int = EXIT_BAD_INPUT) -> NoReturn:
+    """Print one error line and exit with ``code`` (2: bad input)."""
     click.echo(f"error: {one_line(message)}", err=True)
-    sys.exit(EXIT_BAD_INPUT)
+    sys.exit(code)
 
 
 def write_atomic(path: Path, data: bytes, force: bool) -> None:
     """Write ``data`` to ``path`` through a temporary file renamed into place.
+
+    The temporary file is locked while it is written; a stale one left by a
+    killed write to the same path (unlocked) is removed first.
 
     Args:
         path: The target file.
@@ -45,8 +55,13 @@ def write_atomic(path: Path, data: bytes, force: bool) -> None:
     directory = path.parent if str(path.parent) else Path(".")
     if not directory.is_dir():
         fail(f"{path}: folder {directory} does not exist")
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    _remove_stale(directory, path.name)
     try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    except OSError as exc:
+        fail(f"{path}: cannot write in {directory} ({exc.strerror or exc})")
+    try:
+        _lock(fd)
         umask = os.umask(0)
         os.umask(umask)
         os.chmod(tmp, 0o666 & ~umask)
@@ -55,9 +70,47 @@ def write_atomic(path: Path, data: bytes, force: bool) -> None:
             fh.flush()
             os.fsync(fh.fileno())
         os.replace(tmp, path)
+    except OSError as exc:
+        Path(tmp).unlink(missing_ok=True)
+        fail(f"{path}: cannot write ({exc.strerror or exc}); nothing was replaced",
+             EXIT_FAULT)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)
         raise
+
+
+def _lock(fd: int, block: bool = True) -> bool:
+    """Take an exclusive lock on an open file (POSIX); False if another holds it."""
+    try:
+        import fcntl
+    except ImportError:  # pragma: no cover - not POSIX
+        return True
+    try:
+        fcntl.flock(fd, fcntl.LOCK_EX | (0 if block else fcntl.LOCK_NB))
+    except OSError:
+        return False
+    return True
+
+
+def _remove_stale(directory: Path, name: str) -> None:
+    """Remove temporary files of earlier writes to ``name`` whose writer is gone."""
+    for tmp in directory.glob(f".{glob_escape(name)}.*.part"):
+        try:
+            fd = os.open(tmp, os.O_RDONLY)
+        except OSError:
+            continue
+        try:
+            if _lock(fd, block=False):  # nobody writes it: a killed write's leftover
+                tmp.unlink(missing_ok=True)
+        finally:
+            os.close(fd)
+
+
+def glob_escape(text: str) -> str:
+    """Escape glob's special characters in a file name."""
+    import glob
+
+    return glob.escape(text)
 
 
 def _guard(func: Callable[[], Any]) -> Any:
@@ -339,9 +392,6 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
         _write_figure(diagrams.planes_figure(rows, joint), target, force)
 
 
-SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
-
-
 @main.command("sweep")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("--vary", "varies", multiple=True, metavar="KEY=VALUES",
@@ -372,62 +422,56 @@ SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
               help="Run on a Dask distributed cluster (tcp://host:8786); needs the "
                    "'dask' extra.")
 @click.option("--force", is_flag=True, help="Replace an existing -o or --plot file.")
+@click.option("--resume", is_flag=True,
+              help="Continue the sweep that wrote -o (its .partial file, or a complete "
+                   "output): skip the cases it holds, run the rest.")
+@click.option("--worker-timeout", type=click.FloatRange(min=0.1), default=60.0,
+              show_default=True, help="With --scheduler: seconds without any Dask worker "
+                                      "before the run ends.")
 @click.option("--quiet", is_flag=True, help="No progress bar.")
 def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
               output: str | None, capacity: str, no_check: bool, plot: str | None,
               response: str, x_key: str | None, series: str | None, workers: int | None,
-              scheduler: str | None, force: bool, quiet: bool) -> None:
+              scheduler: str | None, force: bool, resume: bool, worker_timeout: float,
+              quiet: bool) -> None:
     """Solve, check and rate MODEL for every combination of the --vary values.
 
     Every case goes through the model file's own validation; a case that fails it
     (a value outside a catalogue's range, say) is a row with its error, and the
     sweep goes on. Same-shaped cases are solved together (the batch path) on
-    local processes, or on a Dask cluster with --scheduler.
+    local processes, or on a Dask cluster with --scheduler. With -o, rows are
+    written as they finish; Ctrl-C keeps them and --resume continues. Exit code 0
+    when every case passes, 1 when one fails or has an error, 2 on bad input,
+    3 when the run could not finish, 130 (143) when interrupted (terminated).
     """
-    from plyshear.model import modelfile
-    from plyshear.sweep import keys as sk
-    from plyshear.sweep import output as so
     from plyshear.sweep import run as sr
 
     if not varies and cases_file is None:
         fail(f"{model}: sweep: give at least one --vary KEY=VALUES or --cases FILE")
-    out_path = Path(output) if output else None
-    if out_path is not None:
-        if out_path.suffix.lower() not in SWEEP_FORMATS:
-            fail(f"{output}: -o needs a .csv or .jsonl file name")
-        if out_path.exists() and not force:
-            fail(f"{output}: exists; use --force to replace it")
+    out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
     joint = _load(model)
-    data = _guard(lambda: modelfile.read(model))
-    try:
-        parsed = [sk.parse_vary(v, data) for v in varies]
-        table = sk.read_cases(cases_file, data) if cases_file else None
-        keys, cases = sk.cases(parsed, table)
-    except sk.SweepError as exc:
-        fail(f"{model}: sweep: {exc}")
+    data, keys, cases = _sweep_cases(model, varies, cases_file)
     key_texts = [k.text for k in keys]
     chart = _sweep_chart(model, target, response, x_key, series, keys, cases, capacity,
                          no_check, len(joint.plies) - 1)
     options = sr.Options(capacity=capacity, check=not no_check)
     cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
-    show = not quiet and len(cases) > sr.CHUNK
-    with click.progressbar(length=len(cases), label=f"{len(cases)} cases", file=sys.stderr,
-                           hidden=not show) as bar:
+    stream = _open_stream(out_path, cols, force, resume)
+    rows, outcome = _sweep_run(model, data, keys, cases, options, stream, quiet, workers,
+                               scheduler, worker_timeout)
+    if outcome.stopped is not None or outcome.fault:
+        _sweep_stopped(model, joint, rows, cols, key_texts, len(cases), stream, outcome)
+    if stream is not None:
+        from plyshear.sweep.output import read_table
+        from plyshear.sweep.stream import OutputError
+
         try:
-            rows = sr.run(data, str(model), keys, cases, options, workers=workers,
-                          scheduler=scheduler, progress=bar.update)
-        except RuntimeError as exc:
-            fail(f"{model}: sweep: {exc}")
-    if out_path is not None:
-        fmt = SWEEP_FORMATS[out_path.suffix.lower()]
-        payload = so.to_csv(rows, cols) if fmt == "csv" else so.to_jsonl(rows, cols)
-        write_atomic(out_path, payload.encode("utf-8"), force)
-        click.echo(f"{len(rows)} cases written to {out_path}", err=True)
-        click.echo(so.summary(rows))
-        click.echo(so.units_line(joint.units))
-    else:
-        click.echo(so.text(rows, cols, key_texts, joint.units))
+            stream.finish()
+        except OutputError as exc:
+            fail(str(exc), EXIT_FAULT)
+        rows = read_table(str(stream.path), keys)
+    _sweep_print(rows, cols, key_texts, joint.units, stream, outcome)
     if chart is not None and target is not None:
         from plyshear.report.sweepplot import sweep_figure
 
@@ -436,8 +480,148 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
         fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units,
                            f"variants of {Path(model).name}")
         _write_figure(fig, target, force)
-    if rows and all(r.get("error") for r in rows):
-        sys.exit(1)  # nothing could be solved: say so to scripts too
+    sys.exit(_sweep_exit(rows, outcome))
+
+
+def _sweep_output(output: str | None, force: bool, resume: bool) -> Path | None:
+    """Check -o, --force and --resume together, before any work."""
+    from plyshear.sweep.stream import FORMATS
+
+    if output is None:
+        if resume:
+            fail("sweep: --resume needs -o FILE (the output of the sweep to continue)")
+        return None
+    path = Path(output)
+    if path.suffix.lower() not in FORMATS:
+        fail(f"{output}: -o needs a .csv or .jsonl file name")
+    if resume and force:
+        fail(f"{output}: --resume continues the file and --force replaces it; choose one")
+    return path
+
+
+def _sweep_cases(model: str, varies: tuple[str, ...], cases_file: str | None
+                 ) -> tuple[dict[str, Any], list[Any], list[list[Any]]]:
+    """The parsed model file, the varied keys and the cases (counted before expanded)."""
+    from plyshear.model import modelfile
+    from plyshear.sweep import keys as sk
+
+    data = _guard(lambda: modelfile.read(model))
+    try:
+        table = sk.read_cases(cases_file, data) if cases_file else None
+        parsed = sk.parse_varies(varies, data, rows=len(table[1]) if table else 1)
+        keys, cases = sk.cases(parsed, table)
+    except sk.SweepError as exc:
+        fail(f"{model}: sweep: {exc}")
+    return data, keys, cases
+
+
+def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool) -> Any:
+    """Reserve the output (exclusively) and open its partial file, before any case runs."""
+    if path is None:
+        return None
+    from plyshear.sweep.stream import OutputError, Stream
+
+    stream = Stream(path, cols, force=force, resume=resume)
+    try:
+        stream.open()
+    except OutputError as exc:
+        fail(str(exc))
+    return stream
+
+
+def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], options: Any,
+               stream: Any, quiet: bool, workers: int | None, scheduler: str | None,
+               worker_timeout: float) -> tuple[list[dict[str, Any]], Any]:
+    """Run the cases, appending each finished chunk to the output; keep the rows."""
+    from plyshear.sweep import run as sr
+    from plyshear.sweep.pool import Stopper
+    from plyshear.sweep.stream import OutputError
+
+    rows: list[dict[str, Any]] = []
+    show = not quiet and len(cases) > sr.chunk_size(options)
+    with Stopper() as stop, click.progressbar(length=len(cases), label=f"{len(cases)} cases",
+                                              file=sys.stderr, hidden=not show) as bar:
+        def sink(part: list[dict[str, Any]]) -> None:
+            if stream is not None:
+                stream.append(part)
+            else:
+                rows.extend(part)
+            bar.update(len(part))
+
+        try:
+            outcome = sr.run_stream(data, str(model), keys, cases, options, sink,
+                                    skip=stream.take_done if stream is not None else None,
+                                    workers=workers, scheduler=scheduler, stopper=stop,
+                                    chunk=sr.chunk_size(options),
+                                    worker_timeout=worker_timeout)
+        except RuntimeError as exc:
+            if stream is not None:
+                stream.discard()
+            fail(f"{model}: sweep: {exc}")
+        except OutputError as exc:
+            stream.close()
+            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+    rows.sort(key=lambda r: r["case"])
+    return rows, outcome
+
+
+def _resume_command() -> str:
+    """The command that continues this sweep (this one's arguments, with --resume)."""
+    import shlex
+
+    if not Path(sys.argv[0]).name.startswith("plyshear"):
+        return "the same command with --resume"
+    args = [a for a in sys.argv[1:] if a != "--force"]
+    if "--resume" not in args:
+        args.append("--resume")
+    return shlex.join(["plyshear", *args])
+
+
+def _sweep_stopped(model: str, joint: Any, rows: list[dict[str, Any]], cols: list[str],
+                   key_texts: list[str], total: int, stream: Any, outcome: Any) -> NoReturn:
+    """Report a stopped or unfinished run: what is kept, how to go on; exit."""
+    from plyshear.sweep import output as so
+
+    done = outcome.done + outcome.skipped
+    if stream is None:
+        if rows:
+            click.echo(so.text(rows, cols, key_texts, joint.units))
+        kept = "shown above; run with -o FILE to keep rows and --resume"
+    else:
+        stream.close()
+        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+    if outcome.fault:
+        fail(f"{model}: sweep: {outcome.fault}; {done} of {total} cases done, {kept}",
+             EXIT_FAULT)
+    name = "terminated" if outcome.stopped == 15 else "interrupted"
+    click.echo(f"{name}: {done} of {total} cases done, {kept}", err=True)
+    sys.exit(EXIT_SIGNAL.get(outcome.stopped, 128 + outcome.stopped))
+
+
+def _sweep_print(rows: list[dict[str, Any]], cols: list[str], key_texts: list[str],
+                 units: str, stream: Any, outcome: Any) -> None:
+    from plyshear.sweep import output as so
+
+    if stream is None:
+        click.echo(so.text(rows, cols, key_texts, units))
+    else:
+        resumed = f" ({outcome.skipped} from the earlier run)" if outcome.skipped else ""
+        click.echo(f"{len(rows)} cases written to {stream.path}{resumed}", err=True)
+        click.echo(so.summary(rows))
+        click.echo(so.units_line(units))
+    if outcome.deaths:
+        click.echo(f"warning: {outcome.deaths} worker process(es) died; their chunks were "
+                   f"run again ({outcome.lost} cases lost after a second death are error "
+                   "rows)", err=True)
+
+
+def _sweep_exit(rows: list[dict[str, Any]], outcome: Any) -> int:
+    """0: every case passes; 1: a case fails or has an error; 3: cases lost to faults."""
+    if outcome.lost:
+        return EXIT_FAULT
+    if any(r.get("error") or r.get("passes") is False for r in rows):
+        return EXIT_FAILS
+    return 0
 
 
 def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,

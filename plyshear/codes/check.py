@@ -23,6 +23,11 @@ from plyshear.mechanics.results import BoltResult, Solution
 from plyshear.model.joint import Joint
 
 STANDARDS = ("aisc360-22", "en1993-1-8")
+#: A solve is not trusted for a check above these (relative residual, condition estimate).
+UNVERIFIED_RESIDUAL = 1e-6
+UNVERIFIED_CONDITION = 1e12
+#: The verdict of a check whose solve is not trusted.
+UNVERIFIED = "NOT VERIFIED: the solve is ill-conditioned"
 #: Planes whose shear is below this fraction of the load transfer nothing (slip).
 SLIP_PLANE_MIN_SHARE = 1e-6
 
@@ -87,6 +92,8 @@ class CheckResult:
         items: Every check item.
         notes: Assumptions and omissions the engineer must know.
         units: Unit system of the output.
+        unverified: Why the demands cannot be trusted (an ill-conditioned solve),
+            or "": a check that is not verified does not pass.
     """
 
     standard: str
@@ -95,6 +102,7 @@ class CheckResult:
     items: tuple[CheckItem, ...]
     notes: tuple[str, ...] = field(default_factory=tuple)
     units: str = "N-mm"
+    unverified: str = ""
 
     @property
     def governing(self) -> CheckItem | None:
@@ -104,8 +112,9 @@ class CheckResult:
 
     @property
     def passes(self) -> bool:
-        """True when every normative item has utilization ≤ 1."""
-        return all(i.utilization <= 1.0 for i in self.items if not i.informative)
+        """True when the solve is trusted and every normative item has utilization ≤ 1."""
+        normative = (i for i in self.items if not i.informative)
+        return not self.unverified and all(i.utilization <= 1.0 for i in normative)
 
     def sorted_items(self) -> list[CheckItem]:
         """Items by utilization, largest first."""
@@ -137,6 +146,9 @@ class CheckResult:
                 "utilization": _finite(gov.utilization),
                 "clause": gov.clause},
             "passes": self.passes,
+            "verified": not self.unverified,
+            **({"verdict": UNVERIFIED, "unverified": self.unverified} if self.unverified
+               else {}),
             "notes": list(self.notes),
         }
 
@@ -174,12 +186,24 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
     if standard == "aisc360-22":
         from plyshear.codes import check_aisc
 
-        return check_aisc.check(joint, solution, method)
+        return _trusted(check_aisc.check(joint, solution, method), solution)
     if standard == "en1993-1-8":
         from plyshear.codes import check_en
 
-        return check_en.check(joint, solution)
+        return _trusted(check_en.check(joint, solution), solution)
     raise ValueError(f"unknown standard '{standard}'; known: {', '.join(STANDARDS)}")
+
+
+def _trusted(result: CheckResult, solution: Solution) -> CheckResult:
+    """Mark the check unverified when its solve is not trustworthy (it then fails)."""
+    why = []
+    if not solution.equilibrium_residual <= UNVERIFIED_RESIDUAL:
+        why.append(f"equilibrium residual {solution.equilibrium_residual:.1e} of the load "
+                   f"(above {UNVERIFIED_RESIDUAL:.0e})")
+    if not solution.condition <= UNVERIFIED_CONDITION:
+        why.append(f"condition estimate {solution.condition:.1e} (above "
+                   f"{UNVERIFIED_CONDITION:.0e})")
+    return dataclasses.replace(result, unverified="; ".join(why)) if why else result
 
 
 # Helpers shared by the standards ------------------------------------------------

@@ -253,10 +253,19 @@ def row_figure(solution: Solution) -> Figure:
     return fig
 
 
-def figure_bytes(fig: Figure, fmt: str) -> bytes:
-    """Render a figure to PNG, SVG or PDF bytes (the caller writes the file)."""
+def figure_bytes(fig: Figure, fmt: str, salt: str = "plyshear") -> bytes:
+    """Render a figure to PNG, SVG or PDF bytes (the caller writes the file).
+
+    The bytes depend only on the figure: SVG ids are hashed with ``salt`` (give
+    each figure of one document its own, so their ids differ), and no date is
+    written (PDF and PNG take ``SOURCE_DATE_EPOCH`` if it is set).
+    """
+    import matplotlib
+
     buf = io.BytesIO()
-    fig.savefig(buf, format=fmt, dpi=150)
+    meta = {"Date": None} if fmt == "svg" else {}
+    with matplotlib.rc_context({"svg.hashsalt": salt}):
+        fig.savefig(buf, format=fmt, dpi=150, metadata=meta)
     return buf.getvalue()
 
 

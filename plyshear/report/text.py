@@ -7,7 +7,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult
+from plyshear.codes.check import UNVERIFIED, CheckResult
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
@@ -187,7 +187,9 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     out.append(table(["check", "where", "demand", "capacity", "unit", "util.", "clause", ""],
                      rows, "llrrlrll"))
     out.append("")
-    if gov is not None:
+    if result.unverified:
+        out.append(f"{UNVERIFIED} ({result.unverified}); the demands cannot be trusted")
+    elif gov is not None:
         verdict = "PASSES" if result.passes else "FAILS"
         out.append(f"{verdict}: governing {gov.what} at {gov.place(result.units)}, utilization "
                    f"{gov.utilization:.3f} ({gov.clause})")

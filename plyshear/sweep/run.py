@@ -35,6 +35,9 @@ from plyshear.sweep.stream import case_key
 
 #: Cases per chunk: large enough for the batch path, small enough for a progress bar.
 CHUNK = 250
+#: Cases per chunk with ``capacity="full"`` (about 0.1 s a case: a chunk of a second),
+#: so that progress, interrupts and retries stay fine-grained.
+FULL_CHUNK = 10
 CAPACITY_MODES = ("none", "elastic", "full")
 #: Columns of every row, before the plane shears (see :func:`columns`).
 BASE_COLUMNS = ("case", "case_key", "error", "max_shear", "worst_plane", "max_moment",
@@ -62,6 +65,11 @@ class Options:
     def __post_init__(self) -> None:
         if self.capacity not in CAPACITY_MODES:
             raise ValueError(f"capacity must be one of {', '.join(CAPACITY_MODES)}")
+
+
+def chunk_size(options: Options) -> int:
+    """Cases per chunk for these options (a chunk takes about a second or less)."""
+    return FULL_CHUNK if options.capacity == "full" else CHUNK
 
 
 def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) -> list[str]:
@@ -396,13 +404,16 @@ def _run_dask(address: str, jobs: list[tuple[Any, ...]],
             for fut in ready:
                 i = futures.pop(fut)
                 try:
-                    deliver(i, fut.result())
+                    rows = fut.result()
                 except KilledWorker as exc:
                     lost(i, f"the chunk's workers died ({exc.__class__.__name__})")
+                    continue
                 except Exception as exc:  # noqa: BLE001 - one chunk's failure is its rows
                     if _scheduler_lost(exc):
                         raise
                     lost(i, f"{type(exc).__name__}: {exc}")
+                    continue
+                deliver(i, rows)
             if client.status != "running":
                 raise OSError("the client lost its scheduler")
             if len(client.nthreads()):

@@ -84,6 +84,8 @@ class Stream:
         self.rows_written = 0
         self._fd: int | None = None
         self._reserved = False
+        self._from_complete = False
+        self._appended = 0
 
     # -- opening ------------------------------------------------------------
 
@@ -150,6 +152,7 @@ class Stream:
                 if complete:
                     self._write_all("".join(complete).encode("utf-8"))
                     self._count(complete)
+                    self._from_complete = True
             os.fsync(fd)
         except OSError as exc:
             self.close()
@@ -235,6 +238,7 @@ class Stream:
             raise OutputError(f"{self.partial}: {what}; the {self.rows_written} rows written "
                               "so far are kept") from None
         self.rows_written += len(rows)
+        self._appended += len(rows)
 
     def _write_all(self, data: bytes) -> None:
         assert self._fd is not None
@@ -250,6 +254,11 @@ class Stream:
             OutputError: If the output cannot be written (the partial file stays).
         """
         assert self._fd is not None
+        if self._from_complete and not self._appended:  # resumed a finished run: a no-op
+            with contextlib.suppress(OSError):
+                self.partial.unlink()
+            self.close()
+            return
         size = os.fstat(self._fd).st_size
         records = self._records(os.pread(self._fd, size, 0), self.partial)
         records.sort(key=lambda r: _number(self._parse(r).get(case_col)))
