@@ -284,20 +284,29 @@ def capacity_dict(summary: Any, joint: Any) -> dict[str, Any]:
               help="Monte Carlo of hole positions within the clearance: number of samples "
                    "(about 0.2 s each).")
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="With --scatter: write every sample to a .csv or .jsonl file as it "
+                   "finishes.")
+@click.option("--resume", is_flag=True,
+              help="With --scatter -o: continue the run that wrote the file.")
 def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
-                 scatter: int | None, seed: int) -> None:
+                 scatter: int | None, seed: int, output: str | None, resume: bool) -> None:
     """Find the ultimate capacity of MODEL: elastic, nonlinear and plastic.
 
     Nominal strengths, no resistance factors. The bearing law is the model's
     [analysis] bearing (a nonlinear law such as "plate-bearing" for redistribution).
     With --scatter, the plies' holes are placed at random within the clearance and
     the spread of the worst plane shear and of the capacity is reported; --plot then
-    draws their histograms.
+    draws their histograms. With -o the samples are written as they finish; Ctrl-C
+    keeps them and --resume continues.
     """
+    if scatter is None and (output is not None or resume):
+        fail(f"{model}: -o and --resume apply to --scatter only")
+    out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
     joint = _load(model)
     if scatter is not None:
-        _scatter(joint, scatter, seed, as_json, target, force)
+        _scatter(joint, scatter, seed, as_json, target, force, out_path, resume)
         return
     summary = _summarize(joint)
     if as_json:
@@ -315,27 +324,24 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
 
 
 def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
-             target: tuple[Path, str] | None, force: bool) -> None:
-    from plyshear import units
-    from plyshear.mechanics.studies import hole_scatter
+             target: tuple[Path, str] | None, force: bool, out_path: Path | None,
+             resume: bool) -> None:
+    from plyshear.sweep.stream import OutputError
 
-    try:
-        result = _guard(lambda: hole_scatter(joint, samples, seed))
-    except ValueError as exc:
-        fail(f"{joint.source}: {exc}")
+    cols = _scatter_columns(joint)
+    stream = _open_stream(out_path, cols, force, resume)
+    result, stopped, done = _scatter_run(joint, samples, seed, stream)
+    if stopped is not None:
+        _scatter_stopped(joint, result, samples, stream, stopped, done)
+    if stream is not None:
+        try:
+            stream.finish(case_col="sample")
+        except OutputError as exc:
+            fail(str(exc), EXIT_FAULT)
+        result = _scatter_read(joint, str(stream.path))
+        click.echo(f"{samples} samples written to {stream.path}", err=True)
     if as_json:
-        f = units.system(joint.units).factor("force")
-        data = {"format": 1, "units": units.system(joint.units).labels(),
-                "scatter": {
-                    "samples": samples, "seed": seed, "failed": result.failed,
-                    "clearance": result.clearance / units.system(joint.units).factor("length"),
-                    "service_load": result.service_load / f,
-                    "worst_plane_shear": {f"p{q}": v / f for q, v in zip(
-                        (5, 50, 95), result.percentiles(result.service_shear), strict=True)},
-                    "capacity": {f"p{q}": v / f for q, v in zip(
-                        (5, 50, 95), result.percentiles(result.capacity), strict=True)},
-                }}
-        click.echo(json.dumps(data, indent=2))
+        click.echo(json.dumps(scatter_dict(result, joint, samples, seed), indent=2))
     else:
         from plyshear.report.text import scatter_text
 
@@ -344,6 +350,123 @@ def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
         from plyshear.report import diagrams
 
         _write_figure(diagrams.scatter_figure(result, joint), target, force)
+
+
+def _scatter_columns(joint: Any) -> list[str]:
+    return ["sample", "case_key", "status", "worst_plane_shear", "capacity",
+            *(f"hole_offset_{j}" for j in range(1, len(joint.plies) + 1))]
+
+
+def _sample_key(seed: int, index: int) -> str:
+    from plyshear.sweep.stream import case_key
+
+    return case_key(["seed", "sample"], [seed, index])
+
+
+def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any, int | None, int]:
+    """Run the samples with a progress bar, appending each to the output as it ends."""
+    from plyshear import units
+    from plyshear.mechanics.studies import hole_scatter
+    from plyshear.sweep.pool import Stopper
+    from plyshear.sweep.stream import OutputError
+
+    u = units.system(joint.units)
+    f, ln = u.factor("force"), u.factor("length")
+    done = 0
+    with Stopper() as stop, click.progressbar(length=samples, label=f"{samples} samples",
+                                              file=sys.stderr) as bar:
+        def skip(index: int) -> bool:
+            nonlocal done
+            taken = stream is not None and stream.take_done(_sample_key(seed, index))
+            if taken:
+                done += 1
+                bar.update(1)
+            return taken
+
+        def on_sample(s: Any) -> None:
+            nonlocal done
+            if stream is not None:
+                stream.append([{"sample": s.index, "case_key": _sample_key(seed, s.index),
+                                "status": s.status, "worst_plane_shear": s.service_shear / f,
+                                "capacity": s.capacity / f,
+                                **{f"hole_offset_{j}": o / ln
+                                   for j, o in enumerate(s.offsets, start=1)}}])
+            done += 1
+            bar.update(1)
+
+        try:
+            result = _guard(lambda: hole_scatter(joint, samples, seed, skip=skip,
+                                                 on_sample=on_sample,
+                                                 stop=lambda: stop.stopped))
+        except ValueError as exc:
+            if stream is not None:
+                stream.discard()
+            fail(f"{joint.source}: {exc}")
+        except OutputError as exc:
+            stream.close()
+            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+    return result, stop.signum, done
+
+
+def _scatter_read(joint: Any, path: str) -> Any:
+    """All samples of a finished output file, as a result."""
+    import math
+
+    from plyshear import units
+    from plyshear.mechanics import studies
+    from plyshear.mechanics.capacity import hole_clearance
+    from plyshear.sweep.output import read_table
+
+    f = units.system(joint.units).factor("force")
+    samples = []
+    for row in read_table(path):
+        status = str(row.get("status") or "")
+        shear = (row.get("worst_plane_shear") or 0.0) * f if status == studies.OK else math.inf
+        cap = -math.inf if status.startswith(studies.NOT_CONVERGED) else \
+            (row.get("capacity") or 0.0) * f
+        samples.append(studies.Sample(int(row["sample"]), (), shear, cap, status))
+    return studies.ScatterResult.of(samples, studies.service_load(joint), hole_clearance(joint),
+                                    max(1, len(joint.plies) - 1))
+
+
+def _scatter_stopped(joint: Any, result: Any, samples: int, stream: Any, signum: int,
+                     done: int) -> NoReturn:
+    """Report an interrupted scatter: what is kept, how to go on; exit 130 or 143."""
+    if stream is None:
+        from plyshear.report.text import scatter_text
+
+        if result.capacity.size:
+            click.echo(scatter_text(result, joint))
+        kept = "shown above; run with -o FILE to keep samples and --resume"
+    else:
+        stream.close()
+        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+    name = "terminated" if signum == 15 else "interrupted"
+    click.echo(f"{name}: {done} of {samples} samples done, {kept}", err=True)
+    sys.exit(EXIT_SIGNAL.get(signum, 128 + signum))
+
+
+def scatter_dict(result: Any, joint: Any, samples: int, seed: int) -> dict[str, Any]:
+    """The JSON ``scatter`` section, in the joint's units (null: an infinite percentile)."""
+    import math
+
+    from plyshear import units
+
+    u = units.system(joint.units)
+    f = u.factor("force")
+
+    def pct(values: Any) -> dict[str, float | None]:
+        return {f"p{q}": (v / f if math.isfinite(v) else None) for q, v in zip(
+            (5, 50, 95), result.percentiles(values), strict=True)}
+
+    return {"format": 1, "units": u.labels(), "scatter": {
+        "samples": samples, "seed": seed, "failed": result.failed,
+        "not_converged": result.failed, "below_load": result.below_load,
+        "clearance": result.clearance / u.factor("length"),
+        "service_load": result.service_load / f,
+        "worst_plane_shear": pct(result.service_shear),
+        "capacity": pct(result.capacity),
+    }}
 
 
 @main.command("planes")
