@@ -551,12 +551,16 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 @click.option("--worker-timeout", type=click.FloatRange(min=0.1), default=60.0,
               show_default=True, help="With --scheduler: seconds without any Dask worker "
                                       "before the run ends.")
+@click.option("--chunk", type=click.IntRange(min=1, max=100000), default=None,
+              help="Cases per chunk (default 250; 10 with --capacity full): the unit of "
+                   "progress, of a retry after a worker's death and of what an interrupt "
+                   "loses.")
 @click.option("--quiet", is_flag=True, help="No progress bar.")
 def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
               output: str | None, capacity: str, no_check: bool, plot: str | None,
               response: str, x_key: str | None, series: str | None, workers: int | None,
               scheduler: str | None, force: bool, resume: bool, worker_timeout: float,
-              quiet: bool) -> None:
+              chunk: int | None, quiet: bool) -> None:
     """Solve, check and rate MODEL for every combination of the --vary values.
 
     Every case goes through the model file's own validation; a case that fails it
@@ -582,7 +586,7 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
     cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
     stream = _open_stream(out_path, cols, force, resume)
     rows, outcome = _sweep_run(model, data, keys, cases, options, stream, quiet, workers,
-                               scheduler, worker_timeout)
+                               scheduler, worker_timeout, chunk or sr.chunk_size(options))
     if outcome.stopped is not None or outcome.fault:
         _sweep_stopped(model, joint, rows, cols, key_texts, len(cases), stream, outcome)
     if stream is not None:
@@ -654,14 +658,14 @@ def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool) 
 
 def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], options: Any,
                stream: Any, quiet: bool, workers: int | None, scheduler: str | None,
-               worker_timeout: float) -> tuple[list[dict[str, Any]], Any]:
+               worker_timeout: float, chunk: int) -> tuple[list[dict[str, Any]], Any]:
     """Run the cases, appending each finished chunk to the output; keep the rows."""
     from plyshear.sweep import run as sr
     from plyshear.sweep.pool import Stopper
     from plyshear.sweep.stream import OutputError
 
     rows: list[dict[str, Any]] = []
-    show = not quiet and len(cases) > sr.chunk_size(options)
+    show = not quiet and len(cases) > chunk
     with Stopper() as stop, click.progressbar(length=len(cases), label=f"{len(cases)} cases",
                                               file=sys.stderr, hidden=not show) as bar:
         def sink(part: list[dict[str, Any]]) -> None:
@@ -675,7 +679,7 @@ def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], o
             outcome = sr.run_stream(data, str(model), keys, cases, options, sink,
                                     skip=stream.take_done if stream is not None else None,
                                     workers=workers, scheduler=scheduler, stopper=stop,
-                                    chunk=sr.chunk_size(options),
+                                    chunk=chunk,
                                     worker_timeout=worker_timeout)
         except RuntimeError as exc:
             if stream is not None:

@@ -35,6 +35,13 @@ GRACE = 3.0
 POLL = 0.1
 #: Runs of one chunk on a worker that died before it is given up (the first and one retry).
 ATTEMPTS = 2
+#: Workers that may die before the first result, per worker asked for, before the run
+#: gives up: they cannot start (a broken environment), and starting more cannot help.
+STARTUP_DEATHS = 2
+
+
+class PoolError(RuntimeError):
+    """The worker processes cannot run at all (each dies before any result)."""
 
 
 class Interrupted(Exception):  # noqa: N818 (a signal, not an error)
@@ -167,6 +174,7 @@ class PoolReport:
     deaths: int = 0
     lost: dict[int, str] = field(default_factory=dict)
     stopped: int | None = None
+    exits: list[int | None] = field(default_factory=list)
 
 
 def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
@@ -206,11 +214,15 @@ def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
         alive_r.close()
         return _Slot(proc, parent, alive_w)
 
+    answered = False
+
     def receive(slot: _Slot) -> bool:
+        nonlocal answered
         try:
             index, ok, value = slot.conn.recv()
         except (EOFError, OSError):
             return False
+        answered = True
         slot.job = None
         if ok:
             on_result(index, value)
@@ -239,6 +251,10 @@ def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
                         pass  # it answered, then ended
                     _lost_worker(s, report, attempts, pending, fail)
                     _close(s)
+                    report.exits.append(s.proc.exitcode)
+                    if not answered and len(report.exits) > STARTUP_DEATHS * len(slots):
+                        raise PoolError(f"worker processes end as they start "
+                                        f"({death_cause(s.proc.exitcode)}); none could run")
                     slots[k] = spawn() if pending and not stopper.stopped else s
             slots = [s for s in slots if s.proc.is_alive() or s.job is not None]
         if stopper.stopped:

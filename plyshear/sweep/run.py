@@ -350,7 +350,11 @@ def run_stream(base: Mapping[str, Any], source: str, keys: Sequence[Key],
             deliver(i, rows)
         outcome.stopped = stop.signum
         return outcome
-    report = _pool.run_jobs(_chunk, jobs, n_workers, deliver, stop, on_error=lost)
+    try:
+        report = _pool.run_jobs(_chunk, jobs, n_workers, deliver, stop, on_error=lost)
+    except _pool.PoolError as exc:
+        outcome.fault = str(exc)
+        return outcome
     outcome.stopped = report.stopped
     outcome.deaths = report.deaths
     return outcome
