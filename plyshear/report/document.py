@@ -100,6 +100,10 @@ def _svg(fig: Figure, name: str) -> str:
     """
     text = diagrams.figure_bytes(fig, "svg", salt=f"plyshear-{name}").decode("utf-8")
     text = re.sub(r"<metadata>.*?</metadata>", "", text[text.find("<svg"):], flags=re.S)
+    # every id and reference prefixed: matplotlib names glyphs and groups alike in
+    # every figure ("DejaVuSans-48", "figure_1"), and a page may hold one id once
+    text = re.sub(r'\bid="([^"]+)"', rf'id="{name}-\1"', text)
+    text = re.sub(r'(href="#|url\(#)([^")]+)', rf"\g<1>{name}-\2", text)
     return text
 
 
