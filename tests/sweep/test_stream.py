@@ -153,3 +153,21 @@ def test_case_keys_depend_on_the_values_only() -> None:
     assert a != ss.case_key(["bolt.diameter", "ply[2].thickness"], [24, 12.5])
     assert len(a) == 16
     assert int(a, 16) >= 0  # hexadecimal
+
+
+def test_a_cluster_without_workers_ends_in_one_line(write_model, tmp_path) -> None:
+    distributed = pytest.importorskip("distributed")
+    path = write_model(FORK)
+    out = tmp_path / "out.csv"
+    with distributed.LocalCluster(n_workers=0, processes=False, dashboard_address=None) as c:
+        t0 = time.monotonic()
+        r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
+                                      "--scheduler", c.scheduler_address, "--worker-timeout",
+                                      "1", "--quiet", "-o", str(out)])
+        assert time.monotonic() - t0 < 15.0  # the timeout, the client's start and close
+    assert r.exit_code == 3, r.output  # could not finish
+    lines = r.stderr.strip().splitlines()
+    assert len(lines) == 1
+    assert "no Dask worker for 1 s" in lines[0]
+    assert "0 of 2 cases done" in lines[0]
+    assert (tmp_path / "out.csv.partial").exists()  # kept for --resume
