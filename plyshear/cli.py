@@ -17,23 +17,33 @@ from typing import Any, NoReturn
 
 import click
 
+EXIT_FAILS = 1
 EXIT_BAD_INPUT = 2
+EXIT_FAULT = 3
+#: Exit codes of a run stopped by a signal: 128 + the signal's number (shells' rule).
+EXIT_SIGNAL = {2: 130, 15: 143}
+#: Longest error line printed: a key of a million characters is named, not echoed.
+MAX_ERROR_LINE = 300
 FIGURE_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
 
 
-def one_line(text: str) -> str:
-    """Escape what would break or hide a line: line and paragraph separators, controls."""
-    return "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text)
+def one_line(text: str, most: int = MAX_ERROR_LINE) -> str:
+    """Escape what would break or hide a line (separators, controls); cut it at ``most``."""
+    line = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text[:4 * most])
+    return line if len(line) <= most else line[:most - 25] + f"... ({len(text)} characters)"
 
 
-def fail(message: str) -> NoReturn:
-    """Print one error line and exit with code 2."""
+def fail(message: str, code: int = EXIT_BAD_INPUT) -> NoReturn:
+    """Print one error line and exit with ``code`` (2: bad input)."""
     click.echo(f"error: {one_line(message)}", err=True)
-    sys.exit(EXIT_BAD_INPUT)
+    sys.exit(code)
 
 
 def write_atomic(path: Path, data: bytes, force: bool) -> None:
     """Write ``data`` to ``path`` through a temporary file renamed into place.
+
+    The temporary file is locked while it is written; a stale one left by a
+    killed write to the same path (unlocked) is removed first.
 
     Args:
         path: The target file.
@@ -45,8 +55,13 @@ def write_atomic(path: Path, data: bytes, force: bool) -> None:
     directory = path.parent if str(path.parent) else Path(".")
     if not directory.is_dir():
         fail(f"{path}: folder {directory} does not exist")
-    fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    _remove_stale(directory, path.name)
     try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".part", dir=directory)
+    except OSError as exc:
+        fail(f"{path}: cannot write in {directory} ({exc.strerror or exc})")
+    try:
+        _lock(fd)
         umask = os.umask(0)
         os.umask(umask)
         os.chmod(tmp, 0o666 & ~umask)
@@ -55,9 +70,47 @@ def write_atomic(path: Path, data: bytes, force: bool) -> None:
             fh.flush()
             os.fsync(fh.fileno())
         os.replace(tmp, path)
+    except OSError as exc:
+        Path(tmp).unlink(missing_ok=True)
+        fail(f"{path}: cannot write ({exc.strerror or exc}); nothing was replaced",
+             EXIT_FAULT)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)
         raise
+
+
+def _lock(fd: int, block: bool = True) -> bool:
+    """Take an exclusive lock on an open file (POSIX); False if another holds it."""
+    try:
+        import fcntl
+    except ImportError:  # pragma: no cover - not POSIX
+        return True
+    try:
+        fcntl.flock(fd, fcntl.LOCK_EX | (0 if block else fcntl.LOCK_NB))
+    except OSError:
+        return False
+    return True
+
+
+def _remove_stale(directory: Path, name: str) -> None:
+    """Remove temporary files of earlier writes to ``name`` whose writer is gone."""
+    for tmp in directory.glob(f".{glob_escape(name)}.*.part"):
+        try:
+            fd = os.open(tmp, os.O_RDONLY)
+        except OSError:
+            continue
+        try:
+            if _lock(fd, block=False):  # nobody writes it: a killed write's leftover
+                tmp.unlink(missing_ok=True)
+        finally:
+            os.close(fd)
+
+
+def glob_escape(text: str) -> str:
+    """Escape glob's special characters in a file name."""
+    import glob
+
+    return glob.escape(text)
 
 
 def _guard(func: Callable[[], Any]) -> Any:
@@ -223,8 +276,13 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
               help="Monte Carlo of hole positions within the clearance: number of samples "
                    "(about 0.2 s each).")
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="With --scatter: write every sample to a .csv or .jsonl file as it "
+                   "finishes.")
+@click.option("--resume", is_flag=True,
+              help="With --scatter -o: continue the run that wrote the file.")
 def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
-                 scatter: int | None, seed: int) -> None:
+                 scatter: int | None, seed: int, output: str | None, resume: bool) -> None:
     """Find the ultimate capacity of MODEL: elastic, nonlinear, collapse, shear-only.
 
     Nominal strengths, each with its design value under the model's standard
@@ -234,13 +292,17 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     bearing strength; the bolt yields as [analysis] bolt says.
     With --scatter, the plies' holes are placed at random within the clearance and
     the spread of the worst plane shear and of the capacity is reported; --plot then
-    draws their histograms.
+    draws their histograms. With -o the samples are written as they finish; Ctrl-C
+    keeps them and --resume continues.
     """
+    if scatter is None and (output is not None or resume):
+        fail(f"{model}: -o and --resume apply to --scatter only")
+    out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
     joint = _load(model)
     _echo_sanity(joint)
     if scatter is not None:
-        _scatter(joint, scatter, seed, as_json, target, force)
+        _scatter(joint, scatter, seed, as_json, target, force, out_path, resume)
         return
     summary = _summarize(joint)
     result = _check_quietly(joint, summary.solution)
@@ -261,27 +323,24 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
 
 
 def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
-             target: tuple[Path, str] | None, force: bool) -> None:
-    from plyshear import units
-    from plyshear.mechanics.studies import hole_scatter
+             target: tuple[Path, str] | None, force: bool, out_path: Path | None,
+             resume: bool) -> None:
+    from plyshear.sweep.stream import OutputError
 
-    try:
-        result = _guard(lambda: hole_scatter(joint, samples, seed))
-    except ValueError as exc:
-        fail(f"{joint.source}: {exc}")
+    cols = _scatter_columns(joint)
+    stream = _open_stream(out_path, cols, force, resume)
+    result, stopped, done = _scatter_run(joint, samples, seed, stream)
+    if stopped is not None:
+        _scatter_stopped(joint, result, samples, stream, stopped, done)
+    if stream is not None:
+        try:
+            stream.finish(case_col="sample")
+        except OutputError as exc:
+            fail(str(exc), EXIT_FAULT)
+        result = _scatter_read(joint, str(stream.path))
+        click.echo(f"{samples} samples written to {stream.path}", err=True)
     if as_json:
-        f = units.system(joint.units).factor("force")
-        data = {"format": 1, "units": units.system(joint.units).labels(),
-                "scatter": {
-                    "samples": samples, "seed": seed, "failed": result.failed,
-                    "clearance": result.clearance / units.system(joint.units).factor("length"),
-                    "service_load": result.service_load / f,
-                    "worst_plane_shear": {f"p{q}": v / f for q, v in zip(
-                        (5, 50, 95), result.percentiles(result.service_shear), strict=True)},
-                    "capacity": {f"p{q}": v / f for q, v in zip(
-                        (5, 50, 95), result.percentiles(result.capacity), strict=True)},
-                }}
-        click.echo(json.dumps(data, indent=2))
+        click.echo(json.dumps(scatter_dict(result, joint, samples, seed), indent=2))
     else:
         from plyshear.report.text import scatter_text
 
@@ -290,6 +349,123 @@ def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
         from plyshear.report import diagrams
 
         _write_figure(diagrams.scatter_figure(result, joint), target, force)
+
+
+def _scatter_columns(joint: Any) -> list[str]:
+    return ["sample", "case_key", "status", "worst_plane_shear", "capacity",
+            *(f"hole_offset_{j}" for j in range(1, len(joint.plies) + 1))]
+
+
+def _sample_key(seed: int, index: int) -> str:
+    from plyshear.sweep.stream import case_key
+
+    return case_key(["seed", "sample"], [seed, index])
+
+
+def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any, int | None, int]:
+    """Run the samples with a progress bar, appending each to the output as it ends."""
+    from plyshear import units
+    from plyshear.mechanics.studies import hole_scatter
+    from plyshear.sweep.pool import Stopper
+    from plyshear.sweep.stream import OutputError
+
+    u = units.system(joint.units)
+    f, ln = u.factor("force"), u.factor("length")
+    done = 0
+    with Stopper() as stop, click.progressbar(length=samples, label=f"{samples} samples",
+                                              file=sys.stderr) as bar:
+        def skip(index: int) -> bool:
+            nonlocal done
+            taken = stream is not None and stream.take_done(_sample_key(seed, index))
+            if taken:
+                done += 1
+                bar.update(1)
+            return taken
+
+        def on_sample(s: Any) -> None:
+            nonlocal done
+            if stream is not None:
+                stream.append([{"sample": s.index, "case_key": _sample_key(seed, s.index),
+                                "status": s.status, "worst_plane_shear": s.service_shear / f,
+                                "capacity": s.capacity / f,
+                                **{f"hole_offset_{j}": o / ln
+                                   for j, o in enumerate(s.offsets, start=1)}}])
+            done += 1
+            bar.update(1)
+
+        try:
+            result = _guard(lambda: hole_scatter(joint, samples, seed, skip=skip,
+                                                 on_sample=on_sample,
+                                                 stop=lambda: stop.stopped))
+        except ValueError as exc:
+            if stream is not None:
+                stream.discard()
+            fail(f"{joint.source}: {exc}")
+        except OutputError as exc:
+            stream.close()
+            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+    return result, stop.signum, done
+
+
+def _scatter_read(joint: Any, path: str) -> Any:
+    """All samples of a finished output file, as a result."""
+    import math
+
+    from plyshear import units
+    from plyshear.mechanics import studies
+    from plyshear.mechanics.capacity import hole_clearance
+    from plyshear.sweep.output import read_table
+
+    f = units.system(joint.units).factor("force")
+    samples = []
+    for row in read_table(path):
+        status = str(row.get("status") or "")
+        shear = (row.get("worst_plane_shear") or 0.0) * f if status == studies.OK else math.inf
+        cap = -math.inf if status.startswith(studies.NOT_CONVERGED) else \
+            (row.get("capacity") or 0.0) * f
+        samples.append(studies.Sample(int(row["sample"]), (), shear, cap, status))
+    return studies.ScatterResult.of(samples, studies.service_load(joint), hole_clearance(joint),
+                                    max(1, len(joint.plies) - 1))
+
+
+def _scatter_stopped(joint: Any, result: Any, samples: int, stream: Any, signum: int,
+                     done: int) -> NoReturn:
+    """Report an interrupted scatter: what is kept, how to go on; exit 130 or 143."""
+    if stream is None:
+        from plyshear.report.text import scatter_text
+
+        if result.capacity.size:
+            click.echo(scatter_text(result, joint))
+        kept = "shown above; run with -o FILE to keep samples and --resume"
+    else:
+        stream.close()
+        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+    name = "terminated" if signum == 15 else "interrupted"
+    click.echo(f"{name}: {done} of {samples} samples done, {kept}", err=True)
+    sys.exit(EXIT_SIGNAL.get(signum, 128 + signum))
+
+
+def scatter_dict(result: Any, joint: Any, samples: int, seed: int) -> dict[str, Any]:
+    """The JSON ``scatter`` section, in the joint's units (null: an infinite percentile)."""
+    import math
+
+    from plyshear import units
+
+    u = units.system(joint.units)
+    f = u.factor("force")
+
+    def pct(values: Any) -> dict[str, float | None]:
+        return {f"p{q}": (v / f if math.isfinite(v) else None) for q, v in zip(
+            (5, 50, 95), result.percentiles(values), strict=True)}
+
+    return {"format": 1, "units": u.labels(), "scatter": {
+        "samples": samples, "seed": seed, "failed": result.failed,
+        "not_converged": result.failed, "below_load": result.below_load,
+        "clearance": result.clearance / u.factor("length"),
+        "service_load": result.service_load / f,
+        "worst_plane_shear": pct(result.service_shear),
+        "capacity": pct(result.capacity),
+    }}
 
 
 @main.command("planes")
@@ -341,9 +517,6 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
         _write_figure(diagrams.planes_figure(rows, joint), target, force)
 
 
-SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
-
-
 @main.command("sweep")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("--vary", "varies", multiple=True, metavar="KEY=VALUES",
@@ -375,63 +548,61 @@ SWEEP_FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
               help="Run on a Dask distributed cluster (tcp://host:8786); needs the "
                    "'dask' extra.")
 @click.option("--force", is_flag=True, help="Replace an existing -o or --plot file.")
+@click.option("--resume", is_flag=True,
+              help="Continue the sweep that wrote -o (its .partial file, or a complete "
+                   "output): skip the cases it holds, run the rest.")
+@click.option("--worker-timeout", type=click.FloatRange(min=0.1), default=60.0,
+              show_default=True, help="With --scheduler: seconds without any Dask worker "
+                                      "before the run ends.")
+@click.option("--chunk", type=click.IntRange(min=1, max=100000), default=None,
+              help="Cases per chunk (default 250; 10 with --capacity full): the unit of "
+                   "progress, of a retry after a worker's death and of what an interrupt "
+                   "loses.")
 @click.option("--quiet", is_flag=True, help="No progress bar.")
 def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
               output: str | None, capacity: str, no_check: bool, plot: str | None,
               response: str, x_key: str | None, series: str | None, workers: int | None,
-              scheduler: str | None, force: bool, quiet: bool) -> None:
+              scheduler: str | None, force: bool, resume: bool, worker_timeout: float,
+              chunk: int | None, quiet: bool) -> None:
     """Solve, check and rate MODEL for every combination of the --vary values.
 
     Every case goes through the model file's own validation; a case that fails it
     (a value outside a catalogue's range, say) is a row with its error, and the
     sweep goes on. Same-shaped cases are solved together (the batch path) on
-    local processes, or on a Dask cluster with --scheduler.
+    local processes, or on a Dask cluster with --scheduler. With -o, rows are
+    written as they finish; Ctrl-C keeps them and --resume continues. Exit code 0
+    when every case passes, 1 when one fails or has an error, 2 on bad input,
+    3 when the run could not finish, 130 (143) when interrupted (terminated).
     """
-    from plyshear.model import modelfile
-    from plyshear.sweep import keys as sk
-    from plyshear.sweep import output as so
     from plyshear.sweep import run as sr
 
     if not varies and cases_file is None:
         fail(f"{model}: sweep: give at least one --vary KEY=VALUES or --cases FILE")
-    out_path = Path(output) if output else None
-    if out_path is not None:
-        if out_path.suffix.lower() not in SWEEP_FORMATS:
-            fail(f"{output}: -o needs a .csv or .jsonl file name")
-        if out_path.exists() and not force:
-            fail(f"{output}: exists; use --force to replace it")
+    out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
     joint = _load(model)
     _echo_sanity(joint)
-    data = _guard(lambda: modelfile.read(model))
-    try:
-        parsed = [sk.parse_vary(v, data) for v in varies]
-        table = sk.read_cases(cases_file, data) if cases_file else None
-        keys, cases = sk.cases(parsed, table)
-    except sk.SweepError as exc:
-        fail(f"{model}: sweep: {exc}")
+    data, keys, cases = _sweep_cases(model, varies, cases_file)
     key_texts = [k.text for k in keys]
     chart = _sweep_chart(model, target, response, x_key, series, keys, cases, capacity,
                          no_check, len(joint.plies) - 1)
     options = sr.Options(capacity=capacity, check=not no_check)
     cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
-    show = not quiet and len(cases) > sr.CHUNK
-    with click.progressbar(length=len(cases), label=f"{len(cases)} cases", file=sys.stderr,
-                           hidden=not show) as bar:
+    stream = _open_stream(out_path, cols, force, resume)
+    rows, outcome = _sweep_run(model, data, keys, cases, options, stream, quiet, workers,
+                               scheduler, worker_timeout, chunk or sr.chunk_size(options))
+    if outcome.stopped is not None or outcome.fault:
+        _sweep_stopped(model, joint, rows, cols, key_texts, len(cases), stream, outcome)
+    if stream is not None:
+        from plyshear.sweep.output import read_table
+        from plyshear.sweep.stream import OutputError
+
         try:
-            rows = sr.run(data, str(model), keys, cases, options, workers=workers,
-                          scheduler=scheduler, progress=bar.update)
-        except RuntimeError as exc:
-            fail(f"{model}: sweep: {exc}")
-    if out_path is not None:
-        fmt = SWEEP_FORMATS[out_path.suffix.lower()]
-        payload = so.to_csv(rows, cols) if fmt == "csv" else so.to_jsonl(rows, cols)
-        write_atomic(out_path, payload.encode("utf-8"), force)
-        click.echo(f"{len(rows)} cases written to {out_path}", err=True)
-        click.echo(so.summary(rows))
-        click.echo(so.units_line(joint.units))
-    else:
-        click.echo(so.text(rows, cols, key_texts, joint.units))
+            stream.finish()
+        except OutputError as exc:
+            fail(str(exc), EXIT_FAULT)
+        rows = read_table(str(stream.path), keys)
+    _sweep_print(rows, cols, key_texts, joint.units, stream, outcome)
     if chart is not None and target is not None:
         from plyshear.report.sweepplot import sweep_figure
 
@@ -440,8 +611,148 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
         fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units,
                            f"variants of {Path(model).name}")
         _write_figure(fig, target, force)
-    if rows and all(r.get("error") for r in rows):
-        sys.exit(1)  # nothing could be solved: say so to scripts too
+    sys.exit(_sweep_exit(rows, outcome))
+
+
+def _sweep_output(output: str | None, force: bool, resume: bool) -> Path | None:
+    """Check -o, --force and --resume together, before any work."""
+    from plyshear.sweep.stream import FORMATS
+
+    if output is None:
+        if resume:
+            fail("sweep: --resume needs -o FILE (the output of the sweep to continue)")
+        return None
+    path = Path(output)
+    if path.suffix.lower() not in FORMATS:
+        fail(f"{output}: -o needs a .csv or .jsonl file name")
+    if resume and force:
+        fail(f"{output}: --resume continues the file and --force replaces it; choose one")
+    return path
+
+
+def _sweep_cases(model: str, varies: tuple[str, ...], cases_file: str | None
+                 ) -> tuple[dict[str, Any], list[Any], list[list[Any]]]:
+    """The parsed model file, the varied keys and the cases (counted before expanded)."""
+    from plyshear.model import modelfile
+    from plyshear.sweep import keys as sk
+
+    data = _guard(lambda: modelfile.read(model))
+    try:
+        table = sk.read_cases(cases_file, data) if cases_file else None
+        parsed = sk.parse_varies(varies, data, rows=len(table[1]) if table else 1)
+        keys, cases = sk.cases(parsed, table)
+    except sk.SweepError as exc:
+        fail(f"{model}: sweep: {exc}")
+    return data, keys, cases
+
+
+def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool) -> Any:
+    """Reserve the output (exclusively) and open its partial file, before any case runs."""
+    if path is None:
+        return None
+    from plyshear.sweep.stream import OutputError, Stream
+
+    stream = Stream(path, cols, force=force, resume=resume)
+    try:
+        stream.open()
+    except OutputError as exc:
+        fail(str(exc))
+    return stream
+
+
+def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], options: Any,
+               stream: Any, quiet: bool, workers: int | None, scheduler: str | None,
+               worker_timeout: float, chunk: int) -> tuple[list[dict[str, Any]], Any]:
+    """Run the cases, appending each finished chunk to the output; keep the rows."""
+    from plyshear.sweep import run as sr
+    from plyshear.sweep.pool import Stopper
+    from plyshear.sweep.stream import OutputError
+
+    rows: list[dict[str, Any]] = []
+    show = not quiet and len(cases) > chunk
+    with Stopper() as stop, click.progressbar(length=len(cases), label=f"{len(cases)} cases",
+                                              file=sys.stderr, hidden=not show) as bar:
+        def sink(part: list[dict[str, Any]]) -> None:
+            if stream is not None:
+                stream.append(part)
+            else:
+                rows.extend(part)
+            bar.update(len(part))
+
+        try:
+            outcome = sr.run_stream(data, str(model), keys, cases, options, sink,
+                                    skip=stream.take_done if stream is not None else None,
+                                    workers=workers, scheduler=scheduler, stopper=stop,
+                                    chunk=chunk,
+                                    worker_timeout=worker_timeout)
+        except RuntimeError as exc:
+            if stream is not None:
+                stream.discard()
+            fail(f"{model}: sweep: {exc}")
+        except OutputError as exc:
+            stream.close()
+            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+    rows.sort(key=lambda r: r["case"])
+    return rows, outcome
+
+
+def _resume_command() -> str:
+    """The command that continues this sweep (this one's arguments, with --resume)."""
+    import shlex
+
+    if not Path(sys.argv[0]).name.startswith("plyshear"):
+        return "the same command with --resume"
+    args = [a for a in sys.argv[1:] if a != "--force"]
+    if "--resume" not in args:
+        args.append("--resume")
+    return shlex.join(["plyshear", *args])
+
+
+def _sweep_stopped(model: str, joint: Any, rows: list[dict[str, Any]], cols: list[str],
+                   key_texts: list[str], total: int, stream: Any, outcome: Any) -> NoReturn:
+    """Report a stopped or unfinished run: what is kept, how to go on; exit."""
+    from plyshear.sweep import output as so
+
+    done = outcome.done + outcome.skipped
+    if stream is None:
+        if rows:
+            click.echo(so.text(rows, cols, key_texts, joint.units))
+        kept = "shown above; run with -o FILE to keep rows and --resume"
+    else:
+        stream.close()
+        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+    if outcome.fault:
+        fail(f"{model}: sweep: {outcome.fault}; {done} of {total} cases done, {kept}",
+             EXIT_FAULT)
+    name = "terminated" if outcome.stopped == 15 else "interrupted"
+    click.echo(f"{name}: {done} of {total} cases done, {kept}", err=True)
+    sys.exit(EXIT_SIGNAL.get(outcome.stopped, 128 + outcome.stopped))
+
+
+def _sweep_print(rows: list[dict[str, Any]], cols: list[str], key_texts: list[str],
+                 units: str, stream: Any, outcome: Any) -> None:
+    from plyshear.sweep import output as so
+
+    if stream is None:
+        click.echo(so.text(rows, cols, key_texts, units))
+    else:
+        resumed = f" ({outcome.skipped} from the earlier run)" if outcome.skipped else ""
+        click.echo(f"{len(rows)} cases written to {stream.path}{resumed}", err=True)
+        click.echo(so.summary(rows))
+        click.echo(so.units_line(units))
+    if outcome.deaths:
+        click.echo(f"warning: {outcome.deaths} worker process(es) died; their chunks were "
+                   f"run again ({outcome.lost} cases lost after a second death are error "
+                   "rows)", err=True)
+
+
+def _sweep_exit(rows: list[dict[str, Any]], outcome: Any) -> int:
+    """0: every case passes; 1: a case fails or has an error; 3: cases lost to faults."""
+    if outcome.lost:
+        return EXIT_FAULT
+    if any(r.get("error") or r.get("passes") is False for r in rows):
+        return EXIT_FAILS
+    return 0
 
 
 def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,

@@ -123,12 +123,50 @@ def system(name: str) -> UnitSystem:
         raise KeyError(f"unknown units '{name}'; known: {', '.join(SYSTEMS)}") from None
 
 
-#: A number (or a fraction such as 3/4) and a unit made of names, products, quotients
-#: and small integer powers; nothing pint would evaluate as an expression.
-_QUANTITY = re.compile(
-    r"^\s*[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d{1,3})?(?:\s*/\s*\d+(?:\.\d*)?)?"
-    r"\s*[A-Za-zµ°][A-Za-z0-9µ°_ */^.]*$"
-)
+#: The number of a quantity: a decimal (or a fraction such as 3/4), at the start.
+_NUMBER = re.compile(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d{1,3})?)"
+                     r"(?:\s*/\s*(\d+(?:\.\d*)?|\.\d+))?")
+#: One unit factor: a name, then an optional integer exponent of at most two digits
+#: written ``**N`` or ``^N`` (e.g. ``mm``, ``in**2``, ``mm^-1``).
+_FACTOR = re.compile(r"\s*([A-Za-zµ°][A-Za-z_µ°]{0,31})(?:\s*(?:\*\*|\^)\s*([-+]?\d{1,2}))?")
+#: Between two factors: ``*``, ``/`` or a space (a product).
+_OPERATOR = re.compile(r"\s*([*/])|\s+(?=[A-Za-zµ°])")
+#: Longest unit string read (a unit is a few names; anything longer is not one).
+MAX_QUANTITY_CHARS = 64
+#: Most unit factors in one string.
+MAX_FACTORS = 8
+
+
+def _grammar(text: str) -> tuple[float, list[tuple[str, int]]] | None:
+    """Split a quantity into its number and unit factors, or None if it is not one.
+
+    The grammar is a whitelist: a number (or ``a/b``), then unit names joined by
+    ``*``, ``/`` or a space, each with an optional integer exponent of at most two
+    digits. Nothing else reaches pint, so no expression is ever evaluated.
+    """
+    m = _NUMBER.match(text)
+    if m is None:
+        return None
+    value = float(m.group(1))
+    if m.group(2) is not None:
+        den = float(m.group(2))
+        if den == 0.0:
+            return None
+        value /= den
+    pos, sign, factors = m.end(), 1, []
+    while True:
+        f = _FACTOR.match(text, pos)
+        if f is None:
+            return None
+        factors.append((f.group(1), sign * int(f.group(2) or 1)))
+        pos = f.end()
+        if text[pos:].strip() == "":
+            return (value, factors) if len(factors) <= MAX_FACTORS else None
+        op = _OPERATOR.match(text, pos)
+        if op is None:
+            return None
+        sign = -1 if op.group(1) == "/" else 1
+        pos = op.end()
 
 
 @cache
@@ -156,13 +194,19 @@ def parse_quantity(text: str, dimension: str) -> float:
 
     if re.fullmatch(r"\s*[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?\s*", text):
         raise ValueError(f"'{text}' has no unit; expected a {dimension}")
-    if len(text) > 64 or not _QUANTITY.match(text) or "**" in text:
-        raise ValueError(f"cannot read '{text}' as a quantity: write a number and a unit, "
-                         "e.g. '12 mm', '3/4 in', '250 kN'")
+    parsed = _grammar(text) if len(text) <= MAX_QUANTITY_CHARS else None
+    if parsed is None:
+        shown = text if len(text) <= MAX_QUANTITY_CHARS else text[:MAX_QUANTITY_CHARS] + "..."
+        raise ValueError(f"cannot read '{shown}' as a quantity: write a number and a unit, "
+                         "e.g. '12 mm', '3/4 in', '250 kN', 'N/mm^2' (exponents: integers "
+                         "of at most two digits)")
     ureg = _registry()
+    number, factors = parsed
     try:
-        q = ureg.Quantity(text)
-    except Exception as exc:  # pint raises many kinds on malformed text; all mean "unreadable"
+        q = ureg.Quantity(number, ureg.dimensionless)
+        for name, power in factors:
+            q = q * ureg.Unit(name) ** power
+    except Exception as exc:  # pint raises many kinds on unknown names; all mean "unreadable"
         raise ValueError(f"cannot read '{text}' as a quantity ({exc.__class__.__name__})") from None
     if not isinstance(q, ureg.Quantity) or q.dimensionless:
         raise ValueError(f"'{text}' has no unit; expected a {dimension}")

@@ -23,6 +23,11 @@ from plyshear.mechanics.results import BoltResult, Solution
 from plyshear.model.joint import Joint
 
 STANDARDS = ("aisc360-22", "en1993-1-8")
+#: A solve is not trusted for a check above these (relative residual, condition estimate).
+UNVERIFIED_RESIDUAL = 1e-6
+UNVERIFIED_CONDITION = 1e12
+#: The verdict of a check whose solve is not trusted.
+UNVERIFIED = "NOT VERIFIED: the solve is ill-conditioned"
 #: Planes whose shear is below this fraction of the load transfer nothing (slip).
 SLIP_PLANE_MIN_SHARE = 1e-6
 #: A utilization above this is far more likely a load or size typed in the wrong
@@ -93,6 +98,8 @@ class CheckResult:
         loads: The level of the demands: "factored" or "service".
         warnings: What the engineer must read beside the verdict: informative
             items above 1.0, utilizations too large to be real.
+        unverified: Why the demands cannot be trusted (an ill-conditioned solve),
+            or "": a check that is not verified does not pass.
     """
 
     standard: str
@@ -103,6 +110,7 @@ class CheckResult:
     units: str = "N-mm"
     loads: str = "factored"
     warnings: tuple[str, ...] = field(default_factory=tuple)
+    unverified: str = ""
 
     @property
     def governing(self) -> CheckItem | None:
@@ -112,8 +120,9 @@ class CheckResult:
 
     @property
     def passes(self) -> bool:
-        """True when every normative item has utilization ≤ 1."""
-        return all(i.utilization <= 1.0 for i in self.items if not i.informative)
+        """True when the solve is trusted and every normative item has utilization ≤ 1."""
+        normative = (i for i in self.items if not i.informative)
+        return not self.unverified and all(i.utilization <= 1.0 for i in normative)
 
     def sorted_items(self) -> list[CheckItem]:
         """Items by utilization, largest first."""
@@ -145,6 +154,9 @@ class CheckResult:
                 "utilization": _finite(gov.utilization),
                 "clause": gov.clause},
             "passes": self.passes,
+            "verified": not self.unverified,
+            **({"verdict": UNVERIFIED, "unverified": self.unverified} if self.unverified
+               else {}),
             "notes": list(self.notes),
             "loads": self.loads,
             "warnings": list(self.warnings),
@@ -197,9 +209,10 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
     fitted = fitted_holes_note(joint)
     if fitted:
         notes.append(fitted)
-    return dataclasses.replace(result, loads=load_level(joint, standard, method),
-                               notes=tuple(dict.fromkeys(notes)),
-                               warnings=tuple(check_warnings(joint, result)))
+    return _trusted(dataclasses.replace(result, loads=load_level(joint, standard, method),
+                                        notes=tuple(dict.fromkeys(notes)),
+                                        warnings=tuple(check_warnings(joint, result))),
+                    solution)
 
 
 def strength_level(standard: str, method: str) -> str:
@@ -279,6 +292,18 @@ def fitted_holes_note(joint: Joint) -> str | None:
     return (f"the plane shears assume fitted holes (every ply bears from the first load); "
             f"the holes have clearance{size}: study its effect on the split with "
             f"`plyshear capacity {model} --scatter 200`")
+
+
+def _trusted(result: CheckResult, solution: Solution) -> CheckResult:
+    """Mark the check unverified when its solve is not trustworthy (it then fails)."""
+    why = []
+    if not solution.equilibrium_residual <= UNVERIFIED_RESIDUAL:
+        why.append(f"equilibrium residual {solution.equilibrium_residual:.1e} of the load "
+                   f"(above {UNVERIFIED_RESIDUAL:.0e})")
+    if not solution.condition <= UNVERIFIED_CONDITION:
+        why.append(f"condition estimate {solution.condition:.1e} (above "
+                   f"{UNVERIFIED_CONDITION:.0e})")
+    return dataclasses.replace(result, unverified="; ".join(why)) if why else result
 
 
 # Helpers shared by the standards ------------------------------------------------

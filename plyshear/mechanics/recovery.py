@@ -164,10 +164,12 @@ def _solution(b: Batch, i: int, per_station: list, reaction: np.ndarray,
     warnings: list[str] = sanity.warnings(joint)
     kappa = float(b.kappa[i])
     if not kappa <= COND_WARN:
-        digits = max(0, int(-np.log10(kappa * EPS))) if np.isfinite(kappa) else 0
+        digits = int(-np.log10(kappa * EPS)) if np.isfinite(kappa) and kappa * EPS < 1 else 0
+        left = "no significant digit" if digits < 1 else \
+            f"fewer than {digits} significant digit{'s' if digits > 1 else ''}"
         warnings.append(f"ill-conditioned: condition estimate {kappa:.1e} of the scaled "
-                        f"stiffness matrix (round-off may leave fewer than {digits} "
-                        "significant digits); stiffness contrasts in the stack are extreme")
+                        f"stiffness matrix (round-off may leave {left}); stiffness "
+                        "contrasts in the stack are extreme")
     elif not residual <= RESIDUAL_WARN:
         warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
                         "stiffness contrasts in the stack are extreme, treat results with care")

@@ -11,6 +11,7 @@
 from __future__ import annotations
 
 import dataclasses
+from collections.abc import Callable
 from dataclasses import dataclass
 
 import numpy as np
@@ -133,17 +134,49 @@ def planes_study(joint: Joint, max_planes: int, keep: str = "total") -> list[Pla
     return rows
 
 
+#: Status of a scatter sample (the ``status`` column of its rows).
+OK = "ok"
+BELOW_LOAD = "fails below the model's load"
+NOT_CONVERGED = "did not converge"
+
+
+@dataclass(frozen=True)
+class Sample:
+    """One sample of the hole-position Monte Carlo.
+
+    Attributes:
+        index: Its number, from 1 (the generator's draws in order: the same seed
+            gives the same offsets for the same number).
+        offsets: Each ply's hole offset, mm.
+        service_shear: Worst plane shear at the model's load, N; ``inf`` when the
+            sample fails below that load or did not converge (ranked worst).
+        capacity: The sample's capacity, N; ``-inf`` when it did not converge.
+        status: :data:`OK`, :data:`BELOW_LOAD` or :data:`NOT_CONVERGED` (with why).
+    """
+
+    index: int
+    offsets: tuple[float, ...]
+    service_shear: float
+    capacity: float
+    status: str
+
+
 @dataclass(frozen=True)
 class ScatterResult:
     """The Monte Carlo of hole positions.
 
+    Every sample counts in the percentiles: one that fails below the model's
+    load has an infinite worst-plane shear, one that did not converge an
+    infinite shear and a capacity of ``-inf``, so both rank as the worst.
+
     Attributes:
-        service_shear: Worst plane shear at the model's load for each sample,
-            N (nan where the sample fails below that load).
+        service_shear: Worst plane shear at the model's load for each sample, N.
         capacity: Capacity of each sample, N.
         service_load: The model's load, N.
         clearance: Diametral hole clearance used, mm.
         failed: Samples whose analysis did not converge.
+        below_load: Samples that fail below the model's load.
+        planes: Shear planes of the joint (for the equal split).
     """
 
     service_shear: np.ndarray
@@ -151,48 +184,95 @@ class ScatterResult:
     service_load: float
     clearance: float
     failed: int
+    below_load: int = 0
+    planes: int = 1
+
+    @classmethod
+    def of(cls, samples: list[Sample], service_load: float, clearance: float,
+           planes: int = 1) -> ScatterResult:
+        """Collect samples (in any order) into a result ordered by sample number."""
+        ordered = sorted(samples, key=lambda s: s.index)
+        return cls(service_shear=np.array([s.service_shear for s in ordered], dtype=float),
+                   capacity=np.array([s.capacity for s in ordered], dtype=float),
+                   service_load=service_load, clearance=clearance,
+                   failed=sum(s.status.startswith(NOT_CONVERGED) for s in ordered),
+                   below_load=sum(s.status == BELOW_LOAD for s in ordered), planes=planes)
 
     def percentiles(self, values: np.ndarray, q: tuple[float, ...] = (5, 50, 95)) -> list[float]:
-        """Percentiles of the finite values."""
-        finite = values[np.isfinite(values)]
-        return [float(np.percentile(finite, p)) for p in q] if finite.size else [float("nan")] * 3
+        """Percentiles of every sample (infinite values included, ranked as they are).
+
+        The inverted empirical distribution (the smallest value with at least
+        ``q`` % of the samples at or below it), which never interpolates towards
+        an infinite value. NaN when there are no samples.
+        """
+        if values.size == 0:
+            return [float("nan")] * len(q)
+        return [float(v) for v in np.percentile(values, q, method="inverted_cdf")]
 
 
-def hole_scatter(joint: Joint, samples: int, seed: int) -> ScatterResult:
+def scatter_offsets(joint: Joint, samples: int, seed: int) -> np.ndarray:
+    """Every sample's hole offsets, mm, shape (samples, plies): uniform in the clearance."""
+    c = hole_clearance(joint)
+    rng = np.random.default_rng(seed)
+    return rng.uniform(-0.5 * c, 0.5 * c, size=(samples, len(joint.plies)))
+
+
+def scatter_sample(joint: Joint, index: int, offsets: np.ndarray) -> Sample:
+    """Analyse one sample: the joint with these hole offsets, holes placed by offset."""
+    base = dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
+                                                                   clearance="offset"))
+    plies = tuple(dataclasses.replace(p, hole_offset=float(o))
+                  for p, o in zip(base.plies, offsets, strict=True))
+    service = service_load(joint)
+    offs = tuple(float(o) for o in offsets)
+    try:
+        result = analyse(dataclasses.replace(base, plies=plies))
+    except CapacityError as exc:
+        return Sample(index, offs, np.inf, -np.inf, f"{NOT_CONVERGED}: {exc}")
+    loads = np.array([st.load for st in result.history])
+    if loads[-1] < service:
+        return Sample(index, offs, np.inf, float(result.load), BELOW_LOAD)
+    worst = np.array([st.plane_shear.max() for st in result.history])
+    return Sample(index, offs, float(np.interp(service, loads, worst)), float(result.load), OK)
+
+
+def service_load(joint: Joint) -> float:
+    """The model's load: the sum of the loaded members' force magnitudes, N."""
+    return float(sum(np.hypot(*m.load) for m in joint.members))
+
+
+def hole_scatter(joint: Joint, samples: int, seed: int, *,
+                 skip: Callable[[int], bool] | None = None,
+                 on_sample: Callable[[Sample], None] | None = None,
+                 stop: Callable[[], bool] | None = None) -> ScatterResult:
     """Scatter every ply's hole uniformly within the clearance and analyse each case.
 
     Args:
         joint: The joint.
         samples: Number of samples, ≥ 1.
         seed: Seed of the random generator (results repeat for the same seed).
+        skip: Given a sample number, True to leave it out (done in an earlier run).
+        on_sample: Called with each :class:`Sample` as it finishes.
+        stop: Polled between samples; True ends the run early.
 
     Returns:
-        The :class:`ScatterResult`.
+        The :class:`ScatterResult` of the samples analysed in this call.
+
+    Raises:
+        ValueError: If ``samples`` < 1.
     """
     if samples < 1:
         raise ValueError(f"--scatter must be at least 1 (got {samples})")
-    rng = np.random.default_rng(seed)
-    c = hole_clearance(joint)
-    base = dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
-                                                                   clearance="offset"))
-    service = float(sum(np.hypot(*m.load) for m in joint.members))
-    shear = np.full(samples, np.nan)
-    cap = np.full(samples, np.nan)
-    failed = 0
+    offsets = scatter_offsets(joint, samples, seed)
+    done: list[Sample] = []
     for i in range(samples):
-        offsets = rng.uniform(-0.5 * c, 0.5 * c, size=len(joint.plies))
-        plies = tuple(dataclasses.replace(p, hole_offset=float(o))
-                      for p, o in zip(base.plies, offsets, strict=True))
-        case = dataclasses.replace(base, plies=plies)
-        try:
-            result = analyse(case)
-        except CapacityError:
-            failed += 1
+        if stop is not None and stop():
+            break
+        if skip is not None and skip(i + 1):
             continue
-        cap[i] = result.load
-        loads = np.array([s.load for s in result.history])
-        if loads[-1] >= service:
-            worst = np.array([s.plane_shear.max() for s in result.history])
-            shear[i] = float(np.interp(service, loads, worst))
-    return ScatterResult(service_shear=shear, capacity=cap, service_load=service,
-                         clearance=c, failed=failed)
+        sample = scatter_sample(joint, i + 1, offsets[i])
+        done.append(sample)
+        if on_sample is not None:
+            on_sample(sample)
+    return ScatterResult.of(done, service_load(joint), hole_clearance(joint),
+                            max(1, len(joint.plies) - 1))

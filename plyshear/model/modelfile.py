@@ -35,6 +35,10 @@ from plyshear.model.joint import (
 
 FORMAT_VERSION = 1
 MAX_FILE_BYTES = 4_000_000
+#: Longest line read (the TOML parser's time and memory grow with a line's structure).
+MAX_LINE_CHARS = 1_000_000
+#: Most parts of one dotted key (``a.b.c`` has three); the model file needs four at most.
+MAX_KEY_PARTS = 64
 MAX_PLIES = 2000
 MAX_ELEMENTS_PER_PLY = 1000
 #: Largest magnitude accepted for any value, in N, mm or MPa: far beyond any joint,
@@ -248,7 +252,42 @@ def loads(text: str, path: str = "<model>") -> Joint:
     return from_dict(_parse(text, path), path)
 
 
+def _precheck(text: str, path: str) -> None:
+    """Refuse, before parsing, what would cost the TOML parser minutes and gigabytes.
+
+    A line longer than :data:`MAX_LINE_CHARS`, or a key (``a.b.c = 1`` or a table
+    header ``[a.b.c]``) of more than :data:`MAX_KEY_PARTS` dotted parts.
+    """
+    for number, line in enumerate(text.splitlines(), start=1):
+        if len(line) > MAX_LINE_CHARS:
+            raise ModelError(path, "", f"line {number} is longer than {MAX_LINE_CHARS} "
+                                       "characters")
+        if line.count(".") < MAX_KEY_PARTS:
+            continue  # cheap: most lines cannot hold a long key at all
+        parts = _key_parts(line)
+        if parts > MAX_KEY_PARTS:
+            raise ModelError(path, "", f"line {number}: a key of {parts} dotted parts "
+                                       f"(at most {MAX_KEY_PARTS})")
+
+
+def _key_parts(line: str) -> int:
+    """The most dotted parts of any key on a line (quotes respected; inline tables too)."""
+    most, parts, quote = 1, 1, ""
+    for ch in line:
+        if quote:
+            quote = "" if ch == quote else quote
+        elif ch in "\"'":
+            quote = ch
+        elif ch == ".":
+            parts += 1
+            most = max(most, parts)
+        elif ch in "=,{}[]#":
+            parts = 1
+    return most
+
+
 def _parse(text: str, path: str) -> dict[str, Any]:
+    _precheck(text, path)
     try:
         return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:

@@ -253,10 +253,19 @@ def row_figure(solution: Solution) -> Figure:
     return fig
 
 
-def figure_bytes(fig: Figure, fmt: str) -> bytes:
-    """Render a figure to PNG, SVG or PDF bytes (the caller writes the file)."""
+def figure_bytes(fig: Figure, fmt: str, salt: str = "plyshear") -> bytes:
+    """Render a figure to PNG, SVG or PDF bytes (the caller writes the file).
+
+    The bytes depend only on the figure: SVG ids are hashed with ``salt`` (give
+    each figure of one document its own, so their ids differ), and no date is
+    written (PDF and PNG take ``SOURCE_DATE_EPOCH`` if it is set).
+    """
+    import matplotlib
+
     buf = io.BytesIO()
-    fig.savefig(buf, format=fmt, dpi=150)
+    meta = {"Date": None} if fmt == "svg" else {}
+    with matplotlib.rc_context({"svg.hashsalt": salt}):
+        fig.savefig(buf, format=fmt, dpi=150, metadata=meta)
     return buf.getvalue()
 
 
@@ -393,19 +402,33 @@ def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
 
 
 def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
-    """Histograms of the worst plane shear at the model's load and of the capacity."""
+    """Histograms of the worst plane shear at the model's load and of the capacity.
+
+    A vertical line marks the model's load on the capacity histogram (samples to
+    its left fail below it) and its equal split over the planes on the shear
+    histogram. Samples with no finite value (failed below the load, not
+    converged) cannot be drawn; the panel's title counts them.
+    """
     u = _units.system(joint.units)
-    f = u.factor("force")
+    f, lf = u.factor("force"), u.label("force")
     fig = Figure(figsize=(10, 4.0), layout="constrained")
     axs = fig.subplots(1, 2)
-    panels = ((axs[0], result.service_shear, "worst plane shear at the model's load"),
-              (axs[1], result.capacity, "capacity"))
-    for ax, values, label in panels:
+    load = result.service_load / f
+    panels = ((axs[0], result.service_shear, "worst plane shear at the model's load",
+               load / result.planes, f"equal split {load / result.planes:.4g} {lf}"),
+              (axs[1], result.capacity, "capacity", load, f"model load {load:.4g} {lf}"))
+    for ax, values, label, mark, mark_label in panels:
         finite = values[np.isfinite(values)] / f
         if finite.size:
             ax.hist(finite, bins=min(30, max(5, finite.size // 10)), color="#bbbbbb",
                     edgecolor=INK, linewidth=0.6)
-        ax.set_xlabel(f"{label} [{u.label('force')}]")
+        ax.axvline(mark, color=INK, linestyle="--", linewidth=1.0, label=mark_label)
+        ax.legend(fontsize=7, frameon=False)
+        off = values.size - finite.size
+        if off:
+            ax.set_title(f"{off} of {values.size} samples not drawn (no finite value)",
+                         fontsize=8)
+        ax.set_xlabel(f"{label} [{lf}]")
         ax.set_ylabel("samples [-]")
         style_axes(ax)
     fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "

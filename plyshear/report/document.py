@@ -12,6 +12,7 @@ from __future__ import annotations
 import datetime as _dt
 import html
 import io
+import os
 import re
 from dataclasses import dataclass
 
@@ -20,7 +21,7 @@ from matplotlib.figure import Figure
 
 from plyshear import __version__
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult, check
+from plyshear.codes.check import UNVERIFIED, CheckResult, check
 from plyshear.mechanics.capacity import CapacityError, CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.solve import solve
@@ -57,8 +58,16 @@ def build(joint: Joint) -> ReportData:
         note = ""
     except CapacityError as exc:
         cap, note = None, f"capacity not available: {exc}"
-    created = _dt.date.today().isoformat()
+    created = _created()
     return ReportData(joint, sol, res, cap, note, created)
+
+
+def _created() -> str:
+    """Today's date, or the date of ``SOURCE_DATE_EPOCH`` (reproducible builds) if set."""
+    epoch = os.environ.get("SOURCE_DATE_EPOCH", "").strip()
+    if epoch.isdigit():
+        return _dt.datetime.fromtimestamp(int(epoch), tz=_dt.UTC).date().isoformat()
+    return _dt.date.today().isoformat()
 
 
 def plane_utilization(res: CheckResult) -> dict[int, float]:
@@ -83,10 +92,18 @@ def _html_table(headers: list[str], rows: list[list[str]], marked: int | None = 
     return f"<table><thead><tr>{head}</tr></thead><tbody>{''.join(body)}</tbody></table>"
 
 
-def _svg(fig: Figure) -> str:
-    """The figure as an inline ``<svg>`` element (no XML prolog, no RDF metadata)."""
-    text = diagrams.figure_bytes(fig, "svg").decode("utf-8")
+def _svg(fig: Figure, name: str) -> str:
+    """The figure as an inline ``<svg>`` element (no XML prolog, no RDF metadata).
+
+    Its ids are hashed with ``name`` (one per figure of the report): the same
+    input gives the same bytes, and two figures never share an id.
+    """
+    text = diagrams.figure_bytes(fig, "svg", salt=f"plyshear-{name}").decode("utf-8")
     text = re.sub(r"<metadata>.*?</metadata>", "", text[text.find("<svg"):], flags=re.S)
+    # every id and reference prefixed: matplotlib names glyphs and groups alike in
+    # every figure ("DejaVuSans-48", "figure_1"), and a page may hold one id once
+    text = re.sub(r'\bid="([^"]+)"', rf'id="{name}-\1"', text)
+    text = re.sub(r'(href="#|url\(#)([^")]+)', rf"\g<1>{name}-\2", text)
     return text
 
 
@@ -224,7 +241,7 @@ def to_html(data: ReportData) -> str:
         parts.append(f"<h3>{_esc(name)}</h3>" + _html_table(headers, rows))
     parts.append("<h2>2 Stack, shear, moment and bearing pressure along the bolt</h2>")
     fig = diagrams.solution_figure(data.solution, plane_utilization(data.check), pressure=True)
-    parts.append(f"<figure>{_svg(fig)}<figcaption>Elevation of the stack (dimensions in "
+    parts.append(f"<figure>{_svg(fig, 'stack')}<figcaption>Elevation of the stack (dimensions in "
                  f"{_esc(_units.system(joint.units).label('length'))}) beside the bolt's "
                  "shear (plane shears with their utilization), bending moment and bearing "
                  "pressure.</figcaption></figure>")
@@ -238,7 +255,10 @@ def to_html(data: ReportData) -> str:
     headers, rows, marked = check_rows(data)
     parts.append(_html_table(headers, rows, marked))
     gov = res.governing
-    if gov is not None:
+    if res.unverified:
+        parts.append(f"<p><strong>{_esc(UNVERIFIED)}</strong> ({_esc(res.unverified)}): the "
+                     "demands cannot be trusted.</p>")
+    elif gov is not None:
         verdict = "passes" if res.passes else "FAILS"
         parts.append(f"<p>The joint {verdict}: governing {_esc(gov.what)} at "
                      f"{_esc(gov.place(res.units))}, utilization {gov.utilization:.3f} "
@@ -248,7 +268,7 @@ def to_html(data: ReportData) -> str:
     if data.capacity is not None:
         parts.append(f"<pre>{_esc(capacity_text(data.capacity, joint, data.check))}</pre>")
         fig = diagrams.capacity_figure(data.capacity, joint)
-        parts.append(f"<figure>{_svg(fig)}</figure>")
+        parts.append(f"<figure>{_svg(fig, 'capacity')}</figure>")
     else:
         parts.append(f"<p>{_esc(data.capacity_note)}</p>")
     parts.append("<h2>6 Assumptions</h2><ul>")

@@ -7,7 +7,7 @@ from collections.abc import Sequence
 import numpy as np
 
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult, fitted_holes_note
+from plyshear.codes.check import UNVERIFIED, CheckResult, fitted_holes_note
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
@@ -194,7 +194,9 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     out.append(table(["check", "where", "demand", "capacity", "unit", "util.", "clause", ""],
                      rows, "llrrlrll"))
     out.append("")
-    if gov is not None:
+    if result.unverified:
+        out.append(f"{UNVERIFIED} ({result.unverified}); the demands cannot be trusted")
+    elif gov is not None:
         verdict = "PASSES" if result.passes else "FAILS"
         out.append(f"{verdict}: governing {gov.what} at {gov.place(result.units)}, utilization "
                    f"{gov.utilization:.3f} ({gov.clause})")
@@ -312,22 +314,32 @@ def plane_gains(rows: list[PlanesRow], joint: Joint) -> list[str]:
 
 
 def scatter_text(result: ScatterResult, joint: Joint) -> str:
-    """Return the percentiles of the hole-position Monte Carlo."""
+    """Return the percentiles of the hole-position Monte Carlo, every sample counted."""
     u = _units.system(joint.units)
     f, lf = u.factor("force"), u.label("force")
+
+    def show(v: float) -> str:
+        if np.isfinite(v):
+            return fmt(v / f)
+        return "fails" if v > 0 else "n/c"  # inf shear: fails below the load; -inf: n/c
+
     rows = []
     for label, values in (("worst plane shear at the model's load", result.service_shear),
                           ("capacity (nonlinear)", result.capacity)):
-        p5, p50, p95 = result.percentiles(values)
-        rows.append([label, fmt(p5 / f), fmt(p50 / f), fmt(p95 / f),
-                     str(int(np.isfinite(values).sum()))])
+        rows.append([label, *(show(p) for p in result.percentiles(values)),
+                     str(values.size)])
+    n = result.service_shear.size
     out = [f"hole positions scattered uniformly within the clearance "
            f"({fmt(result.clearance / u.factor('length'))} {u.label('length')} diametral), "
-           f"{result.service_shear.size} samples; model load {fmt(result.service_load / f)} {lf}",
+           f"{n} samples; model load {fmt(result.service_load / f)} {lf}",
            "", table(["quantity", f"5 % [{lf}]", f"50 % [{lf}]", f"95 % [{lf}]", "samples"],
                      rows, "lrrrr")]
+    if result.below_load:
+        out.append(f"{result.below_load} of {n} samples fail below the model's load: counted "
+                   "as the worst shear ('fails')")
     if result.failed:
-        out.append(f"{result.failed} samples did not converge and are left out")
+        out.append(f"{result.failed} of {n} samples did not converge: counted as the worst "
+                   "shear and the worst capacity ('n/c')")
     return "\n".join(out)
 
 

@@ -24,9 +24,12 @@ from __future__ import annotations
 import copy
 import csv
 import difflib
+import io
 import itertools
 import math
+import os
 import re
+import stat
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from pathlib import Path
@@ -45,6 +48,8 @@ TABLE_KEYS: dict[str, tuple[str, ...]] = {
 }
 #: Most cases one sweep may have (a 10 000-case sweep takes seconds; this takes hours).
 MAX_CASES = 1_000_000
+#: Largest --cases file read, bytes (a million cases of a few keys fit in it).
+MAX_CASES_BYTES = 64_000_000
 #: A range end within this fraction of a step of the stop still counts as the stop.
 RANGE_TOL = 1e-9
 
@@ -192,6 +197,19 @@ def _split(text: str) -> list[str]:
     return out
 
 
+def _is_range(key: Key, text: str) -> bool:
+    return (":" in text and "[" not in text and not any(q in text for q in "\"'")
+            and key.path[-1] not in NAME_KEYS)
+
+
+def count_values(key: Key, text: str) -> int:
+    """How many values ``text`` gives, without expanding a range."""
+    text = text.strip()
+    if text and _is_range(key, text):
+        return _range_spec(key.text, text)[2]
+    return len(_split(text))
+
+
 def parse_values(key: Key, text: str) -> list[Any]:
     """The values of one ``--vary``: a list, or a range ``start:stop:step``.
 
@@ -201,8 +219,7 @@ def parse_values(key: Key, text: str) -> list[Any]:
     text = text.strip()
     if not text:
         raise SweepError(f"{key.text}: no values after '='")
-    if ":" in text and "[" not in text and not any(q in text for q in "\"'") \
-            and key.path[-1] not in NAME_KEYS:
+    if _is_range(key, text):
         return _range(key.text, text)
     tokens = _split(text)
     if any(not t.strip() for t in tokens):
@@ -210,11 +227,12 @@ def parse_values(key: Key, text: str) -> list[Any]:
     return [parse_value(t, key) for t in tokens]
 
 
-def _range(key: str, text: str) -> list[float | int]:
+def _range_spec(key: str, text: str) -> tuple[float, float, int, bool]:
+    """``(start, step, count, integral)`` of a range ``start:stop[:step]``."""
     parts = text.split(":")
     if len(parts) not in (2, 3) or not all(_NUMBER.match(p.strip()) for p in parts):
         raise SweepError(f"{key}: a range is start:stop or start:stop:step with plain "
-                         f"numbers (got {text!r})")
+                         f"numbers (got {_cut(text)!r})")
     nums = [float(p) for p in parts]
     start, stop = nums[0], nums[1]
     step = nums[2] if len(nums) == 3 else (1.0 if stop >= start else -1.0)
@@ -229,7 +247,15 @@ def _range(key: str, text: str) -> list[float | int]:
     if count > MAX_CASES:
         raise SweepError(f"{key}: the range {text!r} has {count} values "
                          f"(at most {MAX_CASES})")
-    integral = all(_INTEGER.match(p.strip()) for p in parts)
+    return start, step, count, all(_INTEGER.match(p.strip()) for p in parts)
+
+
+def _cut(text: str, most: int = 60) -> str:
+    return text if len(text) <= most else text[:most] + "..."
+
+
+def _range(key: str, text: str) -> list[float | int]:
+    start, step, count, integral = _range_spec(key, text)
     values = [start + i * step for i in range(count)]
     return [int(round(v)) for v in values] if integral else \
         [float(f"{v:.12g}") for v in values]  # 0.1 steps print as 0.3, not 0.30000000000000004
@@ -241,11 +267,37 @@ def parse_vary(spec: str, data: Mapping[str, Any]) -> tuple[Key, list[Any]]:
     Raises:
         SweepError: Naming the key.
     """
-    if "=" not in spec:
-        raise SweepError(f"{spec!r}: write --vary KEY=VALUES, e.g. bolt.diameter=16,20,24")
-    key_text, values = spec.split("=", 1)
-    key = parse_key(key_text, data)
+    key, values = _split_vary(spec, data)
     return key, parse_values(key, values)
+
+
+def _split_vary(spec: str, data: Mapping[str, Any]) -> tuple[Key, str]:
+    if "=" not in spec:
+        raise SweepError(f"{_cut(spec)!r}: write --vary KEY=VALUES, e.g. bolt.diameter=16,20,24")
+    key_text, values = spec.split("=", 1)
+    return parse_key(key_text, data), values
+
+
+def parse_varies(specs: Sequence[str], data: Mapping[str, Any],
+                 rows: int = 1) -> list[tuple[Key, list[Any]]]:
+    """Parse every ``--vary``, counting the combinations before any range is expanded.
+
+    Args:
+        specs: The ``KEY=VALUES`` texts.
+        data: The parsed model file.
+        rows: Rows of a case table crossed with them (1 without one).
+
+    Raises:
+        SweepError: Naming the key, or the count when it exceeds :data:`MAX_CASES`.
+    """
+    split = [_split_vary(s, data) for s in specs]
+    count = rows
+    for key, text in split:
+        count *= count_values(key, text)
+        if count > MAX_CASES:
+            raise SweepError(f"--vary: more than {MAX_CASES} cases; vary fewer keys "
+                             "or fewer values")
+    return [(key, parse_values(key, text)) for key, text in split]
 
 
 def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], list[list[Any]]]:
@@ -256,9 +308,9 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
     """
     name = str(path)
     try:
-        with open(path, newline="", encoding="utf-8-sig") as fh:
-            reader = csv.reader(fh)
-            rows = [(reader.line_num, r) for r in reader if r]  # [] is a blank line
+        text = _read_cases_text(path)
+        reader = csv.reader(io.StringIO(text, newline=""))
+        rows = [(reader.line_num, r) for r in reader if r]  # [] is a blank line
     except OSError as exc:
         raise SweepError(f"{name}: cannot read the file ({exc.strerror or exc})") from None
     except UnicodeDecodeError as exc:
@@ -286,6 +338,33 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
     if len(cases) > MAX_CASES:
         raise SweepError(f"{name}: {len(cases)} cases (at most {MAX_CASES})")
     return keys, cases
+
+
+def _read_cases_text(path: str | Path) -> str:
+    """The text of a --cases file: a regular file of at most :data:`MAX_CASES_BYTES`.
+
+    A FIFO, a device (``/dev/zero``) or a folder is refused before it is opened, so
+    nothing blocks or grows without bound; a file that grows while it is read is cut
+    at the limit and refused.
+
+    Raises:
+        SweepError: Naming the file.
+        OSError: If it cannot be read.
+        UnicodeDecodeError: If it is not UTF-8.
+    """
+    name = str(path)
+    # opened without blocking (a FIFO with no writer would wait for ever), then checked
+    fd = os.open(path, os.O_RDONLY | getattr(os, "O_NONBLOCK", 0))
+    with os.fdopen(fd, "rb") as fh:
+        info = os.fstat(fd)
+        if not stat.S_ISREG(info.st_mode):
+            raise SweepError(f"{name}: not a regular file (a CSV file of cases is expected)")
+        if info.st_size > MAX_CASES_BYTES:
+            raise SweepError(f"{name}: {info.st_size} bytes (at most {MAX_CASES_BYTES})")
+        raw = fh.read(MAX_CASES_BYTES + 1)
+    if len(raw) > MAX_CASES_BYTES:
+        raise SweepError(f"{name}: larger than {MAX_CASES_BYTES} bytes")
+    return raw.decode("utf-8-sig")
 
 
 def _no_repeats(keys: Sequence[Key], where: str) -> None:

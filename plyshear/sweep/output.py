@@ -109,3 +109,44 @@ def summary(rows: Sequence[dict[str, Any]]) -> str:
         line += (f"\nwarning: {over} case(s) exceed 1.0 on an informative item (bolt bending, "
                  "outside the standard's bolt clauses): see the 'informative' column")
     return line
+
+
+#: Columns of text (the rest of a CSV row is numbers, or empty).
+TEXT_COLUMNS = frozenset({"case_key", "error", "governing", "capacity_event", "nonlinear_event",
+                          "status", "key"})
+INTEGER_COLUMNS = frozenset({"case", "worst_plane", "worst_bolt", "sample"})
+
+
+def read_table(path: str, keys: Sequence[Any] = ()) -> list[dict[str, Any]]:
+    """Read a sweep's CSV or JSON lines file back into rows with typed values.
+
+    Args:
+        path: The file.
+        keys: The varied keys (:class:`plyshear.sweep.keys.Key`), whose CSV cells are
+            read as a ``--vary`` value is.
+    """
+    from plyshear.sweep.keys import parse_value
+
+    with open(path, encoding="utf-8", newline="") as fh:
+        if not str(path).lower().endswith(".csv"):
+            return [json.loads(line) for line in fh if line.strip()]
+        by_text = {k.text: k for k in keys}
+        rows = []
+        for rec in csv.DictReader(fh):
+            rows.append({c: _typed(c, v, by_text.get(c), parse_value) for c, v in rec.items()})
+        return rows
+
+
+def _typed(col: str, cell: str | None, key: Any, parse_value: Any) -> Any:
+    if cell is None or col in TEXT_COLUMNS:
+        return cell or ""
+    if key is not None:
+        return parse_value(cell, key) if cell else None
+    if cell == "":
+        return None
+    if cell in ("true", "false"):
+        return cell == "true"
+    try:
+        return int(cell) if col in INTEGER_COLUMNS else float(cell)
+    except ValueError:
+        return cell

@@ -12,25 +12,36 @@ same-shaped joints together. Chunks run in this process, on local worker
 processes, or on a Dask distributed cluster (``dask.distributed``, an optional
 extra: ``pip install 'plyshear[dask]'``); the rows are the same either way and
 come back in case order.
+
+:func:`run_stream` hands rows over chunk by chunk as they finish (the CLI
+appends them to its output file), skips cases already done, stops promptly on
+SIGINT or SIGTERM and survives a worker's death (its chunk runs again once;
+a second death makes its cases error rows). :func:`run` collects them.
 """
 
 from __future__ import annotations
 
+import contextlib
 import math
 import os
+import time
 from collections.abc import Callable, Mapping, Sequence
-from concurrent.futures import ProcessPoolExecutor, as_completed
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Any
 
+from plyshear.sweep import pool as _pool
 from plyshear.sweep.keys import Key, apply
+from plyshear.sweep.stream import case_key
 
 #: Cases per chunk: large enough for the batch path, small enough for a progress bar.
 CHUNK = 250
+#: Cases per chunk with ``capacity="full"`` (about 0.1 s a case: a chunk of a second),
+#: so that progress, interrupts and retries stay fine-grained.
+FULL_CHUNK = 10
 CAPACITY_MODES = ("none", "elastic", "full")
 #: Columns of every row, before the plane shears (see :func:`columns`).
-BASE_COLUMNS = ("case", "error", "max_shear", "worst_plane", "max_moment", "utilization",
-                "governing", "passes", "informative")
+BASE_COLUMNS = ("case", "case_key", "error", "max_shear", "worst_plane", "max_moment",
+                "utilization", "governing", "passes", "informative")
 
 
 @dataclass(frozen=True)
@@ -56,9 +67,14 @@ class Options:
             raise ValueError(f"capacity must be one of {', '.join(CAPACITY_MODES)}")
 
 
+def chunk_size(options: Options) -> int:
+    """Cases per chunk for these options (a chunk takes about a second or less)."""
+    return FULL_CHUNK if options.capacity == "full" else CHUNK
+
+
 def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) -> list[str]:
     """The column titles of the result table, in order (``worst_bolt`` for a row of bolts)."""
-    cols = ["case", *(k.text for k in keys), *BASE_COLUMNS[1:]]
+    cols = ["case", "case_key", *(k.text for k in keys), *BASE_COLUMNS[2:]]
     if bolts > 1:
         cols.insert(cols.index("worst_plane"), "worst_bolt")
     if not options.check:
@@ -74,8 +90,8 @@ def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) 
 
 
 def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
-             cases: Sequence[Sequence[Any]], options: Options, first: int = 1
-             ) -> list[dict[str, Any]]:
+             cases: Sequence[Sequence[Any]], options: Options, first: int = 1,
+             numbers: Sequence[int] | None = None) -> list[dict[str, Any]]:
     """Evaluate cases in this process.
 
     Args:
@@ -85,6 +101,7 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
         cases: One list of values per case, in the order of ``keys``.
         options: What to compute.
         first: The number of the first case (1-based).
+        numbers: The number of every case (instead of ``first``, ``first + 1``, ...).
 
     Returns:
         One row per case: column → value, in the model's units.
@@ -96,8 +113,10 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
 
     rows: list[dict[str, Any]] = []
     joints = []
+    names = [k.text for k in keys]
     for n, values in enumerate(cases):
-        row: dict[str, Any] = {"case": first + n}
+        row: dict[str, Any] = {"case": numbers[n] if numbers is not None else first + n,
+                               "case_key": case_key(names, values)}
         row.update({k.text: v for k, v in zip(keys, values, strict=True)})
         try:
             joints.append((row, from_dict(apply(base, keys, values), source)))
@@ -121,11 +140,17 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
     return rows
 
 
-def _error_text(exc: Exception, source: str) -> str:
-    """The error without the file name every row would repeat."""
+#: Longest error text in a row (as the command line's error lines).
+MAX_ERROR_CHARS = 300
+
+
+def _error_text(exc: Exception | str, source: str) -> str:
+    """The error without the file name every row would repeat, on one line."""
     text = str(exc)
     prefix = f"{source}: "
-    return text[len(prefix):] if text.startswith(prefix) else text
+    text = text[len(prefix):] if text.startswith(prefix) else text
+    text = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text)
+    return text if len(text) <= MAX_ERROR_CHARS else text[:MAX_ERROR_CHARS - 3] + "..."
 
 
 def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str, Any]:
@@ -199,6 +224,28 @@ def _chunk(args: tuple[Any, ...]) -> list[dict[str, Any]]:
     return evaluate(*args)
 
 
+@dataclass
+class Outcome:
+    """How a streamed run ended.
+
+    Attributes:
+        done: Cases finished in this run (rows handed over).
+        skipped: Cases skipped as already done.
+        stopped: The signal that stopped the run (SIGINT, SIGTERM), or None.
+        fault: Why the run could not finish (a lost cluster), or "".
+        lost: Cases that became error rows because their worker died twice.
+        deaths: Worker deaths seen.
+    """
+
+    done: int = 0
+    skipped: int = 0
+    stopped: int | None = None
+    fault: str = ""
+    lost: int = 0
+    deaths: int = 0
+    failed_chunks: list[int] = field(default_factory=list)
+
+
 def run(base: Mapping[str, Any], source: str, keys: Sequence[Key],
         cases: Sequence[Sequence[Any]], options: Options, workers: int | None = None,
         scheduler: str | None = None, chunk: int = CHUNK,
@@ -223,53 +270,127 @@ def run(base: Mapping[str, Any], source: str, keys: Sequence[Key],
 
     Raises:
         RuntimeError: If ``scheduler`` is given and dask.distributed is not installed
-            or the scheduler cannot be reached.
+            or the scheduler cannot be reached, or the run could not finish.
     """
-    jobs = [(base, source, keys, cases[i:i + chunk], options, i + 1)
-            for i in range(0, len(cases), chunk)]
-    results: list[list[dict[str, Any]] | None] = [None] * len(jobs)
-    tick = progress or (lambda n: None)
+    rows: list[dict[str, Any]] = []
+
+    def sink(part: list[dict[str, Any]]) -> None:
+        rows.extend(part)
+        if progress is not None:
+            progress(len(part))
+
+    out = run_stream(base, source, keys, cases, options, sink, workers=workers,
+                     scheduler=scheduler, chunk=chunk)
+    if out.fault:
+        raise RuntimeError(out.fault)
+    return sorted(rows, key=lambda r: r["case"])
+
+
+def run_stream(base: Mapping[str, Any], source: str, keys: Sequence[Key],
+               cases: Sequence[Sequence[Any]], options: Options,
+               sink: Callable[[list[dict[str, Any]]], None], *,
+               skip: Callable[[str], bool] | None = None, workers: int | None = None,
+               scheduler: str | None = None, chunk: int = CHUNK,
+               stopper: _pool.Stopper | None = None,
+               worker_timeout: float = 60.0) -> Outcome:
+    """Evaluate the cases, handing each chunk's rows to ``sink`` as it finishes.
+
+    Args:
+        base: The parsed model file.
+        source: Its file name.
+        keys: The varied keys.
+        cases: One list of values per case (case numbers are 1-based positions).
+        options: What to compute.
+        sink: Receives the rows of every finished chunk, in this process.
+        skip: Given a case key, True to skip the case (done in an earlier run).
+        workers: Local worker processes (default: one per core; 1: this process).
+        scheduler: A Dask scheduler's address, or None.
+        chunk: Cases per chunk.
+        stopper: Its SIGINT/SIGTERM stops the run (finished rows are kept).
+        worker_timeout: With ``scheduler``: seconds without any worker before the
+            run ends.
+
+    Returns:
+        The :class:`Outcome`.
+
+    Raises:
+        RuntimeError: If ``scheduler`` is given and dask.distributed is not
+            installed or the scheduler cannot be reached.
+    """
+    names = [k.text for k in keys]
+    todo = [n for n in range(len(cases))
+            if skip is None or not skip(case_key(names, cases[n]))]
+    outcome = Outcome(skipped=len(cases) - len(todo))
+    jobs = [(base, source, keys, [cases[n] for n in todo[i:i + chunk]], options, 1,
+             [n + 1 for n in todo[i:i + chunk]]) for i in range(0, len(todo), chunk)]
+    stop = stopper or _pool.Stopper()
+
+    def deliver(i: int, rows: list[dict[str, Any]]) -> None:
+        sink(rows)
+        outcome.done += len(rows)
+
+    def lost(i: int, cause: str) -> None:
+        rows = _fault_rows(jobs[i], cause)
+        outcome.lost += len(rows)
+        outcome.failed_chunks.append(i)
+        deliver(i, rows)
+
     if scheduler is not None:
-        _run_dask(scheduler, jobs, results, tick)
-    else:
-        n_workers = min(workers or os.cpu_count() or 1, len(jobs))
-        if n_workers <= 1:
-            for i, job in enumerate(jobs):
-                results[i] = _chunk(job)
-                tick(len(job[3]))
-        else:
-            with ProcessPoolExecutor(max_workers=n_workers, mp_context=_context()) as pool:
-                futures = {pool.submit(_chunk, job): i for i, job in enumerate(jobs)}
-                for fut in as_completed(futures):
-                    i = futures[fut]
-                    results[i] = fut.result()
-                    tick(len(jobs[i][3]))
-    return [row for part in results if part is not None for row in part]
+        _run_dask(scheduler, jobs, deliver, lost, stop, outcome, worker_timeout)
+        return outcome
+    n_workers = min(workers or os.cpu_count() or 1, len(jobs))
+    if n_workers <= 1:
+        for i, job in enumerate(jobs):
+            if stop.stopped:
+                break
+            try:
+                with stop.raise_inside():
+                    rows = _chunk(job)
+            except _pool.Interrupted:
+                break
+            deliver(i, rows)
+        outcome.stopped = stop.signum
+        return outcome
+    try:
+        report = _pool.run_jobs(_chunk, jobs, n_workers, deliver, stop, on_error=lost)
+    except _pool.PoolError as exc:
+        outcome.fault = str(exc)
+        return outcome
+    outcome.stopped = report.stopped
+    outcome.deaths = report.deaths
+    return outcome
+
+
+def _fault_rows(job: tuple[Any, ...], cause: str) -> list[dict[str, Any]]:
+    """Error rows for the cases of a chunk that could not be run."""
+    _, source, keys, cases, _, _, numbers = job
+    names = [k.text for k in keys]
+    rows = []
+    for n, values in zip(numbers, cases, strict=True):
+        row = {"case": n, "case_key": case_key(names, values), "error": _error_text(cause, source)}
+        row.update(zip(names, values, strict=True))
+        rows.append(row)
+    return rows
 
 
 def _context() -> Any:
-    """Worker processes forked from a server that has plyshear loaded.
-
-    Forking the caller itself is unsafe once it runs threads (a Dask client, a
-    GUI); a fresh interpreter per worker pays the imports each time. Where the
-    platform has no fork server, the platform's default.
-    """
-    import multiprocessing
-
-    try:
-        ctx = multiprocessing.get_context("forkserver")
-    except ValueError:
-        return multiprocessing.get_context()
-    ctx.set_forkserver_preload(["plyshear.sweep.run", "plyshear.mechanics.batch",
-                                "plyshear.codes.check", "plyshear.model.modelfile"])
-    return ctx
+    """Worker processes forked from a server with plyshear loaded (see :func:`pool.context`)."""
+    return _pool.context()
 
 
 def _run_dask(address: str, jobs: list[tuple[Any, ...]],
-              results: list[list[dict[str, Any]] | None], tick: Callable[[int], None]) -> None:
+              deliver: Callable[[int, list[dict[str, Any]]], None],
+              lost: Callable[[int, str], None], stop: _pool.Stopper, outcome: Outcome,
+              worker_timeout: float) -> None:
+    """Run the chunks on a Dask cluster.
+
+    A chunk lost with its worker is resubmitted by the scheduler (up to its
+    ``allowed-failures``; then its cases are error rows). No worker for
+    ``worker_timeout`` seconds, or a lost scheduler, ends the run with
+    ``outcome.fault`` set; the rows delivered so far stand.
+    """
     try:
-        from distributed import Client
-        from distributed import as_completed as dask_completed
+        from distributed import Client, KilledWorker, wait
     except ImportError:
         raise RuntimeError("--scheduler needs dask.distributed: "
                            "pip install 'plyshear[dask]'") from None
@@ -278,11 +399,50 @@ def _run_dask(address: str, jobs: list[tuple[Any, ...]],
     except (OSError, TimeoutError, ValueError) as exc:
         raise RuntimeError(f"cannot reach the Dask scheduler at {address} ({exc})") from None
     try:
-        futures = client.map(_chunk, jobs, pure=False)
-        index = {f.key: i for i, f in enumerate(futures)}
-        for fut in dask_completed(futures):
-            i = index[fut.key]
-            results[i] = fut.result()
-            tick(len(jobs[i][3]))
+        futures = {f: i for i, f in enumerate(client.map(_chunk, jobs, pure=False))}
+        last_worker = time.monotonic()
+        while futures and not stop.stopped:
+            try:
+                ready = wait(list(futures), timeout=1.0, return_when="FIRST_COMPLETED").done
+            except TimeoutError:
+                ready = set()
+            for fut in ready:
+                i = futures.pop(fut)
+                try:
+                    rows = fut.result()
+                except KilledWorker as exc:
+                    lost(i, f"the chunk's workers died ({exc.__class__.__name__})")
+                    continue
+                except Exception as exc:  # noqa: BLE001 - one chunk's failure is its rows
+                    if _scheduler_lost(exc):
+                        raise
+                    lost(i, f"{type(exc).__name__}: {exc}")
+                    continue
+                deliver(i, rows)
+            if client.status != "running":
+                raise OSError("the client lost its scheduler")
+            if len(client.nthreads()):
+                last_worker = time.monotonic()
+            elif time.monotonic() - last_worker > worker_timeout:
+                outcome.fault = (f"no Dask worker for {worker_timeout:g} s at {address}; "
+                                 "the run cannot finish")
+                break
+        outcome.stopped = stop.signum
+        for fut in futures:
+            fut.cancel()
+    except (OSError, TimeoutError) as exc:
+        outcome.fault = f"lost the Dask scheduler at {address} ({type(exc).__name__})"
+    except Exception as exc:
+        if not _scheduler_lost(exc):
+            raise
+        outcome.fault = f"lost the Dask scheduler at {address} ({type(exc).__name__})"
     finally:
-        client.close()
+        with contextlib.suppress(Exception):
+            client.close(timeout=2)
+
+
+def _scheduler_lost(exc: BaseException) -> bool:
+    from distributed.comm.core import CommClosedError
+
+    return isinstance(exc, CommClosedError | OSError | TimeoutError)
+
