@@ -377,12 +377,14 @@ def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
     n = [r.planes for r in rows]
     fig = Figure(figsize=(10, 4.2), layout="constrained")
     axs = fig.subplots(1, 2)
-    marks = {"elastic": ("o", ":"), "nonlinear": ("s", "-"), "plastic": ("^", "--")}
-    for key, (marker, style) in marks.items():
-        loads = [getattr(r.summary, key).load / f for r in rows]
-        eff = [r.summary.efficiency(getattr(r.summary, key).load) for r in rows]
-        axs[0].plot(n, loads, color=INK, marker=marker, linestyle=style, label=key)
-        axs[1].plot(n, eff, color=INK, marker=marker, linestyle=style, label=key)
+    marks = {"elastic": ("o", ":", "elastic"), "nonlinear": ("s", "-", "nonlinear"),
+             "collapse": ("D", "-.", "collapse (LP)"),
+             "plastic": ("^", "--", "shear-only bound")}
+    for key, (marker, style, label) in marks.items():
+        loads = [r.summary.answers[key].load / f for r in rows]
+        eff = [r.summary.efficiency(r.summary.answers[key].load) for r in rows]
+        axs[0].plot(n, loads, color=INK, marker=marker, linestyle=style, label=label)
+        axs[1].plot(n, eff, color=INK, marker=marker, linestyle=style, label=label)
     ideal = [r.planes * r.summary.plane_strength / f for r in rows]
     axs[0].plot(n, ideal, color="#888888", linewidth=0.8, label="planes x one plane")
     axs[0].set_ylabel(f"capacity [{u.label('force')}]")
