@@ -126,6 +126,8 @@ def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
     Raises:
         plyshear.mechanics.capacity.CapacityError: If an analysis fails.
     """
+    from plyshear.codes.resistance import nominal_bearing
     from plyshear.mechanics.capacity import summarize
 
-    return summarize(joint_or_solution)
+    joint = joint_or_solution.joint if hasattr(joint_or_solution, "joint") else joint_or_solution
+    return summarize(joint_or_solution, nominal_bearing(joint))

@@ -248,11 +248,12 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
 
 
 def _summarize(joint: Any) -> Any:
+    from plyshear.codes.resistance import nominal_bearing
     from plyshear.mechanics.capacity import CapacityError, summarize
 
     try:
-        return _guard(lambda: summarize(joint))
-    except CapacityError as exc:
+        return _guard(lambda: summarize(joint, nominal_bearing(joint)))
+    except (CapacityError, ValueError) as exc:
         fail(f"{joint.source}: capacity: {exc}")
 
 
@@ -365,6 +366,7 @@ def _sample_key(seed: int, index: int) -> str:
 def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any, int | None, int]:
     """Run the samples with a progress bar, appending each to the output as it ends."""
     from plyshear import units
+    from plyshear.codes.resistance import nominal_bearing
     from plyshear.mechanics.studies import hole_scatter
     from plyshear.sweep.pool import Stopper
     from plyshear.sweep.stream import OutputError
@@ -396,7 +398,8 @@ def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any,
         try:
             result = _guard(lambda: hole_scatter(joint, samples, seed, skip=skip,
                                                  on_sample=on_sample,
-                                                 stop=lambda: stop.stopped))
+                                                 stop=lambda: stop.stopped,
+                                                 bearing=nominal_bearing(joint)))
         except ValueError as exc:
             if stream is not None:
                 stream.discard()
@@ -484,6 +487,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 
     The stack must have two members; their plies alternate (A B A B ...).
     """
+    from plyshear.codes.resistance import nominal_bearing
     from plyshear.mechanics.capacity import CapacityError
     from plyshear.mechanics.studies import planes_study
 
@@ -491,7 +495,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     joint = _load(model)
     _echo_sanity(joint)
     try:
-        rows = _guard(lambda: planes_study(joint, max_planes, keep))
+        rows = _guard(lambda: planes_study(joint, max_planes, keep, nominal_bearing))
     except (ValueError, CapacityError) as exc:
         fail(f"{model}: planes: {exc}")
     if as_json:

@@ -17,6 +17,7 @@ All are nominal (no resistance factors), in N, bounded by the same strengths
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
@@ -177,11 +178,15 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
     return Answer(float(lam * scale), event, where, z_ev)
 
 
-def summarize(joint_or_solution: Joint | Solution) -> CapacitySummary:
+def summarize(joint_or_solution: Joint | Solution,
+              bearing: Sequence[tuple[float, str]] | None = None) -> CapacitySummary:
     """Return every capacity answer of a joint (or of a solved joint).
 
     Args:
         joint_or_solution: The joint, or its linear solution (which carries it).
+        bearing: Every ply's bearing strength per unit bolt length and its rule
+            (:func:`plyshear.mechanics.strengths.strengths`); the callers above
+            mechanics pass the model's standard's.
 
     Returns:
         The :class:`CapacitySummary` (nominal, N, at the model's load pattern).
@@ -197,7 +202,10 @@ def summarize(joint_or_solution: Joint | Solution) -> CapacitySummary:
     else:
         original, sol = joint_or_solution.joint, joint_or_solution
     joint = reference_pattern(original)  # loads are magnitudes: the pattern's size drops out
-    s = strengths(joint)
+    try:
+        s = strengths(joint, bearing)
+    except ValueError as exc:
+        raise CapacityError(str(exc)) from None
     elastic = elastic_capacity(original, sol, s)
     result = analyse(joint, strength=s)
     nonlinear = Answer(result.load, result.event.event, result.event.where, result.event.z)

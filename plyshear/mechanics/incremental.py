@@ -649,7 +649,8 @@ def _result(model: _Model, history: list[State], iterations: list[tuple[float, .
     known = elongation(model.joint.bolt)[1]
     return CapacityResult(load=end, event=ended, history=tuple(history),
                           iterations=tuple(iterations), peak=max(s.load for s in history),
-                          events=tuple(recorder.events) + (ended,),
+                          events=tuple(sorted(recorder.events, key=lambda e: e.load))
+                          + (ended,),
                           elongation_known=known or model.steel.model == "elastic")
 
 

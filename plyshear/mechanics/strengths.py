@@ -22,7 +22,7 @@ For a joint (N, mm, MPa):
 from __future__ import annotations
 
 import math
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -127,14 +127,21 @@ def plane_threads(joint: Joint) -> tuple[bool, ...]:
 
 
 def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
-    """Every ply's bearing strength per unit bolt length (N/mm) and what governs it."""
+    """Every ply's bearing strength per unit bolt length (N/mm) and what governs it.
+
+    Raises:
+        ValueError: If a ply's edge leaves no material beyond its hole.
+    """
     d = joint.bolt.diameter
     dh = d + hole_clearance(joint)
     q, rule = [], []
-    for p in joint.plies:
+    for i, p in enumerate(joint.plies, start=1):
         bearing = laws.C_BEARING * d * p.fu
+        if p.edge is not None and p.edge <= dh / 2.0:
+            raise ValueError(f"ply[{i}].edge: {p.edge:g} mm leaves no material beyond the "
+                             f"{dh:g} mm hole")
         if p.edge is not None and C_TEAROUT * (p.edge - dh / 2.0) * p.fu < bearing:
-            q.append(max(C_TEAROUT * (p.edge - dh / 2.0) * p.fu, 0.0))
+            q.append(C_TEAROUT * (p.edge - dh / 2.0) * p.fu)
             rule.append("tear-out 1.2 lc t fu")
         else:
             q.append(bearing)
@@ -142,20 +149,30 @@ def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
     return np.array(q), tuple(rule)
 
 
-def strengths(joint: Joint) -> Strengths:
+def strengths(joint: Joint, bearing: Sequence[tuple[float, str]] | None = None) -> Strengths:
     """Return the nominal strengths of ``joint``.
+
+    Args:
+        joint: The joint.
+        bearing: Every ply's bearing strength per unit bolt length (N/mm) and its
+            rule, e.g. the model's standard's
+            (:func:`plyshear.codes.resistance.nominal_bearing`); default: the
+            AISC 360-22 J3.10(a)(1) form of :func:`ply_bearing`.
 
     Raises:
         ValueError: If a ply's bearing law cannot be built (e.g. an edge
             distance that leaves no material beyond the hole).
     """
     b = joint.bolt
-    q, rule = ply_bearing(joint)
+    if bearing is None:
+        q, rule = ply_bearing(joint)
+    else:
+        q, rule = np.array([v for v, _ in bearing], dtype=float), tuple(r for _, r in bearing)
     name = law_name(joint)
     curves, rules = [], list(rule)
     for j, (p, k) in enumerate(zip(joint.plies, ply_moduli(joint), strict=True)):
         cv = laws.curve(name, b, p, float(k))
-        if cv.q_max <= q[j]:
+        if cv.q_max < q[j]:
             q[j] = cv.q_max
             rules[j] = f"{cv.name} law's peak"
         else:

@@ -11,7 +11,7 @@
 from __future__ import annotations
 
 import dataclasses
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -23,6 +23,7 @@ from plyshear.mechanics.capacity import (
     hole_clearance,
     summarize,
 )
+from plyshear.mechanics.strengths import Strengths, strengths
 from plyshear.model.joint import Joint, Ply
 
 KEEP_MODES = ("total", "ply")
@@ -118,7 +119,9 @@ class PlanesRow:
     summary: CapacitySummary
 
 
-def planes_study(joint: Joint, max_planes: int, keep: str = "total") -> list[PlanesRow]:
+def planes_study(joint: Joint, max_planes: int, keep: str = "total",
+                 bearing_of: Callable[[Joint], Sequence[tuple[float, str]]] | None = None
+                 ) -> list[PlanesRow]:
     """Capacities of the stack rebuilt with 2 … ``max_planes`` planes.
 
     Raises:
@@ -130,7 +133,8 @@ def planes_study(joint: Joint, max_planes: int, keep: str = "total") -> list[Pla
     rows = []
     for n in range(2, max_planes + 1):
         variant = rebuild(joint, n, keep)
-        rows.append(PlanesRow(planes=n, joint=variant, summary=summarize(variant)))
+        bearing = bearing_of(variant) if bearing_of is not None else None
+        rows.append(PlanesRow(planes=n, joint=variant, summary=summarize(variant, bearing)))
     return rows
 
 
@@ -217,7 +221,8 @@ def scatter_offsets(joint: Joint, samples: int, seed: int) -> np.ndarray:
     return rng.uniform(-0.5 * c, 0.5 * c, size=(samples, len(joint.plies)))
 
 
-def scatter_sample(joint: Joint, index: int, offsets: np.ndarray) -> Sample:
+def scatter_sample(joint: Joint, index: int, offsets: np.ndarray,
+                   strength: Strengths | None = None) -> Sample:
     """Analyse one sample: the joint with these hole offsets, holes placed by offset."""
     base = dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
                                                                    clearance="offset"))
@@ -226,7 +231,7 @@ def scatter_sample(joint: Joint, index: int, offsets: np.ndarray) -> Sample:
     service = service_load(joint)
     offs = tuple(float(o) for o in offsets)
     try:
-        result = analyse(dataclasses.replace(base, plies=plies))
+        result = analyse(dataclasses.replace(base, plies=plies), strength=strength)
     except CapacityError as exc:
         return Sample(index, offs, np.inf, -np.inf, f"{NOT_CONVERGED}: {exc}")
     loads = np.array([st.load for st in result.history])
@@ -244,7 +249,8 @@ def service_load(joint: Joint) -> float:
 def hole_scatter(joint: Joint, samples: int, seed: int, *,
                  skip: Callable[[int], bool] | None = None,
                  on_sample: Callable[[Sample], None] | None = None,
-                 stop: Callable[[], bool] | None = None) -> ScatterResult:
+                 stop: Callable[[], bool] | None = None,
+                 bearing: Sequence[tuple[float, str]] | None = None) -> ScatterResult:
     """Scatter every ply's hole uniformly within the clearance and analyse each case.
 
     Args:
@@ -254,6 +260,8 @@ def hole_scatter(joint: Joint, samples: int, seed: int, *,
         skip: Given a sample number, True to leave it out (done in an earlier run).
         on_sample: Called with each :class:`Sample` as it finishes.
         stop: Polled between samples; True ends the run early.
+        bearing: Every ply's bearing strength and rule (see
+            :func:`plyshear.mechanics.strengths.strengths`).
 
     Returns:
         The :class:`ScatterResult` of the samples analysed in this call.
@@ -264,13 +272,14 @@ def hole_scatter(joint: Joint, samples: int, seed: int, *,
     if samples < 1:
         raise ValueError(f"--scatter must be at least 1 (got {samples})")
     offsets = scatter_offsets(joint, samples, seed)
+    strength = strengths(joint, bearing)  # the holes' offsets do not change them
     done: list[Sample] = []
     for i in range(samples):
         if stop is not None and stop():
             break
         if skip is not None and skip(i + 1):
             continue
-        sample = scatter_sample(joint, i + 1, offsets[i])
+        sample = scatter_sample(joint, i + 1, offsets[i], strength)
         done.append(sample)
         if on_sample is not None:
             on_sample(sample)

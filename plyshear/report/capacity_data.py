@@ -15,6 +15,7 @@ from plyshear.codes.check import CheckResult, load_level
 from plyshear.codes.resistance import design_factor
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.model.joint import Joint
+from plyshear.report.text import fmt
 
 #: The answers in the order they are reported, with their labels.
 ANSWERS = (
@@ -80,19 +81,18 @@ def mechanism_short(summary: CapacitySummary) -> str:
     return ", ".join(out)
 
 
-def _end_reason(summary: CapacitySummary) -> str:
-    """Why the nonlinear analysis can end below what the check allows."""
-    event = summary.nonlinear.event
-    if event == "bolt fibre strain at elongation" or event == "bolt bending and shear":
-        return ("the check does not limit the bolt's bending, while the analysis ends when the "
-                "bent bolt reaches its elongation or ruptures under moment and shear")
-    if event == "ply bearing deformation":
-        return ("the check sets each ply's bearing against its strength, while the analysis "
-                "limits the hole's elongation")
-    if event == "plane shear rupture":
-        return ("the check takes each plane's shear alone from the linear split, while the "
-                "analysis ruptures the plane under shear and moment together")
-    return f"the analysis ended at {event}"
+def _end_reason(summary: CapacitySummary, joint: Joint) -> str:
+    """What ended the nonlinear analysis, and the rigid-plastic mechanism, in words."""
+    a = summary.nonlinear
+    out = (f"the analysis ended at {a.event} ({where(a, joint)}); its rigid-plastic "
+           f"mechanism: {'; '.join(mechanism_parts(summary, joint)) or 'none'}")
+    if a.event in ("bolt fibre strain at elongation", "bolt bending and shear"):
+        out += "; the check does not limit the bolt's bending"
+    if joint.bolt.ends == "free" and summary.mechanism.mechanism.hinges == () and \
+            not summary.mechanism.mechanism.planes and summary.planes == len(joint.stations):
+        out += ("; a single-shear bolt with free ends tips in its holes: a headed, tightened "
+                "bolt may be nearer [bolt] ends = \"clamped\"")
+    return out
 
 
 def verdict(summary: CapacitySummary, joint: Joint, result: CheckResult | None) -> Verdict:
@@ -104,13 +104,13 @@ def verdict(summary: CapacitySummary, joint: Joint, result: CheckResult | None) 
     load = summary.model_load
     level = load_level(joint, joint.check.standard, joint.check.method)
     holds = design >= load
-    numbers = (f"the nonlinear design capacity {design / fu:.4g} {lf} ({basis}) against the "
-               f"model's {level} load {load / fu:.4g} {lf}")
+    numbers = (f"the nonlinear design capacity {fmt(design / fu)} {lf} ({basis}) against the "
+               f"model's {level} load {fmt(load / fu)} {lf}")
     if result is None:
         return Verdict(True, f"{numbers}: {'enough' if holds else 'NOT enough'}.")
     if result.passes and not holds:
         return Verdict(False, f"The check passes, but {numbers} is not enough: "
-                              f"{_end_reason(summary)}.")
+                              f"{_end_reason(summary, joint)}.")
     if not result.passes and holds:
         return Verdict(False, f"The check fails, but {numbers} is enough: the check takes the "
                               "linear split, while the analysis lets the plies and the bolt yield "

@@ -22,6 +22,7 @@ from matplotlib.figure import Figure
 from plyshear import __version__
 from plyshear import units as _units
 from plyshear.codes.check import UNVERIFIED, CheckResult, check
+from plyshear.codes.resistance import nominal_bearing
 from plyshear.mechanics.capacity import CapacityError, CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.solve import solve
@@ -54,9 +55,9 @@ def build(joint: Joint) -> ReportData:
     sol = solve(joint)
     res = check(joint, sol)
     try:
-        cap: CapacitySummary | None = summarize(sol)
+        cap: CapacitySummary | None = summarize(sol, nominal_bearing(joint))
         note = ""
-    except CapacityError as exc:
+    except (CapacityError, ValueError) as exc:
         cap, note = None, f"capacity not available: {exc}"
     created = _created()
     return ReportData(joint, sol, res, cap, note, created)

@@ -279,7 +279,7 @@ def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
     for r in rows:
         s = r.summary
         table_rows.append([
-            str(r.planes), fmt(s.plane_strength * r.planes / f), fmt(s.elastic.load / f),
+            str(r.planes), fmt(s.plane_strength * s.planes / f), fmt(s.elastic.load / f),
             fmt(s.nonlinear.load / f), fmt(s.collapse.load / f), fmt(s.plastic.load / f),
             f"{s.efficiency(s.nonlinear.load):.2f}", f"{s.efficiency(s.collapse.load):.2f}",
             s.nonlinear.event,
@@ -288,7 +288,13 @@ def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
         else "each ply keeps its thickness"
     out = [joint.title or (joint.source or "joint"),
            f"planes study: the stack rebuilt with 2 to {rows[-1].planes} planes ({what}, "
-           "fillers and packs kept); nominal strengths", ""]
+           "fillers and packs kept); nominal strengths"]
+    if any(p.gap > 0 for p in joint.plies):
+        out.append("note: the model's gaps between plies are left out of the rebuilt stacks")
+    if len(joint.stations) > 1:
+        out.append(f"planes per bolt; every bolt of the row of {len(joint.stations)} is "
+                   "rebuilt alike and the loads are the row's")
+    out.append("")
     out.append(table(["planes", f"n x plane [{lf}]", f"elastic [{lf}]", f"nonlinear [{lf}]",
                       f"collapse [{lf}]", f"shear-only [{lf}]", "eff. nl.", "eff. coll.",
                       "end of the nonlinear analysis"], table_rows, "rrrrrrrrl"))
@@ -304,12 +310,20 @@ def plane_gains(rows: list[PlanesRow], joint: Joint) -> list[str]:
     u = _units.system(joint.units)
     f, lf = u.factor("force"), u.label("force")
     out = []
+    def part(delta: float, base: float, what: str, percent: bool) -> str:
+        share = f" ({100.0 * delta / base:+.1f} %)" if percent and base else ""
+        if abs(delta) <= 1e-6 * abs(base):
+            return f"nothing to the {what}"
+        if delta > 0:
+            return f"{fmt(delta / f)} {lf}{share} to the {what}"
+        return f"minus {fmt(-delta / f)} {lf}{share} to the {what}"
+
     for a, b in zip(rows, rows[1:], strict=False):
-        nl = b.summary.nonlinear.load - a.summary.nonlinear.load
-        lp = b.summary.collapse.load - a.summary.collapse.load
-        pct = 100.0 * nl / a.summary.nonlinear.load
-        out.append(f"plane {b.planes} adds {fmt(nl / f)} {lf} ({pct:+.1f} %) to the nonlinear "
-                   f"ultimate and {fmt(lp / f)} {lf} to the collapse load")
+        sa, sb = a.summary, b.summary
+        nl = part(sb.nonlinear.load - sa.nonlinear.load, sa.nonlinear.load,
+                  "nonlinear ultimate", True)
+        lp = part(sb.collapse.load - sa.collapse.load, sa.collapse.load, "collapse load", False)
+        out.append(f"plane {b.planes} adds {nl} and {lp}")
     return out
 
 

@@ -200,11 +200,12 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             out["load_factor"] = el.load / pattern_total(joint)  # > 0: a load was scaled
             out["capacity_event"] = f"{el.event}, {el.where}"
     if options.capacity == "full":
+        from plyshear.codes.resistance import nominal_bearing
         from plyshear.mechanics.capacity import summarize
 
         try:
-            s = summarize(sol)
-        except CapacityError as exc:
+            s = summarize(sol, nominal_bearing(joint))
+        except (CapacityError, ValueError) as exc:
             out["nonlinear_event"] = str(exc)
         else:
             out["capacity_nonlinear"] = s.nonlinear.load / f
