@@ -15,6 +15,7 @@ from plyshear.verify.case import (
     Case,
     case,
     clevis,
+    model,
     ply,
     solve,
 )
@@ -107,6 +108,26 @@ def case_circle_shape_factor() -> Case:
                 "Mp/My = 16/3π",
                 "M(κ = 1000 κ_y)/M_y [-]", 16 / (3 * math.pi),
                 float(m[0] / yield_moment(steel.fy, d)), REL_SHAPE_FACTOR)
+
+
+@case
+def case_en_table_6_11_modulus_per_thickness() -> Case:
+    """The default bearing modulus of a thin ply: the Table 6.11 spring over its thickness."""
+    from plyshear.mechanics import bearing
+
+    joint = model('format = 1\nunits = "N-mm"\n[bolt]\ndiameter = 24\ngrade = "8.8"\n'
+                  'threads = "excluded"\n'
+                  + ply("a", "a", 12.0, 'steel = "S355"\n')
+                  + ply("b", "b", 12.0, 'steel = "S355"\n')
+                  + "[member.a]\nsupport = true\n[member.b]\nload = 1000.0\n")
+    # EN 1993-1-8 Table 6.11 row 12: k12 = 24 kb kt d fu/E, kt = 1.5 t/16 below its cap,
+    # kb = 1.25 without an edge; so E k12/t = 2.25 kb d fu (docs/theory.md, section 3)
+    ref = 2.25 * 1.25 * 24.0 * 510.0
+    return Case("mechanics", "en_table_6_11_modulus_per_thickness",
+                "EN 1993-1-8 Table 6.11 (bolts in bearing), spread over t ≤ 26.7 mm: "
+                "k = 2.25 kb d fu; EN 10025-2 S355 fu = 510 MPa",
+                "foundation modulus, M24 in a 12 mm ply [MPa]", ref,
+                bearing.component(joint.bolt, joint.plies[0]), REL_ROUND_OFF)
 
 
 @case

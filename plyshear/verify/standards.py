@@ -119,6 +119,29 @@ def _filler_joint() -> str:
             '[check]\nstandard = "aisc360-22"\nmethod = "lrfd"\n')
 
 
+def _single_lap(units: str, d: float, grade: str, t: float, steel: str, load: float,
+                standard: str) -> str:
+    """Two plies in single shear, threads in the plane (the bolt's length puts them there)."""
+    return (f'format = 1\nunits = "{units}"\n[bolt]\ndiameter = {d!r}\ngrade = "{grade}"\n'
+            'threads = "included"\n'
+            + ply("held", "held", t, f'steel = "{steel}"\n')
+            + ply("pulled", "pulled", t, f'steel = "{steel}"\n')
+            + f"[member.held]\nsupport = true\n[member.pulled]\nload = {load!r}\n"
+            f'[check]\nstandard = "{standard}"\n')
+
+
+@case
+def case_aisc_manual_7_1_end_to_end() -> Case:
+    """End to end: a 3/4 in A325 bolt, threads included, in a single-shear lap."""
+    found = item(_single_lap("kip-in", 0.75, "A325", 0.75, "A36", 10.0, "aisc360-22"),
+                 "bolt shear", "plane 1")
+    return Case("AISC 360-22", "aisc_manual_7_1_end_to_end",
+                "from memory: AISC Manual Table 7-1, 3/4 in Group A-N, single shear: "
+                "φrn = 17.9 kips; model → solve → check",
+                "plane 1 design shear strength [kip]", 17.9, found.capacity / KIP,
+                REL_PRINTED_3)
+
+
 @case
 def case_aisc_bolt_shear_through_filler() -> Case:
     """End to end: a plane bounding a 1/2 in filler, threads excluded."""
@@ -143,6 +166,17 @@ def case_en_table_3_4_m20_8_8_threads() -> Case:
                 "ArcelorMittal/SCI Orange Book, bolt resistances, M20 8.8: 94.1 kN "
                 "(EN 1993-1-8 Table 3.4, As = 245 mm², ISO 898-1)",
                 "Fv,Rd per plane [kN]", 94.1, value, REL_PRINTED_3)
+
+
+@case
+def case_en_orange_book_end_to_end() -> Case:
+    """End to end: an M20 8.8 bolt, threads in the plane, in a single-shear lap."""
+    found = item(_single_lap("kN-mm", 20.0, "8.8", 15.0, "S355", 50.0, "en1993-1-8"),
+                 "bolt shear", "plane 1")
+    return Case("EN 1993-1-8", "en_orange_book_end_to_end",
+                "ArcelorMittal/SCI Orange Book, M20 8.8 shear per plane through threads: "
+                "94.1 kN; model → solve → check",
+                "plane 1 Fv,Rd [kN]", 94.1, found.capacity / 1000.0, REL_PRINTED_3)
 
 
 @case
