@@ -13,6 +13,7 @@ from pathlib import Path
 import pytest
 
 from plyshear import verify
+from plyshear.verify.__main__ import main
 
 ROOT = Path(__file__).resolve().parents[1]
 
@@ -55,10 +56,10 @@ def test_main_checks_and_refuses_a_hand_written_file(tmp_path: Path) -> None:
     (tmp_path / "tests" / "verification").mkdir(parents=True)
     (tmp_path / "docs").mkdir()
     target = tmp_path / "docs" / "verification.md"
-    assert verify.main(["--root", str(tmp_path), "--check"]) == 1  # missing: stale
-    assert verify.main(["--root", str(tmp_path)]) == 0
-    assert verify.main(["--root", str(tmp_path), "--check"]) == 0
+    assert main(["--root", str(tmp_path), "--check"]) == 1  # missing: stale
+    assert main(["--root", str(tmp_path)]) == 0
+    assert main(["--root", str(tmp_path), "--check"]) == 0
     target.write_text("# my notes\n", encoding="utf-8")
-    assert verify.main(["--root", str(tmp_path)]) == 2
+    assert main(["--root", str(tmp_path)]) == 2
     assert target.read_text(encoding="utf-8") == "# my notes\n"
-    assert verify.main(["--root", str(tmp_path / "nowhere")]) == 2
+    assert main(["--root", str(tmp_path / "nowhere")]) == 2

@@ -4,7 +4,7 @@ Each case computes one quantity with plyshear and the same quantity from a
 source outside the project (a standard's clause or table, a published worked
 example, a closed form, a paper), with the tolerance it must meet and why.
 The test suite runs every case (``tests/test_verify.py``), and
-``python -m plyshear.verify`` writes them as the table of
+``python -m plyshear.verify`` (:mod:`plyshear.verify.__main__`) writes them as the table of
 ``docs/verification.md``, followed by the verification test modules found on
 disk, so the document is the tests' own record and a test fails when the
 committed copy is stale.
@@ -14,15 +14,13 @@ Reference values are computed here from the source's formula where one exists
 source's rounding in their tolerance.
 """
 
-import argparse
 import ast
-import sys
 from pathlib import Path
 
 from plyshear.verify import capacity, mechanics, standards  # noqa: F401 - registers the cases
 from plyshear.verify.case import GROUPS, Case, names, run, run_all
 
-__all__ = ["GROUPS", "Case", "document", "main", "names", "render", "run", "run_all",
+__all__ = ["GROUPS", "HEADER", "Case", "document", "names", "render", "run", "run_all",
            "verification_modules"]
 
 
@@ -78,38 +76,3 @@ def render(cases: list[Case], modules: list[tuple[str, str]]) -> str:
 def document(root: Path) -> str:
     """The document for the repository at ``root``."""
     return render(run_all(), verification_modules(root))
-
-
-def main(argv: list[str] | None = None) -> int:
-    """Write (or with ``--check`` compare) docs/verification.md; exit 1 if a case fails."""
-    parser = argparse.ArgumentParser(prog="python -m plyshear.verify",
-                                     description="Run the verification cases and write "
-                                                 "docs/verification.md.")
-    parser.add_argument("--root", type=Path, default=Path("."),
-                        help="the repository's root (default: the current folder)")
-    parser.add_argument("--check", action="store_true",
-                        help="do not write; exit 1 if the committed document is stale")
-    args = parser.parse_args(argv)
-    target = args.root / "docs" / "verification.md"
-    if not (args.root / "tests" / "verification").is_dir():
-        print(f"error: {args.root}: not a plyshear repository (no tests/verification)",
-              file=sys.stderr)
-        return 2
-    text = document(args.root)
-    failing = [c.name for c in run_all() if not c.passes]
-    if args.check:
-        current = target.read_text(encoding="utf-8") if target.exists() else ""
-        if current != text:
-            print(f"{target}: stale; run python -m plyshear.verify", file=sys.stderr)
-            return 1
-    else:
-        if target.exists() and not target.read_text(encoding="utf-8").startswith(HEADER):
-            print(f"error: {target}: exists and was not generated; not replaced",
-                  file=sys.stderr)
-            return 2
-        tmp = target.with_suffix(".md.tmp")
-        tmp.write_text(text, encoding="utf-8")
-        tmp.replace(target)
-        print(f"wrote {target}: {len(run_all())} cases, {len(failing)} failing")
-    return 1 if failing else 0
-
