@@ -205,7 +205,8 @@ def case_row_two_bolts_unequal() -> Case:
     return Case("rows", "row_two_bolts_unequal",
                 "compatibility of a two-bolt lap (from memory: Tate & Rosenfeld 1946): "
                 "R1 = P(1/k + p/EAa)/(2/k + p/EAa + p/EAb)",
-                "bolt 1 share, plates 10/20 mm [N]", ref, _row_shares(10.0, 20.0, 2)[0],
+                "bolt 1 share, plates 10/20 mm; k from the one-bolt solve [N]", ref,
+                _row_shares(10.0, 20.0, 2)[0],
                 REL_STATICS)
 
 
@@ -217,7 +218,8 @@ def case_row_three_bolts_equal() -> Case:
     return Case("rows", "row_three_bolts_equal",
                 "compatibility of a three-bolt lap, equal plates (from memory: Tate & "
                 "Rosenfeld 1946): R1 = R3 = P(1 + α)/(3 + 2α), α = kp/EA",
-                "bolt 1 share, plates 12/12 mm [N]", load * (1 + alpha) / (3 + 2 * alpha),
+                "bolt 1 share, plates 12/12 mm; k from the one-bolt solve [N]",
+                load * (1 + alpha) / (3 + 2 * alpha),
                 _row_shares(12.0, 12.0, 3)[0], REL_STATICS)
 
 
@@ -230,5 +232,6 @@ def case_row_three_bolts_unequal() -> Case:
     return Case("rows", "row_three_bolts_unequal",
                 "compatibility of a three-bolt lap (from memory: Tate & Rosenfeld 1946), "
                 "solved as three linear equations",
-                "bolt 2 share, plates 8/24 mm [N]", ref, _row_shares(8.0, 24.0, 3)[1],
+                "bolt 2 share, plates 8/24 mm; k from the one-bolt solve [N]", ref,
+                _row_shares(8.0, 24.0, 3)[1],
                 REL_STATICS)

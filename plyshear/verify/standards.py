@@ -64,7 +64,8 @@ def case_aisc_j5_2_filler_factor() -> Case:
 
     return Case("AISC 360-22", "aisc_j5_2_filler_factor",
                 "AISC 360-22 J5.2(b): 1 − 0.4(t − 0.25), t = 0.5 in (US form)",
-                "filler factor [-]", 1 - 0.4 * (0.5 - 0.25), aisc.filler_factor(0.5 * IN),
+                "filler factor by the SI form the check uses, t = 12.7 mm [-]",
+                1 - 0.4 * (0.5 - 0.25), aisc.filler_factor(0.5 * IN),
                 REL_PRINTED_3)
 
 
