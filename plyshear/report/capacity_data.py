@@ -195,6 +195,9 @@ def notes(summary: CapacitySummary, joint: Joint) -> list[str]:
     if joint.analysis.bearing == "component":
         out.append("bearing: the linear component stiffness, capped at each ply's bearing "
                    "strength")
+    if summary.elastic.load > summary.nonlinear.load:
+        out.append("the elastic answer scales the linear split (the stiffness law of the check); "
+                   "the nonlinear bearing law is softer, so its ultimate can lie below it")
     if not joint.analysis.deformation_limits:
         out.append("deformation limits off: the analysis runs to its peak or a slip of one "
                    "bolt diameter")

@@ -205,7 +205,8 @@ def assumptions(data: ReportData) -> list[str]:
         f"equilibrium residual of the solve: {sol.equilibrium_residual:.1e} of the load",
         f"demands are the model's loads as given, taken as {data.check.loads} loads "
         "([check] loads; default factored for LRFD and EN 1993-1-8, service for ASD)",
-        "the capacity uses nominal strengths without resistance factors",
+        "the capacity answers are nominal; their design values are the nominal times the "
+        "standard's factor (phi, 1/Omega or 1/gamma_M2), shown beside them",
     ]
     out += [f"warning: {w}" for w in sol.warnings]
     out += [f"note: {n}" for n in data.check.notes]

@@ -237,7 +237,8 @@ def capacity_text(summary: CapacitySummary, joint: Joint,
     out = [title,
            f"capacity: bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; "
            f"nominal strengths; design = nominal x {k:.3g} ({basis})",
-           f"{summary.planes} planes between members; one plane's rupture strength "
+           f"{summary.planes} plane{'s' * (summary.planes != 1)} between members; one plane's "
+           "rupture strength "
            f"0.62 fub A = {fmt(summary.plane_strength / f)} {lf}", ""]
     out.append(table(["answer", f"nominal [{lf}]", f"design [{lf}]", "efficiency",
                       "end event / mechanism"], rows, "lrrrl"))
