@@ -60,6 +60,7 @@ __all__ = [
     "law_name",
     "load_pattern",
     "lug_end",
+    "lug_rules",
     "pattern_total",
     "plane_strength",
     "separating_planes",

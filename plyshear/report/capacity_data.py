@@ -13,7 +13,7 @@ from typing import Any
 from plyshear import units as _units
 from plyshear.codes.check import CheckResult, load_level
 from plyshear.codes.resistance import design_factor
-from plyshear.mechanics.capacity import Answer, CapacitySummary
+from plyshear.mechanics.capacity import Answer, CapacitySummary, lug_rules
 from plyshear.model.joint import Joint
 
 #: The answers in the order they are reported, with their labels.
@@ -62,7 +62,9 @@ def mechanism_parts(summary: CapacitySummary, joint: Joint) -> list[str]:
         return f"bolt {b + 1} " if many else ""
 
     parts = [f"{bolt(h.bolt)}hinge at z = {h.z / ln:.4g} {ll}" for h in m.hinges]
-    parts += [f"{bolt(b)}ply {name} at full bearing" for b, name in m.bearing]
+    lugs = lug_rules(joint, summary.strengths)
+    parts += [f"{bolt(b)}ply {name} at full bearing"
+              + (f" ({lugs[name]})" if name in lugs else "") for b, name in m.bearing]
     parts += [f"{bolt(b)}plane {i} ruptured" for b, i in m.planes]
     parts += [f"ply {name} net section between bolts {i + 1} and {i + 2}"
               for name, i in m.net_sections]

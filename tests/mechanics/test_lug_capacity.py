@@ -18,6 +18,7 @@ import plyshear
 from plyshear.mechanics.capacity import governing_lugs, summarize
 from plyshear.mechanics.strengths import LUG_NET_TENSION, lug_strengths, strengths
 from plyshear.mechanics.studies import planes_study
+from plyshear.report.capacity_data import mechanism_parts
 from plyshear.report.text import planes_text
 from tests.conftest import MODELS
 
@@ -66,6 +67,8 @@ def test_the_capacity_names_the_lug() -> None:
     # the fork's legs all at their rupture strength hold the collapse: the hand sum
     assert summary.collapse.load == pytest.approx(_fork_cap(joint), rel=REL_LP)
     assert summary.nonlinear.load <= summary.collapse.load * (1 + REL_LP)
+    parts = mechanism_parts(summary, joint)
+    assert any(p.endswith(f"at full bearing ({LUG_NET_TENSION})") for p in parts)
     # before any plane: the planes' own strength is well above the fork's
     assert summary.plane_strength * summary.planes > 2 * _fork_cap(joint)
 
