@@ -13,7 +13,7 @@ from typing import Any
 from plyshear import units as _units
 from plyshear.codes.check import CheckResult, load_level
 from plyshear.codes.resistance import design_factor
-from plyshear.mechanics.capacity import Answer, CapacitySummary, lug_rules
+from plyshear.mechanics.capacity import Answer, CapacitySummary, governing_lugs, lug_rules
 from plyshear.model.joint import Joint
 
 #: The answers in the order they are reported, with their labels.
@@ -161,6 +161,8 @@ def capacity_dict(summary: CapacitySummary, joint: Joint,
             "mechanism": {
                 "hinges": [h.z / ln for h in lp.mechanism.hinges],
                 "bearing": [name for _, name in lp.mechanism.bearing],
+                "lugs": [{"ply": name, "rule": rule}
+                         for name, rule in governing_lugs(joint, s, lp)],
                 "planes": [i for _, i in lp.mechanism.planes],
                 "net_sections": [f"{name} between bolts {i + 1} and {i + 2}"
                                  for name, i in lp.mechanism.net_sections],

@@ -70,3 +70,17 @@ def test_replaceable_must_be_a_boolean(write_model) -> None:
     assert result.exit_code == EXIT_BAD_INPUT
     assert result.output == (f"error: {path}: check.replaceable: must be true or false "
                              "(got a string)\n")
+
+
+def test_the_planes_study_json_says_when_the_lug_governs(write_model) -> None:
+    # the test fork's legs cut to 34 mm beside a 25 mm pin hole (d + 1 mm): b = 4.5 mm, so
+    # each leg's net tension Fu 2 t b (AISC 360-22 Eq. D5-1) is far below the pin's planes
+    legs = PIN.replace('name = "leg-1"', 'name = "leg-1"\nedge = 45\nwidth = 34').replace(
+        'name = "leg-2"', 'name = "leg-2"\nedge = 45\nwidth = 34').replace(
+        'name = "lug"', 'name = "lug"\nedge = 60\nwidth = 120')
+    result = CliRunner().invoke(main, ["planes", str(write_model(legs)), "--max", "3", "--json"])
+    assert result.exit_code == 0, result.output
+    data = json.loads(result.output)
+    assert [line.split(":")[0] for line in data["lugs"]] == ["2 planes", "3 planes"]
+    assert data["planes"][0]["collapse"]["mechanism"]["lugs"] == [
+        {"ply": "fork-1", "rule": "lug net tension"}, {"ply": "fork-2", "rule": "lug net tension"}]
