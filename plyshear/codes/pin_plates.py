@@ -73,14 +73,16 @@ def extend(joint: Joint, solution: Solution, result: CheckResult, method: str) -
         per: list[CheckItem] = []
         for pb in bolt.plies:
             ply = joint.plies[pb.ply]
-            if ply.is_filler or ply.edge is None or ply.width is None:
+            if ply.is_filler:
+                continue
+            if result.standard == "en1993-1-8" and joint.check.replaceable:
+                per += en_service_items(joint, ply, pb.force)  # no edge or width needed
+            if ply.edge is None or ply.width is None:
                 continue
             if result.standard == "aisc360-22":
                 per += aisc_items(joint, ply, pb.force, method)
             elif not service:
                 per += en_items(joint, ply, pb.force)
-            if result.standard == "en1993-1-8" and joint.check.replaceable:
-                per += en_service_items(joint, ply, pb.force)
         if result.standard == "en1993-1-8" and joint.check.replaceable:
             per.append(en_service_bending(joint, bolt.z, resultants(bolt.M)))
         out += tag_bolt(per, k, count)

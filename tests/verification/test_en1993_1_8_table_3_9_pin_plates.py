@@ -175,3 +175,13 @@ def test_service_loads_without_a_replaceable_pin_are_still_refused(tmp_path) -> 
     joint = plyshear.load_model(path)
     with pytest.raises(ValueError, match="service"):
         check(joint, plyshear.solve(joint))
+
+
+def test_the_serviceability_rules_need_no_edge_or_width(tmp_path) -> None:
+    bare = "\n".join(line for line in LUG.splitlines()
+                     if not line.startswith(("edge", "width")))
+    _, result = _check(tmp_path, bare)
+    assert {i.where for i in result.items if i.what == "pin contact stress"} == {
+        "ply leg-1", "ply lug", "ply leg-2"}
+    assert not any(i.what == "lug geometry" for i in result.items)
+    assert any("no edge or width given" in n for n in result.notes)
