@@ -98,12 +98,8 @@ def notes(joint: Joint, result: CheckResult, service: bool) -> list[str]:
            f" given: the pin-plate rules ({rules}) not checked"
            for p in joint.plies if not p.is_filler and (p.edge is None or p.width is None)]
     dh = pin_hole(joint, result.standard)
-    given = ("" if joint.analysis.hole_clearance is not None else
-             " (d + 1/32 in, the D5.2 limit)" if result.standard == "aisc360-22" and
-             joint.units == "kip-in" else " (d + 1 mm, the D5.2 limit)"
-             if result.standard == "aisc360-22" else " (d + 1 mm)")
-    out.append(f"pin plates: hole {length_str(joint.units, dh)}{given} taken as centred "
-               "across each plate")
+    out.append(f"pin plates: hole {length_str(joint.units, dh)}{_hole_source(joint, result)} "
+               "taken as centred across each plate")
     if result.standard == "en1993-1-8" and joint.check.replaceable:
         out.append("replaceable pin: the serviceability rules checked with the model's service "
                    "loads alone (the strength rules need factored loads)" if service else
@@ -114,6 +110,16 @@ def notes(joint: Joint, result: CheckResult, service: bool) -> list[str]:
         out.append("[check] replaceable: AISC 360-22 has no serviceability rule for replaceable "
                    "pins (the EN 1993-1-8 rules are not applied)")
     return out
+
+
+def _hole_source(joint: Joint, result: CheckResult) -> str:
+    """Where the pin hole's size comes from, for the note ("" when the model gives it)."""
+    if joint.analysis.hole_clearance is not None:
+        return ""
+    if result.standard != "aisc360-22":
+        return " (d + 1 mm)"
+    return " (d + 1/32 in, the D5.2 limit)" if unit_form(joint) == "us" else \
+        " (d + 1 mm, the D5.2 limit)"
 
 
 def _geometry(joint: Joint, ply: Ply, standard: str) -> tuple[float, float, float]:
