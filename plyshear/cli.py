@@ -501,7 +501,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     if as_json:
         from plyshear import units
         from plyshear.report.capacity_data import capacity_dict
-        from plyshear.report.text import plane_gains
+        from plyshear.report.text import lug_lines, plane_gains
 
         variants = []
         for r in rows:
@@ -509,7 +509,8 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
             entry.pop("curve")
             variants.append(entry)
         data = {"format": 1, "units": units.system(joint.units).labels(), "keep": keep,
-                "planes": variants, "gains": plane_gains(rows, joint)}
+                "planes": variants, "gains": plane_gains(rows, joint),
+                "lugs": lug_lines(rows)}
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import planes_text

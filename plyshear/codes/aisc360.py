@@ -603,3 +603,155 @@ def M_p_circle(d: float, F_y: float) -> float:
     """
     _positive(d=d, F_y=F_y)
     return F_y * d**3 / 6.0
+
+
+# Pin-connected members (D5) and their gross section (D2) -------------------------
+
+#: D5.1(a): the allowance added to 2t in the effective width: 0.63 in (US form),
+#: 16 mm (S.I. form).
+B_E_ALLOWANCE = {"us": 0.63 * INCH, "si": 16.0}
+#: D5.2: the largest pin-hole clearance where the pin provides for relative
+#: movement under full load: 1/32 in (US form), 1 mm (S.I. form).
+PIN_HOLE_CLEARANCE = {"us": INCH / 32.0, "si": 1.0}
+
+
+def _form(form: str) -> str:
+    if form not in ("si", "us"):
+        raise ValueError(f"form must be 'si' or 'us', got {form!r}")
+    return form
+
+
+@clause(STANDARD, "D5.1(a)")
+def b_e_pin(t: float, side: float | None = None, form: str = "si") -> float:
+    r"""Effective edge distance of a pin-connected plate.
+
+    .. math:: b_e = 2t + 0.63\ \text{in}\ (2t + 16\ \text{mm}) \le b
+
+    Args:
+        t: Plate thickness, mm.
+        side: The distance from the edge of the hole to the edge of the plate
+            normal to the force, mm (>= 0); None = no cap (as the D5.2 rules take it).
+        form: ``"si"`` (16 mm) or ``"us"`` (0.63 in).
+
+    Returns:
+        b_e, mm.
+    """
+    _positive(t=t)
+    b_e = 2.0 * t + B_E_ALLOWANCE[_form(form)]
+    if side is None:
+        return b_e
+    _non_negative(side=side)
+    return min(b_e, side)
+
+
+@clause(STANDARD, "D5.1(a), Eq. D5-1")
+def P_n_pin_tension(t: float, b_e: float, F_u: float) -> float:
+    r"""Nominal tensile rupture strength of a pin-connected plate on its net effective area.
+
+    φt = 0.75, Ωt = 2.00.
+
+    .. math:: P_n = F_u\,(2\,t\,b_e)
+
+    Args:
+        t: Plate thickness, mm.
+        b_e: Effective edge distance, mm (:func:`b_e_pin`, >= 0).
+        F_u: Specified minimum tensile strength of the plate, MPa.
+
+    Returns:
+        Pn, N.
+    """
+    _positive(t=t, F_u=F_u)
+    _non_negative(b_e=b_e)
+    return F_u * 2.0 * t * b_e
+
+
+@clause(STANDARD, "D5.1(b), Eq. D5-2")
+def P_n_pin_shear(t: float, a: float, d: float, F_u: float) -> float:
+    r"""Nominal shear rupture strength of a pin-connected plate beyond the hole.
+
+    φsf = 0.75, Ωsf = 2.00.
+
+    .. math:: P_n = 0.6\,F_u\,A_{sf}, \qquad A_{sf} = 2\,t\,(a + d/2)
+
+    Args:
+        t: Plate thickness, mm.
+        a: Shortest distance from the edge of the pin hole to the edge of the
+            plate, parallel to the force, mm (>= 0).
+        d: Pin diameter, mm.
+        F_u: Specified minimum tensile strength of the plate, MPa.
+
+    Returns:
+        Pn, N.
+    """
+    _positive(t=t, d=d, F_u=F_u)
+    _non_negative(a=a)
+    return 0.6 * F_u * 2.0 * t * (a + d / 2.0)
+
+
+@clause(STANDARD, "D2(a), Eq. D2-1")
+def P_n_yield(A_g: float, F_y: float) -> float:
+    r"""Nominal tensile yielding strength on the gross section.
+
+    φt = 0.90, Ωt = 1.67.
+
+    .. math:: P_n = F_y\,A_g
+
+    Args:
+        A_g: Gross area, mm².
+        F_y: Specified minimum yield stress, MPa.
+
+    Returns:
+        Pn, N.
+    """
+    _positive(A_g=A_g, F_y=F_y)
+    return F_y * A_g
+
+
+@clause(STANDARD, "D5.2")
+def pin_plate_min_width(b_e: float, d: float) -> float:
+    r"""Least width of a pin-connected plate at the pin hole.
+
+    .. math:: w \ge 2\,b_e + d
+
+    Args:
+        b_e: Effective edge distance, mm (:func:`b_e_pin`).
+        d: Pin diameter, mm.
+
+    Returns:
+        The least width, mm.
+    """
+    _positive(b_e=b_e, d=d)
+    return 2.0 * b_e + d
+
+
+@clause(STANDARD, "D5.2")
+def pin_plate_min_extension(b_e: float) -> float:
+    r"""Least extension a beyond the bearing end of the pin hole, parallel to the force.
+
+    .. math:: a \ge 1.33\,b_e
+
+    Args:
+        b_e: Effective edge distance, mm (:func:`b_e_pin`).
+
+    Returns:
+        The least a, mm.
+    """
+    _positive(b_e=b_e)
+    return 1.33 * b_e
+
+
+@clause(STANDARD, "D5.2")
+def pin_hole_max(d: float, form: str = "si") -> float:
+    r"""Largest pin hole where the pin provides for relative movement under full load.
+
+    .. math:: d_h \le d + 1/32\ \text{in}\ (d + 1\ \text{mm})
+
+    Args:
+        d: Pin diameter, mm.
+        form: ``"si"`` (1 mm) or ``"us"`` (1/32 in).
+
+    Returns:
+        The largest hole diameter, mm.
+    """
+    _positive(d=d)
+    return d + PIN_HOLE_CLEARANCE[_form(form)]

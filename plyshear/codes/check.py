@@ -186,16 +186,25 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
             standard, or loads of the wrong level for the method (factored loads
             checked by ASD, service loads by LRFD or EN).
     """
+    from plyshear.codes import pin_plates
+
     standard = standard or joint.check.standard
     method = method or joint.check.method
-    require_load_level(joint, standard, method)
+    service_only = pin_plates.service_only(joint, standard, method)
+    if not service_only:
+        require_load_level(joint, standard, method)
     if standard != joint.check.standard and joint.check.slip_class is not None:
         # The classes share letters but not friction coefficients (AISC Class A is
         # mu 0.30, EN Class A is mu 0.5): never carry one across.
         raise ValueError(f"check.slip_class '{joint.check.slip_class}' is a class of "
                          f"{joint.check.standard}, not of {standard}; check with the "
                          "model's standard or change [check]")
-    if standard == "aisc360-22":
+    if service_only:  # a replaceable pin's service loads: the serviceability rules alone
+        from plyshear.codes.en1993_1_8 import STANDARD as EDITION
+
+        result = CheckResult(standard=standard, method="partial-factors", edition=EDITION,
+                             items=(), units=joint.units)
+    elif standard == "aisc360-22":
         from plyshear.codes import check_aisc
 
         result = check_aisc.check(joint, solution, method)
@@ -205,6 +214,7 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
         result = check_en.check(joint, solution)
     else:
         raise ValueError(f"unknown standard '{standard}'; known: {', '.join(STANDARDS)}")
+    result = pin_plates.extend(joint, solution, result, method)
     notes = list(result.notes)
     fitted = fitted_holes_note(joint)
     if fitted:

@@ -597,3 +597,177 @@ def M_Ed_clevis(F_Ed: float, a: float, b: float, c: float) -> float:
     _positive(a=a, b=b)
     _non_negative(c=c)
     return F_Ed * (b + 4.0 * c + 2.0 * a) / 8.0
+
+
+# Pin plates (3.13.1, Table 3.9) and replaceable pins (3.13.2) -------------------------
+
+
+@clause(STANDARD, "3.13.1, Table 3.9 (type A)")
+def a_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float,
+                    gamma_M0: float = 1.0) -> float:
+    r"""Least distance a from the hole edge to the plate's end, along the force (type A).
+
+    γM0 is a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: a \ge \frac{F_{Ed}\,\gamma_{M0}}{2\,t\,f_y} + \frac{2 d_0}{3}
+
+    Args:
+        F_Ed: Design force on the plate, N (>= 0).
+        t: Plate thickness, mm.
+        f_y: Yield strength of the plate, MPa.
+        d_0: Hole diameter, mm.
+        gamma_M0: Partial factor, dimensionless.
+
+    Returns:
+        The least a, mm.
+    """
+    _non_negative(F_Ed=F_Ed)
+    _positive(t=t, f_y=f_y, d_0=d_0, gamma_M0=gamma_M0)
+    return F_Ed * gamma_M0 / (2.0 * t * f_y) + 2.0 * d_0 / 3.0
+
+
+@clause(STANDARD, "3.13.1, Table 3.9 (type A)")
+def c_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float,
+                    gamma_M0: float = 1.0) -> float:
+    r"""Least distance c from the hole edge to the plate's side, across the force (type A).
+
+    γM0 is a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: c \ge \frac{F_{Ed}\,\gamma_{M0}}{2\,t\,f_y} + \frac{d_0}{3}
+
+    Args:
+        F_Ed: Design force on the plate, N (>= 0).
+        t: Plate thickness, mm.
+        f_y: Yield strength of the plate, MPa.
+        d_0: Hole diameter, mm.
+        gamma_M0: Partial factor, dimensionless.
+
+    Returns:
+        The least c, mm.
+    """
+    _non_negative(F_Ed=F_Ed)
+    _positive(t=t, f_y=f_y, d_0=d_0, gamma_M0=gamma_M0)
+    return F_Ed * gamma_M0 / (2.0 * t * f_y) + d_0 / 3.0
+
+
+@clause(STANDARD, "3.13.1, Table 3.9 (type B)")
+def t_min_pin_plate(F_Ed: float, f_y: float, gamma_M0: float = 1.0) -> float:
+    r"""Least thickness of a pin plate of the given (type B) shape.
+
+    γM0 is a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: t \ge 0.7 \sqrt{\frac{F_{Ed}\,\gamma_{M0}}{f_y}}
+
+    Args:
+        F_Ed: Design force on the plate, N (>= 0).
+        f_y: Yield strength of the plate, MPa.
+        gamma_M0: Partial factor, dimensionless.
+
+    Returns:
+        The least t, mm.
+    """
+    _non_negative(F_Ed=F_Ed)
+    _positive(f_y=f_y, gamma_M0=gamma_M0)
+    return 0.7 * math.sqrt(F_Ed * gamma_M0 / f_y)
+
+
+@clause(STANDARD, "3.13.1, Table 3.9 (type B)")
+def d_0_max_pin_plate(t: float) -> float:
+    r"""Largest hole in a pin plate of the given (type B) shape.
+
+    .. math:: d_0 \le 2.5\,t
+
+    Args:
+        t: Plate thickness, mm.
+
+    Returns:
+        The largest d_0, mm.
+    """
+    _positive(t=t)
+    return 2.5 * t
+
+
+@clause(STANDARD, "3.13.2, Table 3.10 (replaceable pin)")
+def F_b_Rd_ser_pin(t: float, d: float, f_y: float, gamma_M6_ser: float = 1.0) -> float:
+    r"""Bearing resistance of a plate and a replaceable pin at serviceability.
+
+    f_y is the lower of the yield strengths of the pin and the plate. γM6,ser is
+    a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: F_{b,Rd,ser} = \frac{0.6\, t\, d\, f_y}{\gamma_{M6,ser}}
+
+    Args:
+        t: Plate thickness, mm.
+        d: Pin diameter, mm.
+        f_y: The lower yield strength, MPa.
+        gamma_M6_ser: Partial factor, dimensionless.
+
+    Returns:
+        Fb,Rd,ser, N.
+    """
+    _positive(t=t, d=d, f_y=f_y, gamma_M6_ser=gamma_M6_ser)
+    return 0.6 * t * d * f_y / gamma_M6_ser
+
+
+@clause(STANDARD, "3.13.2, Table 3.10 (replaceable pin)")
+def M_Rd_ser_pin(d: float, f_yp: float, gamma_M6_ser: float = 1.0) -> float:
+    r"""Bending resistance of a replaceable pin at serviceability.
+
+    γM6,ser is a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: M_{Rd,ser} = \frac{0.8\, W_{el}\, f_{yp}}{\gamma_{M6,ser}}, \qquad
+        W_{el} = \frac{\pi d^3}{32}
+
+    Args:
+        d: Pin diameter, mm.
+        f_yp: Yield strength of the pin, MPa.
+        gamma_M6_ser: Partial factor, dimensionless.
+
+    Returns:
+        M_Rd,ser, N·mm.
+    """
+    _positive(d=d, f_yp=f_yp, gamma_M6_ser=gamma_M6_ser)
+    return 0.8 * (math.pi * d**3 / 32.0) * f_yp / gamma_M6_ser
+
+
+@clause(STANDARD, "3.13.2(3), Eq. 3.14")
+def sigma_h_Ed(E: float, F_b_Ed_ser: float, d_0: float, d: float, t: float) -> float:
+    r"""Contact bearing stress between a replaceable pin and its plate.
+
+    .. math:: \sigma_{h,Ed} = 0.591 \sqrt{\frac{E\,F_{b,Ed,ser}\,(d_0 - d)}{d^2\, t}}
+
+    Args:
+        E: Elastic modulus, MPa.
+        F_b_Ed_ser: Bearing force on the plate at serviceability, N (>= 0).
+        d_0: Hole diameter, mm (>= d).
+        d: Pin diameter, mm.
+        t: Plate thickness, mm.
+
+    Returns:
+        σh,Ed, MPa.
+    """
+    _positive(E=E, d=d, t=t, d_0=d_0)
+    _non_negative(F_b_Ed_ser=F_b_Ed_ser)
+    if d_0 < d:
+        raise ValueError(f"d_0 = {d_0} mm must be >= d = {d} mm")
+    return 0.591 * math.sqrt(E * F_b_Ed_ser * (d_0 - d) / (d**2 * t))
+
+
+@clause(STANDARD, "3.13.2(3), Eq. 3.15")
+def f_h_Rd(f_y: float, gamma_M6_ser: float = 1.0) -> float:
+    r"""Limit of the contact bearing stress of a replaceable pin.
+
+    f_y is the lower of the yield strengths of the pin and the plate. γM6,ser
+    is a keyword (recommended 1.0; National Annex may differ).
+
+    .. math:: f_{h,Rd} = \frac{2.5\, f_y}{\gamma_{M6,ser}}
+
+    Args:
+        f_y: The lower yield strength, MPa.
+        gamma_M6_ser: Partial factor, dimensionless.
+
+    Returns:
+        fh,Rd, MPa.
+    """
+    _positive(f_y=f_y, gamma_M6_ser=gamma_M6_ser)
+    return 2.5 * f_y / gamma_M6_ser

@@ -35,6 +35,8 @@ from plyshear.mechanics.incremental import (
     reference_pattern,
 )
 from plyshear.mechanics.strengths import (
+    LUG_NET_TENSION,
+    LUG_SHEAR_OUT,
     Strengths,
     hole_clearance,
     law_name,
@@ -54,9 +56,12 @@ __all__ = [
     "analyse",
     "clearances",
     "elastic_capacity",
+    "governing_lugs",
     "hole_clearance",
     "law_name",
     "load_pattern",
+    "lug_end",
+    "lug_rules",
     "pattern_total",
     "plane_strength",
     "separating_planes",
@@ -130,8 +135,9 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
     """The linear solution scaled to its first event.
 
     Events: a bolt section's rupture under shear and moment,
-    √((M/M_p)² + (V/V_u)²) = 1 ("plane shear rupture" at a plane), and a ply's
-    largest local bearing pressure reaching its bearing strength per unit length.
+    √((M/M_p)² + (V/V_u)²) = 1 ("plane shear rupture" at a plane), a ply's
+    largest local bearing pressure reaching its bearing strength per unit length,
+    and a pin plate's bearing force reaching its lug rupture strength.
 
     Args:
         joint: The joint.
@@ -147,6 +153,7 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
     s = strength or strengths(joint)
     scale = float(np.abs(load_pattern(joint)).sum())
     ply_of = build_mesh(joint).ply
+    lugs = lug_rules(joint, s)
     many = len(sol.bolts) > 1
     cands: list[tuple[float, str, str, float | None]] = []
     for b, bolt in enumerate(sol.bolts):
@@ -167,7 +174,12 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
                 cands.append((float(1.0 / inter[k]), "bolt bending and shear",
                               f"bolt {b + 1}" if many else "bolt", float(bolt.z[k])))
         pressure = np.hypot(bolt.q[..., 0], bolt.q[..., 1]).max(axis=1)
+        force = {pb.ply: pb.force for pb in bolt.plies}
         for j, ply in enumerate(joint.plies):
+            if ply.name in lugs and force.get(j, 0.0) > 0:  # a lug ruptures on its whole force
+                cands.append((float(s.ply_force[j] / force[j]), lugs[ply.name],
+                              f"{tag}ply {ply.name}", None))
+                continue
             local = float(pressure[ply_of == j].max(initial=0.0))
             if local > 0:
                 cands.append((float(s.bearing[j] / local), "ply bearing pressure",
@@ -176,6 +188,34 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
         raise CapacityError("no load: the capacity needs a loaded member")
     lam, event, where, z_ev = min(cands, key=lambda c: c[0])
     return Answer(float(lam * scale), event, where, z_ev)
+
+
+def lug_rules(joint: Joint, s: Strengths) -> dict[str, str]:
+    """The plies whose strength is their lug's rupture (pin plates), by name: the rule."""
+    return {p.name: r for p, r in zip(joint.plies, s.bearing_rule, strict=True)
+            if r in (LUG_NET_TENSION, LUG_SHEAR_OUT)}
+
+
+def lug_end(answer: Answer, result: CapacityResult, joint: Joint, s: Strengths) -> Answer:
+    """End the nonlinear answer where a pin plate reaches its lug rupture strength.
+
+    A lug that ruptures (net tension, shear-out) does not keep its load as a
+    plate in bearing would: the first such ply at full bearing ends the
+    analysis, and the answer names the lug's rule.
+    """
+    rules = lug_rules(joint, s)
+    for ev in result.events:
+        name = ev.where.split("ply ", 1)[-1]
+        if ev.event == "ply at full bearing" and name in rules and ev.load < answer.load:
+            return Answer(ev.load, rules[name], ev.where)
+    return answer
+
+
+def governing_lugs(joint: Joint, s: Strengths, lp: Collapse) -> tuple[tuple[str, str], ...]:
+    """The pin plates at their lug rupture strength in the collapse mechanism: (ply, rule)."""
+    rules = lug_rules(joint, s)
+    return tuple(dict.fromkeys((name, rules[name]) for _, name in lp.mechanism.bearing
+                               if name in rules))
 
 
 def summarize(joint_or_solution: Joint | Solution,
@@ -208,12 +248,15 @@ def summarize(joint_or_solution: Joint | Solution,
         raise CapacityError(str(exc)) from None
     elastic = elastic_capacity(original, sol, s)
     result = analyse(joint, strength=s)
-    nonlinear = Answer(result.load, result.event.event, result.event.where, result.event.z)
+    nonlinear = lug_end(Answer(result.load, result.event.event, result.event.where,
+                               result.event.z), result, joint, s)
     try:
         lp = collapse(joint, list(s.bearing), s.moment, s.shear, list(s.net_section))
     except ValueError as exc:
         raise CapacityError(f"collapse analysis: {exc}") from None
-    collapse_answer = Answer(lp.load, "rigid-plastic mechanism", "the mechanism")
+    lugs = governing_lugs(joint, s, lp)
+    collapse_answer = Answer(lp.load, "rigid-plastic mechanism", "the mechanism" + (
+        "; " + ", ".join(f"{rule} of ply {name}" for name, rule in lugs) if lugs else ""))
     bound = plastic_bound(joint, list(s.plane), list(s.ply_force), list(s.net_section))
     plastic = Answer(bound.load, "shear-only cut", ", ".join(bound.cut))
     return CapacitySummary(planes=separating_planes(joint) * len(joint.stations),

@@ -16,7 +16,15 @@ For a joint (N, mm, MPa):
   1987, :data:`plyshear.mechanics.laws.SHEAR_OVER_TENSION`);
 * each section's **plastic moment** f_yb·d³/6 (d: the shank, or the diameter
   of the stress area through threads);
-* the **net-section strengths** F_u·(w − d_h)·t of the plies of a bolt row.
+* the **net-section strengths** F_u·(w − d_h)·t of the plies of a bolt row;
+* for a pin (``[check] connector = "pin"``, one station), each pin plate's
+  **lug rupture strengths** where the ply gives its ``edge`` and ``width``:
+  net tension F_u·2·t·b_e with b_e = 2t + 16 mm (0.63 in) ≤ (w − d_h)/2
+  and shear-out 0.6·F_u·2·t·(a + d/2) with a = edge − d_h/2 (AISC 360-22
+  D5.1(a), Eq. D5-1 and D5.1(b), Eq. D5-2, nominal). The lower one caps the
+  ply's bearing strength (as a force per unit length over its thickness), so
+  a lug that ruptures first bounds the collapse load and the nonlinear
+  ultimate, and the ply's ``bearing_rule`` names it.
 """
 
 from __future__ import annotations
@@ -38,6 +46,15 @@ from plyshear.model.joint import Joint
 C_TEAROUT = 1.2
 #: Hole clearance taken when the standard's hole table has no row for the bolt, mm.
 FALLBACK_CLEARANCE = 2.0
+#: AISC 360-22 D5.1(a): b_e = 2t + 16 mm (S.I. form) or 2t + 0.63 in (US form).
+LUG_B_E_ALLOWANCE = {"si": 16.0, "us": 0.63 * 25.4}
+#: The pin hole's clearance when the model gives none, mm: AISC 360-22 D5.2's limit,
+#: 1/32 in (US form) or 1 mm (S.I. form); EN 1993-1-8: 1 mm (the issue's convention,
+#: common practice, no source).
+PIN_HOLE_CLEARANCE = {"us": 25.4 / 32.0, "si": 1.0}
+#: The rule names of a lug's rupture (also the check items' ``what``).
+LUG_NET_TENSION = "lug net tension"
+LUG_SHEAR_OUT = "lug shear-out"
 
 
 def law_name(joint: Joint) -> str:
@@ -54,6 +71,73 @@ def hole_clearance(joint: Joint) -> float:
         return catalog.hole_diameter(d, joint.bolt.hole, joint.check.standard) - d
     except catalog.CatalogError:
         return FALLBACK_CLEARANCE
+
+
+def unit_form(joint: Joint) -> str:
+    """The unit form of the AISC equations the model's units call for: "us" or "si"."""
+    return "us" if joint.units == "kip-in" else "si"
+
+
+def pin_hole(joint: Joint, standard: str | None = None) -> float:
+    """Diameter of a pin's hole, mm: d + the model's clearance, else d + 1/32 in or 1 mm.
+
+    Args:
+        joint: The joint.
+        standard: The standard whose convention applies (the model's by default).
+    """
+    d = joint.bolt.diameter
+    if joint.analysis.hole_clearance is not None:
+        return d + joint.analysis.hole_clearance
+    std = standard or joint.check.standard
+    return d + PIN_HOLE_CLEARANCE[unit_form(joint) if std == "aisc360-22" else "si"]
+
+
+@dataclass(frozen=True)
+class LugStrength:
+    """Nominal rupture strengths of one pin plate (AISC 360-22 D5.1), N.
+
+    Attributes:
+        net_tension: F_u·2·t·b_e (D5.1(a), Eq. D5-1).
+        shear_out: 0.6·F_u·2·t·(a + d/2) (D5.1(b), Eq. D5-2).
+        b_e: The effective edge distance, mm.
+        a: The distance from the hole's edge to the end edge, mm.
+    """
+
+    net_tension: float
+    shear_out: float
+    b_e: float
+    a: float
+
+    @property
+    def governing(self) -> tuple[float, str]:
+        """The lower strength, N, and its rule name."""
+        if self.net_tension <= self.shear_out:
+            return self.net_tension, LUG_NET_TENSION
+        return self.shear_out, LUG_SHEAR_OUT
+
+
+def lug_strengths(joint: Joint) -> tuple[LugStrength | None, ...]:
+    """Every ply's lug rupture strengths (None where they do not apply).
+
+    They apply to the plies of a pin (``[check] connector = "pin"``, a single
+    station) that give both ``edge`` and ``width``; the hole is centred
+    (:func:`pin_hole`). The same equations as :mod:`plyshear.codes.aisc360`'s
+    ``P_n_pin_tension`` and ``P_n_pin_shear`` (mechanics does not call codes).
+    """
+    if joint.check.connector != "pin" or len(joint.stations) > 1:
+        return tuple(None for _ in joint.plies)
+    d, dh = joint.bolt.diameter, pin_hole(joint)
+    out: list[LugStrength | None] = []
+    for p in joint.plies:
+        if p.is_filler or p.edge is None or p.width is None:
+            out.append(None)
+            continue
+        t = p.thickness
+        b_e = max(min(2.0 * t + LUG_B_E_ALLOWANCE[unit_form(joint)], (p.width - dh) / 2.0), 0.0)
+        a = max(p.edge - dh / 2.0, 0.0)
+        out.append(LugStrength(net_tension=p.fu * 2.0 * t * b_e,
+                               shear_out=0.6 * p.fu * 2.0 * t * (a + d / 2.0), b_e=b_e, a=a))
+    return tuple(out)
 
 
 @dataclass(frozen=True)
@@ -149,6 +233,17 @@ def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
     return np.array(q), tuple(rule)
 
 
+def lug_capped(joint: Joint, q: np.ndarray, rule: tuple[str, ...]
+               ) -> tuple[np.ndarray, tuple[str, ...]]:
+    """The bearing strengths lowered to each pin plate's lug rupture strength, if lower."""
+    q, out = q.copy(), list(rule)
+    for j, lug in enumerate(lug_strengths(joint)):
+        if lug is not None and lug.governing[0] / joint.plies[j].thickness < q[j]:
+            q[j] = lug.governing[0] / joint.plies[j].thickness
+            out[j] = lug.governing[1]
+    return q, tuple(out)
+
+
 def strengths(joint: Joint, bearing: Sequence[tuple[float, str]] | None = None) -> Strengths:
     """Return the nominal strengths of ``joint``.
 
@@ -168,6 +263,7 @@ def strengths(joint: Joint, bearing: Sequence[tuple[float, str]] | None = None) 
         q, rule = ply_bearing(joint)
     else:
         q, rule = np.array([v for v, _ in bearing], dtype=float), tuple(r for _, r in bearing)
+    q, rule = lug_capped(joint, q, rule)
     name = law_name(joint)
     curves, rules = [], list(rule)
     for j, (p, k) in enumerate(zip(joint.plies, ply_moduli(joint), strict=True)):

@@ -220,6 +220,8 @@ class CheckSettings:
         pin_interaction: EN 1993-1-8 Table 3.10 pin bending with shear:
             "max-max" (the largest moment with the largest shear, conservative)
             or "same-section" (moment and shear of one section).
+        replaceable: The pin is to be replaced (EN 1993-1-8 3.13.2: the
+            serviceability rules of Table 3.10 and the contact stress apply).
     """
 
     standard: str = "aisc360-22"
@@ -233,6 +235,7 @@ class CheckSettings:
     loads: str | None = None
     allow_unloaded: bool = False
     pin_interaction: str = "max-max"
+    replaceable: bool = False
 
 
 @dataclass(frozen=True)

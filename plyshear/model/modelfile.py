@@ -70,7 +70,7 @@ ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clear
                  "deformation_limits")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
               "slip_critical", "slip_class", "joint_length", "loads", "allow_unloaded",
-              "pin_interaction")
+              "pin_interaction", "replaceable")
 #: What the file's loads are: design (factored) or service level.
 LOAD_LEVELS = ("factored", "service")
 #: EN 1993-1-8 Table 3.10 pin bending with shear: the maxima wherever they occur, or
@@ -612,7 +612,8 @@ def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
     fillers = r.choice(c.get("fillers", "undeveloped"), "check.fillers",
                        ("undeveloped", "developed"))
     flags = {}
-    for key, default in (("deformation_considered", True), ("slip_critical", False)):
+    for key, default in (("deformation_considered", True), ("slip_critical", False),
+                         ("replaceable", False)):
         value = c.get(key, default)
         if not isinstance(value, bool):
             raise r.fail(f"check.{key}", f"must be true or false (got {_kind(value)})")

@@ -114,7 +114,23 @@ def warnings(joint: Joint) -> list[str]:
     out += _threads_in_thin_plies(joint, u)
     out += _shims(joint, u)
     out += _edges(joint, u)
+    out += _pin_plates(joint)
     out += _contrasts(joint)
+    return out
+
+
+def _pin_plates(joint: Joint) -> list[str]:
+    """A pin's plies without ``edge`` or ``width``: their pin-plate rules cannot be checked."""
+    if joint.check.connector != "pin":
+        return []
+    rules = ("AISC 360-22 D5 net tension, shear-out and D5.2 dimensions"
+             if joint.check.standard == "aisc360-22" else "EN 1993-1-8 Table 3.9 geometry")
+    out = []
+    for i, ply in enumerate(joint.plies):
+        missing = [k for k in ("edge", "width") if getattr(ply, k) is None]
+        if missing and not ply.is_filler:
+            out.append(f"{_ply_key(i, ply)}.{missing[0]}: a pin plate without "
+                       f"{' and '.join(missing)}: its plate checks ({rules}) cannot be made")
     return out
 
 

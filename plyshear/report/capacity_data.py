@@ -13,7 +13,7 @@ from typing import Any
 from plyshear import units as _units
 from plyshear.codes.check import CheckResult, load_level
 from plyshear.codes.resistance import design_factor
-from plyshear.mechanics.capacity import Answer, CapacitySummary
+from plyshear.mechanics.capacity import Answer, CapacitySummary, governing_lugs, lug_rules
 from plyshear.model.joint import Joint
 from plyshear.report.text import fmt
 
@@ -63,7 +63,9 @@ def mechanism_parts(summary: CapacitySummary, joint: Joint) -> list[str]:
         return f"bolt {b + 1} " if many else ""
 
     parts = [f"{bolt(h.bolt)}hinge at z = {h.z / ln:.4g} {ll}" for h in m.hinges]
-    parts += [f"{bolt(b)}ply {name} at full bearing" for b, name in m.bearing]
+    lugs = lug_rules(joint, summary.strengths)
+    parts += [f"{bolt(b)}ply {name} at full bearing"
+              + (f" ({lugs[name]})" if name in lugs else "") for b, name in m.bearing]
     parts += [f"{bolt(b)}plane {i} ruptured" for b, i in m.planes]
     parts += [f"ply {name} net section between bolts {i + 1} and {i + 2}"
               for name, i in m.net_sections]
@@ -159,6 +161,8 @@ def capacity_dict(summary: CapacitySummary, joint: Joint,
             "mechanism": {
                 "hinges": [h.z / ln for h in lp.mechanism.hinges],
                 "bearing": [name for _, name in lp.mechanism.bearing],
+                "lugs": [{"ply": name, "rule": rule}
+                         for name, rule in governing_lugs(joint, s, lp)],
                 "planes": [i for _, i in lp.mechanism.planes],
                 "net_sections": [f"{name} between bolts {i + 1} and {i + 2}"
                                  for name, i in lp.mechanism.net_sections],

@@ -25,8 +25,9 @@ from matplotlib.ticker import MaxNLocator  # noqa: E402
 from plyshear import units as _units  # noqa: E402
 from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
 from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
+from plyshear.mechanics.strengths import pin_hole  # noqa: E402
 from plyshear.mechanics.studies import PlanesRow, ScatterResult  # noqa: E402
-from plyshear.model.joint import Joint  # noqa: E402
+from plyshear.model.joint import Joint, Ply  # noqa: E402
 from plyshear.report.text import fmt  # noqa: E402
 
 INK = "#1b1b1b"
@@ -61,6 +62,15 @@ def member_styles(joint: Joint) -> dict[str | None, tuple[str, str]]:
     return styles
 
 
+def _pin_plate_dimensions(joint: Joint, ply: Ply, ln: float) -> str:
+    """A pin plate's a (beyond the hole, along the force) and c (beside it), as a label tail."""
+    if joint.check.connector != "pin" or ply.edge is None or ply.width is None:
+        return ""
+    dh = pin_hole(joint)
+    return (f"  a {fmt((ply.edge - dh / 2.0) / ln, 3)}, "
+            f"c {fmt((ply.width - dh) / 2.0 / ln, 3)}")
+
+
 def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) -> Axes:
     """Draw the stack elevation: plies as bars across the bolt, z downwards.
 
@@ -84,6 +94,7 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
         ax.add_patch(Rectangle((-width / 2, starts[j]), width, ply.thickness / ln,
                                facecolor=fill, edgecolor=INK, hatch=hatch, linewidth=0.8))
         label = ply.name if ply.member is None else f"{ply.name} ({ply.member})"
+        label += _pin_plate_dimensions(joint, ply, ln) if dimensions else ""
         ax.text(width / 2 + 0.3 * d, starts[j] + ply.thickness / ln / 2, label,
                 va="center", fontsize=7, color=INK)
     grip = joint.grip / ln

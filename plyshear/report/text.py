@@ -301,9 +301,24 @@ def planes_text(rows: list[PlanesRow], joint: Joint, keep: str) -> str:
                       "end of the nonlinear analysis"], table_rows, "rrrrrrrrl"))
     out.append("")
     out += plane_gains(rows, joint)
+    out += lug_lines(rows)
     out.append("")
     out.append(CAUTION)
     return "\n".join(out)
+
+
+def lug_lines(rows: list[PlanesRow]) -> list[str]:
+    """Say where a pin plate's rupture (not the pin) caps the collapse load."""
+    from plyshear.mechanics.capacity import governing_lugs
+
+    out = []
+    for r in rows:
+        lugs = governing_lugs(r.joint, r.summary.strengths, r.summary.mechanism)
+        if lugs and not r.summary.mechanism.mechanism.planes:
+            what = ", ".join(f"{rule} of ply {name}" for name, rule in lugs)
+            out.append(f"{r.planes} planes: the lug governs, not the pin ({what}): added planes "
+                       "cannot raise the collapse load above the plates' strength")
+    return out
 
 
 def plane_gains(rows: list[PlanesRow], joint: Joint) -> list[str]:
