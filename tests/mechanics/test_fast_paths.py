@@ -12,10 +12,11 @@ from __future__ import annotations
 import dataclasses
 
 import networkx as nx
+import numpy as np
 import pytest
 
 import plyshear
-from plyshear.mechanics import loadpath
+from plyshear.mechanics import incremental, loadpath
 from plyshear.mechanics.strengths import strengths
 from tests.conftest import MODELS
 
@@ -69,3 +70,56 @@ def test_one_parametric_max_flow_equals_the_bisection(name, joint) -> None:
     ref = _bisected_bound(*loadpath.flow_network(*args))  # independent search of the scale
     assert fast.load == pytest.approx(ref, rel=REL_MAXFLOW)
     assert fast.cut  # the governing cut is named
+
+
+# Both searches stop when the bracket of the generalised displacement is narrower
+# than BISECT_TOL = 1e-7 of it, each at the bracket's upper end; the load moves
+# with the displacement at most proportionally, plus Newton's 1e-9 residual.
+REL_END_SEARCH = 2e-7
+# Cholesky and LU of the same well-conditioned tangent: round-off only.
+REL_FACTOR = 1e-10
+
+
+def _analyses(path, monkeypatch):
+    joint = plyshear.load_model(path)
+    fast = incremental.analyse(joint)
+    monkeypatch.setattr(incremental, "locate_end", incremental.bisect_end)
+    slow = incremental.analyse(joint)
+    return fast, slow
+
+
+@pytest.mark.parametrize("path", [p for p in EXAMPLES if "six" not in p.stem],
+                         ids=lambda p: p.stem)
+def test_secant_search_of_the_end_equals_the_bisection(path, monkeypatch) -> None:
+    fast, slow = _analyses(path, monkeypatch)
+    assert fast.load == pytest.approx(slow.load, rel=REL_END_SEARCH)
+    assert (fast.event.event, fast.event.where) == (slow.event.event, slow.event.where)
+    assert [(e.event, e.where) for e in fast.events] == [(e.event, e.where) for e in slow.events]
+    assert len(fast.history) == len(slow.history)  # the same steps up to the end
+
+
+def _tangent(joint: plyshear.Joint, slip: float):
+    """The tangent (ab, B, C) of the joint's analysis model at a generalised displacement."""
+    model = incremental._Model(incremental.reference_pattern(joint))
+    x, y, lam, _ = incremental._newton(model, np.zeros(model.lay.na), np.zeros(model.lay.nm),
+                                       0.0, slip)
+    return model.evaluate(x, y)["K"]
+
+
+@pytest.mark.parametrize("slip", [1e-4, 0.3])  # elastic; bearing and bolt yielded
+def test_cholesky_tangent_equals_the_banded_lu(slip) -> None:
+    joint = plyshear.load_model(MODELS / "fork-four-planes.toml")
+    ab, B, _ = _tangent(joint, slip)
+    rhs = np.column_stack([np.random.default_rng(1).standard_normal(ab.shape[1]), B])
+    fast = incremental.tangent_solve(ab, rhs)
+    slow = incremental.tangent_solve_lu(ab, rhs)
+    assert np.abs(fast - slow).max() <= REL_FACTOR * np.abs(slow).max()
+
+
+def test_indefinite_tangent_falls_back_to_lu() -> None:
+    # [[1, 2, 0], [2, 1, 1], [0, 1, 3]]: eigenvalues of both signs, so no Cholesky
+    dense = np.array([[1.0, 2.0, 0.0], [2.0, 1.0, 1.0], [0.0, 1.0, 3.0]])
+    ab = np.array([[0.0, 2.0, 1.0], [1.0, 1.0, 3.0]])  # upper banded storage, bandwidth 1
+    rhs = np.array([[1.0], [-2.0], [0.5]])
+    x = incremental.tangent_solve(ab, rhs)
+    assert np.allclose(dense @ x, rhs, rtol=0.0, atol=1e-14)  # numpy's own product
