@@ -44,11 +44,10 @@ from typing import Any
 import numpy as np
 from scipy.linalg import lapack, solve_banded
 
-from plyshear.mechanics import beam
+from plyshear.mechanics import beam, laws
 from plyshear.mechanics.assembly import (
     Layout,
     element_displacements,
-    endpoint_value,
     layout,
     scatter,
 )
@@ -207,6 +206,31 @@ def reference_pattern(joint: Joint) -> Joint:
     return dataclasses.replace(joint, members=members)
 
 
+def _curve_kind(cv: laws.BearingCurve) -> tuple[object, ...]:
+    """The structure of a curve: its type, and its inner curve's kind."""
+    inner = tuple(_curve_kind(getattr(cv, f.name)) for f in dataclasses.fields(cv)
+                  if isinstance(getattr(cv, f.name), laws.BearingCurve))
+    return (type(cv), *inner)
+
+
+def stacked_curve(curves: list[laws.BearingCurve], index: np.ndarray) -> laws.BearingCurve:
+    """One curve of the kind of ``curves`` whose numeric parameters are arrays.
+
+    Point k gets the parameters of ``curves[index[k]]``, so that one evaluation
+    of the curve on the points' deformations is the evaluation of each point's
+    own curve. The curves must be of one kind (:func:`_curve_kind`).
+    """
+    first = curves[0]
+    values: dict[str, Any] = {}
+    for f in dataclasses.fields(first):
+        v = getattr(first, f.name)
+        if isinstance(v, laws.BearingCurve):
+            values[f.name] = stacked_curve([getattr(c, f.name) for c in curves], index)
+        elif isinstance(v, (int, float)) and not isinstance(v, bool):
+            values[f.name] = np.array([getattr(c, f.name) for c in curves], dtype=float)[index]
+    return dataclasses.replace(first, **values)
+
+
 def _element_strains(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The exact Timoshenko element's curvature and shear-strain operators.
 
@@ -274,18 +298,20 @@ class _Model:
         mid = 0.5 * (self.lay.mesh.z[:-1] + self.lay.mesh.z[1:])
         self.d_el = np.tile(self.strength.diameter(joint.bolt.threaded_along(mid)), self.ns)
         self.kappa_y = 2.0 * self.steel.ey / self.d_el  # first-yield curvature per element
+        self.curve_groups = self._groups()
+        self._residual_maps()
 
-    def contact(self, s: np.ndarray, j: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-        """Force per length, tangent and contact deformation at Gauss points of ply j."""
+    def contact(self, s: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """Force per length, tangent and contact deformation at every Gauss point (flat).
+
+        The plies whose curves are of one kind are evaluated together, their
+        parameters spread over the points (:func:`stacked_curve`): elementwise
+        the same arithmetic as one curve at a time. Points in gaps stay zero.
+        """
         p = np.zeros_like(s)
         dp = np.zeros_like(s)
         delta = np.zeros_like(s)
-        for jj in np.unique(j):
-            if jj < 0:
-                continue
-            sel = j == jj
-            cv = self.curves[jj]
-            g_up, g_dn = self.gap_plus[jj], self.gap_minus[jj]
+        for sel, cv, g_up, g_dn in self.curve_groups:
             ss = s[sel]
             up = ss > g_up
             dn = ss < -g_dn
@@ -295,6 +321,46 @@ class _Model:
             dp[sel] = np.where(up | dn, cv.dq(dl), 0.0) + reg
             delta[sel] = np.abs(dl)
         return p, dp, delta
+
+    def _groups(self) -> list[tuple[np.ndarray, laws.BearingCurve, np.ndarray, np.ndarray]]:
+        """Gauss points by kind of curve: (points, stacked curve, gaps up and down)."""
+        point_ply = np.broadcast_to(self.ply[:, None], self.n.shape[:2]).ravel()
+        kinds: dict[tuple[object, ...], list[int]] = {}
+        for j, cv in enumerate(self.curves):
+            kinds.setdefault(_curve_kind(cv), []).append(j)
+        out = []
+        for plies in kinds.values():
+            sel = np.flatnonzero(np.isin(point_ply, plies))
+            if sel.size == 0:
+                continue
+            local = np.searchsorted(plies, point_ply[sel])  # position within the group
+            cv = stacked_curve([self.curves[j] for j in plies], local)
+            out.append((sel, cv, self.gap_plus[point_ply[sel]], self.gap_minus[point_ply[sel]]))
+        return out
+
+    def _residual_maps(self) -> None:
+        """Where element, ply and spring forces go in the residual (A, then members)."""
+        lay = self.lay
+        na, nm = lay.na, lay.nm
+        sink = na + nm  # held displacements: summed there and dropped
+        ok = lay.edofs >= 0
+        self.fe_ok = ok
+        own, mem = lay.tgt_kind == "a", lay.tgt_kind == "m"
+        fu_dest = np.full(lay.tgt_idx.shape, sink)
+        fu_dest[own] = lay.tgt_idx[own]
+        fu_dest[mem] = na + lay.tgt_idx[mem]
+        self.fu_dest = fu_dest
+
+        def index(end: tuple[str, int]) -> int:
+            kind, i = end
+            return i if kind == "a" else na + i if kind == "m" else sink
+
+        ia = np.array([index(sp.a) for sp in lay.springs], dtype=int)
+        ib = np.array([index(sp.b) for sp in lay.springs], dtype=int)
+        self.sp_a, self.sp_b = ia, ib
+        self.sp_k = np.array([sp.k for sp in lay.springs], dtype=float)
+        self.r_dest = np.concatenate([lay.edofs[ok], fu_dest, ia, ib])
+        self.r_size = sink + 1
 
     def bending(self, de: np.ndarray, tangent: bool) -> dict[str, np.ndarray]:
         """The bolt elements' internal forces (and tangent) from their nodal displacements."""
@@ -315,27 +381,16 @@ class _Model:
         de, u_el, _ = element_displacements(lay, x[:, None], y[:, None])
         de, u_el = de[:, :, 0], u_el[:, 0]
         s = np.einsum("egi,ei->eg", self.n, de) - u_el[:, None]
-        jg = np.broadcast_to(self.ply[:, None], s.shape)
-        p, dp, delta = self.contact(s.ravel(), jg.ravel())
+        p, dp, delta = self.contact(s.ravel())
         p, dp, delta = p.reshape(s.shape), dp.reshape(s.shape), delta.reshape(s.shape)
         bend = self.bending(de, tangent)
         fe = bend["fb"] + np.einsum("eg,eg,egi->ei", self.wl, p, self.n)
         fu = -np.einsum("eg,eg->e", self.wl, p)
-        ra = np.zeros(lay.na)
-        rm = np.zeros(lay.nm)
-        ok = lay.edofs >= 0
-        np.add.at(ra, lay.edofs[ok], fe[ok])
-        own = lay.tgt_kind == "a"
-        np.add.at(ra, lay.tgt_idx[own], fu[own])
-        mem = lay.tgt_kind == "m"
-        np.add.at(rm, lay.tgt_idx[mem], fu[mem])
-        for sp in lay.springs:
-            force = sp.k * (endpoint_value(sp.a, x, y) - endpoint_value(sp.b, x, y))
-            for (kind, i), f in ((sp.a, force), (sp.b, -force)):
-                if kind == "a":
-                    ra[i] += f
-                elif kind == "m":
-                    rm[i] += f
+        v = np.concatenate([x, y, [0.0]])
+        force = self.sp_k * (v[self.sp_a] - v[self.sp_b])
+        r = np.bincount(self.r_dest, weights=np.concatenate([fe[self.fe_ok], fu, force, -force]),
+                        minlength=self.r_size)
+        ra, rm = r[:lay.na], r[lay.na:lay.na + lay.nm]
         out = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"], "de": de,
                "kappa": bend["kappa"]}
         if tangent:

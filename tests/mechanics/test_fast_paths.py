@@ -18,6 +18,7 @@ import pytest
 import plyshear
 from plyshear.mechanics import incremental, loadpath
 from plyshear.mechanics.strengths import strengths
+from plyshear.model.joint import BEARING_LAWS
 from tests.conftest import MODELS
 
 EXAMPLES = sorted(MODELS.glob("*.toml"))
@@ -123,3 +124,33 @@ def test_indefinite_tangent_falls_back_to_lu() -> None:
     rhs = np.array([[1.0], [-2.0], [0.5]])
     x = incremental.tangent_solve(ab, rhs)
     assert np.allclose(dense @ x, rhs, rtol=0.0, atol=1e-14)  # numpy's own product
+
+
+def _contact_one_ply_at_a_time(model, s: np.ndarray):
+    """The bearing at every Gauss point, each ply's own curve in turn (the slow reference)."""
+    j = np.broadcast_to(model.ply[:, None], model.n.shape[:2]).ravel()
+    p, dp, delta = np.zeros_like(s), np.zeros_like(s), np.zeros_like(s)
+    for jj in np.unique(j[j >= 0]):
+        sel = j == jj
+        cv, g_up, g_dn = model.curves[jj], model.gap_plus[jj], model.gap_minus[jj]
+        ss = s[sel]
+        up, dn = ss > g_up, ss < -g_dn
+        dl = np.where(up, ss - g_up, np.where(dn, ss + g_dn, 0.0))
+        reg = incremental.GAP_STIFFNESS * cv.k0
+        p[sel] = cv.q(dl) + reg * ss
+        dp[sel] = np.where(up | dn, cv.dq(dl), 0.0) + reg
+        delta[sel] = np.abs(dl)
+    return p, dp, delta
+
+
+@pytest.mark.parametrize("law", BEARING_LAWS)
+@pytest.mark.parametrize("path", EXAMPLES, ids=lambda p: p.stem)
+def test_stacked_curves_equal_one_ply_at_a_time(path, law) -> None:
+    joint = plyshear.load_model(path)
+    joint = dataclasses.replace(joint, analysis=dataclasses.replace(
+        joint.analysis, bearing=law, clearance="concentric"))
+    model = incremental._Model(incremental.reference_pattern(joint))
+    # deformations from inside the gap to far along both curves
+    s = np.random.default_rng(7).uniform(-8.0, 8.0, model.n.shape[0] * model.n.shape[1])
+    for fast, slow in zip(model.contact(s), _contact_one_ply_at_a_time(model, s), strict=True):
+        assert np.array_equal(fast, slow)  # the same arithmetic, point by point
