@@ -208,6 +208,12 @@ class Layout:
             self.numbering.scatter.append(scatter_indices(self))
         return self.numbering.scatter[0]
 
+    @functools.cached_property
+    def target_arrays(self) -> tuple[np.ndarray, np.ndarray]:
+        """``target`` as arrays of kinds and indices, shape (S, plies) each."""
+        return (np.array([[t[0] for t in row] for row in self.target]),
+                np.array([[t[1] for t in row] for row in self.target]))
+
     def station_slice(self, s: int) -> slice:
         """The element rows of station s."""
         return slice(s * self.ne, (s + 1) * self.ne)
@@ -597,8 +603,7 @@ def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
     """
     ed = lay.edofs
     de = np.where((ed >= 0)[..., None], x[..., np.maximum(ed, 0), :], 0.0)
-    kind = np.array([[t[0] for t in row] for row in lay.target])
-    index = np.array([[t[1] for t in row] for row in lay.target])
+    kind, index = lay.target_arrays
     u_ply = np.zeros((*x.shape[:-2], *kind.shape, x.shape[-1]))
     on_a, on_m = kind == "a", kind == "m"
     u_ply[..., on_a, :] = x[..., index[on_a], :]

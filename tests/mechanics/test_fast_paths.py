@@ -16,7 +16,7 @@ import numpy as np
 import pytest
 
 import plyshear
-from plyshear.mechanics import incremental, loadpath
+from plyshear.mechanics import incremental, loadpath, section
 from plyshear.mechanics.strengths import strengths
 from plyshear.model.joint import BEARING_LAWS
 from tests.conftest import MODELS
@@ -154,3 +154,31 @@ def test_stacked_curves_equal_one_ply_at_a_time(path, law) -> None:
     s = np.random.default_rng(7).uniform(-8.0, 8.0, model.n.shape[0] * model.n.shape[1])
     for fast, slow in zip(model.contact(s), _contact_one_ply_at_a_time(model, s), strict=True):
         assert np.array_equal(fast, slow)  # the same arithmetic, point by point
+
+
+def _epp_everywhere(kappa, r, E, e0):
+    """The EPP circle's closed form on every section, elastic or not (the slow reference)."""
+    ak = np.abs(kappa)
+    inertia = np.pi * r**4 / 4.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        c = np.where(ak > 0.0, e0 / ak, np.inf)
+    elastic = c >= r
+    cc = np.where(elastic, r, c)
+    root = np.sqrt(np.maximum(r * r - cc * cc, 0.0))
+    J = cc / 8.0 * (2.0 * cc * cc - r * r) * root + r**4 / 8.0 * np.arcsin(np.minimum(cc / r, 1.0))
+    sy = E * e0
+    m_pl = 4.0 * sy * J / cc + 4.0 / 3.0 * sy * root**3
+    return (np.where(elastic, E * inertia * kappa, np.sign(kappa) * m_pl),
+            np.where(elastic, E * inertia, 4.0 * E * J))
+
+
+def test_plastic_sections_only_equal_the_closed_form_everywhere() -> None:
+    rng = np.random.default_rng(3)
+    r = np.broadcast_to(rng.uniform(8.0, 12.0, (50, 1)), (50, 3))
+    e0 = 640.0 / 210000.0  # 8.8 bolt: f_yb / E
+    # curvatures from zero through first yield (2 e0 / d) to deep in the plastic range
+    kappa = rng.choice([-1.0, 1.0], (50, 3)) * rng.uniform(0.0, 20.0, (50, 3)) * e0 / r
+    kappa[0, 0] = 0.0
+    for fast, slow in zip(section._epp_circle(kappa, r, 210000.0, e0),
+                          _epp_everywhere(kappa, r, 210000.0, e0), strict=True):
+        assert np.array_equal(fast, slow)  # the same arithmetic on each section
