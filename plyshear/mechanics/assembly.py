@@ -20,6 +20,7 @@ linear laws the x and y directions use the same matrix.
 
 from __future__ import annotations
 
+import contextlib
 import functools
 import math
 from collections import OrderedDict
@@ -341,14 +342,16 @@ def numbering(joint: Joint, mesh: Mesh) -> Numbering:
     key = shape_key(joint, mesh)
     found = _NUMBERINGS.get(key)
     if found is not None:
-        _NUMBERINGS.move_to_end(key)
+        with contextlib.suppress(KeyError):  # evicted meanwhile by another thread
+            _NUMBERINGS.move_to_end(key)
         return found
     num = _number(joint, mesh)
     for a in (num.bolt_dof, num.edofs, num.el_ply, num.tgt_kind, num.tgt_idx, num.member_dof):
         a.setflags(write=False)
     _NUMBERINGS[key] = num
     if len(_NUMBERINGS) > NUMBERINGS_KEPT:
-        _NUMBERINGS.popitem(last=False)
+        with contextlib.suppress(KeyError):
+            _NUMBERINGS.popitem(last=False)
     return num
 
 

@@ -16,7 +16,7 @@ import numpy as np
 import pytest
 
 import plyshear
-from plyshear.mechanics import incremental, loadpath, section
+from plyshear.mechanics import assembly, incremental, loadpath, section
 from plyshear.mechanics.strengths import strengths
 from plyshear.model.joint import BEARING_LAWS
 from tests.conftest import MODELS
@@ -182,3 +182,16 @@ def test_plastic_sections_only_equal_the_closed_form_everywhere() -> None:
     for fast, slow in zip(section._epp_circle(kappa, r, 210000.0, e0),
                           _epp_everywhere(kappa, r, 210000.0, e0), strict=True):
         assert np.array_equal(fast, slow)  # the same arithmetic on each section
+
+
+def test_a_cached_numbering_solves_like_a_fresh_one() -> None:
+    # the same shape with other numbers: the second solve reuses the first's numbering
+    joint = plyshear.load_model(MODELS / "fork-four-planes.toml")
+    other = dataclasses.replace(joint, plies=tuple(
+        dataclasses.replace(p, thickness=p.thickness * 1.3) for p in joint.plies))
+    plyshear.solve(joint)
+    cached = plyshear.solve(other)
+    assembly._NUMBERINGS.clear()
+    fresh = plyshear.solve(other)
+    assert np.array_equal(cached.plane_shears(), fresh.plane_shears())
+    assert np.array_equal(cached.bolts[0].M, fresh.bolts[0].M)
