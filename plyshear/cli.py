@@ -15,7 +15,14 @@ from collections.abc import Callable
 from pathlib import Path
 from typing import Any, NoReturn
 
-import click
+# plyshear's systems are small banded ones, factorised many times over: BLAS threads
+# cost more to wake than they save (ten times the factorisation of a capacity step,
+# far more on a loaded machine). One thread unless the user asks otherwise; set
+# before numpy is first imported (the package's imports are lazy).
+for _var in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_var, "1")
+
+import click  # noqa: E402
 
 EXIT_FAILS = 1
 EXIT_BAD_INPUT = 2

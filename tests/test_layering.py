@@ -36,3 +36,18 @@ def test_help_does_not_load_scipy_or_matplotlib() -> None:
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          check=True, timeout=120)
     assert out.stdout.strip().splitlines()[-1] == "loaded:"
+
+
+def test_solve_command_loads_only_what_a_solve_uses() -> None:
+    # networkx (the graph functions), scipy.optimize (the collapse LP), matplotlib
+    # (figures) and pint (strings with units) are imported where they are used
+    from tests.conftest import MODELS
+
+    code = ("import sys\nfrom plyshear.cli import main\n"
+            f"try:\n    main(['solve', {str(MODELS / 'fork-four-planes.toml')!r}])\n"
+            "except SystemExit:\n    pass\n"
+            "print('loaded:' + ','.join(m for m in ('networkx', 'scipy.optimize', "
+            "'matplotlib', 'pint') if m in sys.modules))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True, timeout=120)
+    assert out.stdout.strip().splitlines()[-1] == "loaded:"

@@ -20,9 +20,11 @@ linear laws the x and y directions use the same matrix.
 
 from __future__ import annotations
 
+import contextlib
 import functools
 import math
-from dataclasses import dataclass
+from collections import OrderedDict
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -191,6 +193,7 @@ class Layout:
     loads: np.ndarray
     kel: np.ndarray
     phi: np.ndarray
+    numbering: Numbering | None = field(default=None, repr=False, compare=False)
 
     @property
     def ne(self) -> int:
@@ -199,8 +202,18 @@ class Layout:
 
     @functools.cached_property
     def scatter_map(self) -> tuple[np.ndarray, np.ndarray, np.ndarray, tuple[int, int]]:
-        """:func:`scatter_indices` of this numbering, computed once (Newton reassembles often)."""
-        return scatter_indices(self)
+        """:func:`scatter_indices` of this numbering, computed once per shape."""
+        if self.numbering is None:
+            return scatter_indices(self)
+        if not self.numbering.scatter:
+            self.numbering.scatter.append(scatter_indices(self))
+        return self.numbering.scatter[0]
+
+    @functools.cached_property
+    def target_arrays(self) -> tuple[np.ndarray, np.ndarray]:
+        """``target`` as arrays of kinds and indices, shape (S, plies) each."""
+        return (np.array([[t[0] for t in row] for row in self.target]),
+                np.array([[t[1] for t in row] for row in self.target]))
 
     def station_slice(self, s: int) -> slice:
         """The element rows of station s."""
@@ -276,6 +289,72 @@ def spring_stiffness(joint: Joint, ply: int, segment: int) -> float:
     return p.E * p.thickness * p.width / (xs[segment + 1] - xs[segment])
 
 
+def shape_key(joint: Joint, mesh: Mesh) -> tuple[object, ...]:
+    """What fixes the numbering of a joint's unknowns (equal keys: one layout fits both).
+
+    Args:
+        joint: The joint.
+        mesh: Its bolt mesh.
+
+    Returns:
+        A hashable key.
+    """
+    plies = tuple((p.member, p.link_stiffness is None, p.gap > 0) for p in joint.plies)
+    members = tuple((m.name, m.support, m.enters) for m in joint.members)
+    return (plies, members, len(joint.stations), joint.bolt.ends, joint.analysis.beam,
+            mesh.ply.tobytes(), mesh.threaded.tobytes(), mesh.plane_nodes.tobytes())
+
+
+@dataclass(frozen=True)
+class Numbering:
+    """The part of a :class:`Layout` that depends on the joint's shape alone.
+
+    Sweeps, studies and the capacity analysis number many joints of one shape;
+    :func:`numbering` computes this once per shape (see :func:`shape_key`) and
+    the arrays are shared, read-only.
+    """
+
+    na: int
+    nm: int
+    bw: int
+    bolt_dof: np.ndarray
+    edofs: np.ndarray
+    target: tuple[tuple[Endpoint, ...], ...]
+    el_ply: np.ndarray
+    tgt_kind: np.ndarray
+    tgt_idx: np.ndarray
+    member_dof: np.ndarray
+    springs: tuple[tuple[Endpoint, Endpoint, int, int], ...]  # (a, b, ply, segment)
+    scatter: list = field(default_factory=list, compare=False, repr=False)  # its map, once
+
+
+#: Numberings of the shapes seen last, by :func:`shape_key`.
+_NUMBERINGS: OrderedDict[tuple[object, ...], Numbering] = OrderedDict()
+NUMBERINGS_KEPT = 64
+
+
+def numbering(joint: Joint, mesh: Mesh) -> Numbering:
+    """The numbering of ``joint``'s unknowns, from the cache when its shape was seen.
+
+    Raises:
+        plyshear.ModelError: If the system would be too large.
+    """
+    key = shape_key(joint, mesh)
+    found = _NUMBERINGS.get(key)
+    if found is not None:
+        with contextlib.suppress(KeyError):  # evicted meanwhile by another thread
+            _NUMBERINGS.move_to_end(key)
+        return found
+    num = _number(joint, mesh)
+    for a in (num.bolt_dof, num.edofs, num.el_ply, num.tgt_kind, num.tgt_idx, num.member_dof):
+        a.setflags(write=False)
+    _NUMBERINGS[key] = num
+    if len(_NUMBERINGS) > NUMBERINGS_KEPT:
+        with contextlib.suppress(KeyError):
+            _NUMBERINGS.popitem(last=False)
+    return num
+
+
 def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     """Number the unknowns of ``joint`` and compute the beam stiffness.
 
@@ -287,6 +366,25 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
         The :class:`Layout`.
     """
     mesh = mesh or build_mesh(joint)
+    num = numbering(joint, mesh)
+    ns = len(joint.stations)
+    springs = tuple(Spring(a, b, spring_stiffness(joint, ply, seg), ply, seg)
+                    for a, b, ply, seg in num.springs)
+    loads = np.zeros((num.nm, 2))
+    for i, m in enumerate(joint.members):
+        if num.member_dof[i] != FIXED:
+            loads[num.member_dof[i]] = m.load
+    EI, phi = section(joint, mesh)
+    kel = np.tile(beam.stiffness(EI, phi, mesh.lengths), (ns, 1, 1))
+    return Layout(mesh=mesh, stations=np.asarray(joint.stations, dtype=float), na=num.na,
+                  nm=num.nm, bw=num.bw, bolt_dof=num.bolt_dof, edofs=num.edofs,
+                  target=num.target, el_ply=num.el_ply, tgt_kind=num.tgt_kind,
+                  tgt_idx=num.tgt_idx, member_dof=num.member_dof, springs=springs, loads=loads,
+                  kel=kel, phi=np.tile(phi, ns), numbering=num)
+
+
+def _number(joint: Joint, mesh: Mesh) -> Numbering:
+    """Number the unknowns of ``joint`` (see :func:`numbering`)."""
     nn = mesh.z.size
     ne = nn - 1
     nplies = len(joint.plies)
@@ -336,16 +434,15 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
             i = midx[member]
             target[s][j] = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
 
-    springs: list[Spring] = []
+    springs: list[tuple[Endpoint, Endpoint, int, int]] = []
     for j, ply in enumerate(joint.plies):
         if ply.link_stiffness is not None and ply.member is not None:
             i = midx[ply.member]
             s = entry_station(joint, ply.member, ns)
             other: Endpoint = ("m", int(member_dof[i])) if member_dof[i] != FIXED else ("0", i)
-            springs.append(Spring(target[s][j], other, spring_stiffness(joint, j, -1), j))
+            springs.append((target[s][j], other, j, -1))
         for s in range(ns - 1):
-            springs.append(Spring(target[s][j], target[s + 1][j],
-                                  spring_stiffness(joint, j, s), j, s))
+            springs.append((target[s][j], target[s + 1][j], j, s))
 
     el_ply = np.tile(mesh.ply, ns)
     edofs = np.concatenate([np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1)
@@ -364,16 +461,9 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
         raise ModelError(joint.source or "<model>", "ply",
                          f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
                          "use fewer plies, bolts or elements_per_ply")
-    loads = np.zeros((nm, 2))
-    for i, m in enumerate(members):
-        if member_dof[i] != FIXED:
-            loads[member_dof[i]] = m.load
-    EI, phi = section(joint, mesh)
-    kel = np.tile(beam.stiffness(EI, phi, mesh.lengths), (ns, 1, 1))
-    return Layout(mesh=mesh, stations=xs, na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof,
-                  edofs=edofs, target=tuple(tuple(t) for t in target), el_ply=el_ply,
-                  tgt_kind=tgt_kind, tgt_idx=tgt_idx, member_dof=member_dof,
-                  springs=tuple(springs), loads=loads, kel=kel, phi=np.tile(phi, ns))
+    return Numbering(na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof, edofs=edofs,
+                     target=tuple(tuple(t) for t in target), el_ply=el_ply, tgt_kind=tgt_kind,
+                     tgt_idx=tgt_idx, member_dof=member_dof, springs=tuple(springs))
 
 
 def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
@@ -516,8 +606,7 @@ def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
     """
     ed = lay.edofs
     de = np.where((ed >= 0)[..., None], x[..., np.maximum(ed, 0), :], 0.0)
-    kind = np.array([[t[0] for t in row] for row in lay.target])
-    index = np.array([[t[1] for t in row] for row in lay.target])
+    kind, index = lay.target_arrays
     u_ply = np.zeros((*x.shape[:-2], *kind.shape, x.shape[-1]))
     on_a, on_m = kind == "a", kind == "m"
     u_ply[..., on_a, :] = x[..., index[on_a], :]
@@ -547,9 +636,9 @@ def _own_bandwidth(edofs: np.ndarray, kind: np.ndarray, idx: np.ndarray) -> int:
     return int(np.max(np.where(e >= 0, np.abs(t - e), 0)))
 
 
-def _spring_bandwidth(springs: list[Spring]) -> int:
+def _spring_bandwidth(springs: list[tuple[Endpoint, Endpoint, int, int]]) -> int:
     """Return the largest |i − j| between two ``A`` endpoints of a spring."""
-    spans = [abs(sp.a[1] - sp.b[1]) for sp in springs if sp.a[0] == "a" and sp.b[0] == "a"]
+    spans = [abs(a[1] - b[1]) for a, b, _, _ in springs if a[0] == "a" and b[0] == "a"]
     return max(spans, default=0)
 
 

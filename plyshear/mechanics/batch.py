@@ -39,6 +39,7 @@ from plyshear.mechanics.assembly import (
     ply_moduli,
     scatter_indices,
     section,
+    shape_key,
     spring_stiffness,
 )
 from plyshear.mechanics.loadpath import require_load_path
@@ -57,22 +58,6 @@ CHUNK = 1000
 BATCH_ENTRIES = 20_000_000
 
 Outcome = Solution | ModelError | SolveError
-
-
-def shape_key(joint: Joint, mesh: Mesh) -> tuple[object, ...]:
-    """What fixes the numbering of a joint's unknowns (equal keys: one layout fits both).
-
-    Args:
-        joint: The joint.
-        mesh: Its bolt mesh.
-
-    Returns:
-        A hashable key.
-    """
-    plies = tuple((p.member, p.link_stiffness is None, p.gap > 0) for p in joint.plies)
-    members = tuple((m.name, m.support, m.enters) for m in joint.members)
-    return (plies, members, len(joint.stations), joint.bolt.ends, joint.analysis.beam,
-            mesh.ply.tobytes(), mesh.threaded.tobytes(), mesh.plane_nodes.tobytes())
 
 
 def assembly_operator(lay: Layout) -> sp.csr_matrix:

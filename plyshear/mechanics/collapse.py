@@ -93,7 +93,6 @@ from dataclasses import dataclass
 
 import numpy as np
 import scipy.sparse as sp
-from scipy.optimize import linprog
 
 from plyshear.mechanics.incremental import CapacityError, load_pattern
 from plyshear.model.joint import Joint
@@ -544,6 +543,8 @@ def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callabl
     at a fraction of its size. ``seed`` (station, z, face) starts from the faces
     a coarser mesh needed, at the points nearest to them.
     """
+    from scipy.optimize import linprog  # 0.3 s to import: not on the path of a plain solve
+
     lp = _Program(joint, _mesh(joint, n), b, moment, shear, caps, pattern, sides)
     a_eq = lp.equalities()
     a_box, box_point = lp.box_rows()

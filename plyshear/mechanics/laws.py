@@ -114,7 +114,7 @@ class LinearCurve(BearingCurve):
         return self.k * delta
 
     def _dq(self, delta: np.ndarray) -> np.ndarray:
-        return np.full_like(delta, self.k)
+        return np.zeros_like(delta) + self.k  # k may be an array (stacked curves)
 
 
 @dataclass(frozen=True)

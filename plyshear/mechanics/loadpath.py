@@ -8,14 +8,18 @@ mechanism: the joint is refused before any solve.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
-import networkx as nx
 import numpy as np
 
 from plyshear.mechanics import bearing
 from plyshear.model.joint import Joint
 from plyshear.model.modelfile import ModelError
+
+if TYPE_CHECKING:  # networkx costs 0.2 s to import: only the graph functions load it
+    import networkx as nx
 
 BOLT = ("bolt", 0)
 
@@ -26,6 +30,8 @@ def load_path_graph(joint: Joint) -> nx.Graph:
     Nodes are tuples ``("bolt", 0)``, ``("ply", j)`` (0-based) and
     ``("member", name)``; ply nodes carry the ply name.
     """
+    import networkx as nx
+
     g = nx.Graph()
     g.add_node(BOLT)
     for m in joint.members:
@@ -57,6 +63,8 @@ def unreachable_members(joint: Joint) -> list[str]:
 
 def unreachable_members_by_graph(joint: Joint) -> list[str]:
     """:func:`unreachable_members` by the connected components of the networkx graph."""
+    import networkx as nx
+
     g = load_path_graph(joint)
     reached: set[tuple[str, object]] = set()
     for m in joint.members:
@@ -78,6 +86,76 @@ def require_load_path(joint: Joint) -> None:
     if lost:
         raise ModelError(joint.source or "<model>", f"member.{lost[0]}",
                          "is a mechanism: no path of plies and bolt reaches it from a support")
+
+
+def flow_network(joint: Joint, plane_capacity: list[float], ply_capacity: list[float],
+                 segment_capacity: list[float] | None = None
+                 ) -> tuple[Callable[[float], nx.DiGraph], float, float]:
+    """The flow network of :func:`plastic_bound` as a function of the load scale λ.
+
+    Returns:
+        ``(graph, supply, total)``: ``graph(λ)`` builds the network (source
+        ``"S"``, sink ``"T"``; every edge carries ``capacity`` and its λ
+        coefficient ``per_lam``), ``supply`` is the demand per unit λ and
+        ``total`` the pattern's magnitude Σ|P_m| per unit λ.
+    """
+    axis = joint.load_axis()
+    pattern = {m.name: float(np.dot(m.load, axis)) for m in joint.members if not m.support}
+    push = sum(v for v in pattern.values() if v > 0)
+    pull = -sum(v for v in pattern.values() if v < 0)
+    total = sum(abs(v) for v in pattern.values())  # the pattern's magnitude: Σ|P_m|
+    scale = max(push, pull, 1e-300)
+    big = 1e6 * (sum(c for c in plane_capacity if np.isfinite(c))
+                 + sum(c for c in ply_capacity if np.isfinite(c)) + scale)
+
+    ns = len(joint.stations)
+    seg_cap = segment_capacity or [float("inf")] * len(joint.plies)
+
+    def cap_or_big(c: float) -> float:
+        return c if np.isfinite(c) else big
+
+    def graph(lam: float) -> nx.DiGraph:
+        """The flow network at load scale ``lam``; λ-scaled edges also carry ``per_lam``."""
+        import networkx as nx
+
+        g = nx.DiGraph()
+        n = len(joint.plies)
+
+        def both(a: object, b: object, c: float) -> None:
+            g.add_edge(a, b, capacity=c, per_lam=0.0)
+            g.add_edge(b, a, capacity=c, per_lam=0.0)
+
+        def scaled(a: object, b: object, per_lam: float) -> None:
+            g.add_edge(a, b, capacity=lam * per_lam, per_lam=per_lam)
+
+        for st in range(ns):
+            for j in range(n):
+                both(("ply", st, j), ("seg", st, j), cap_or_big(ply_capacity[j]))
+                if st + 1 < ns:
+                    both(("ply", st, j), ("ply", st + 1, j), cap_or_big(seg_cap[j]))
+            for i in range(n - 1):
+                both(("seg", st, i), ("seg", st, i + 1), cap_or_big(plane_capacity[i]))
+        for j, ply in enumerate(joint.plies):
+            if ply.member is not None:
+                st = 0 if joint.member(ply.member).enters == "before" else ns - 1
+                both(("member", ply.member), ("ply", st, j), big)
+        net = sum(pattern.values())  # the supports take -net: a sink when net > 0
+        for m in joint.members:
+            node = ("member", m.name)
+            if m.support:
+                both(node, "R", big)
+            elif pattern[m.name] > 0:
+                scaled("S", node, pattern[m.name])
+            elif pattern[m.name] < 0:
+                scaled(node, "T", -pattern[m.name])
+        if net > 0:
+            scaled("R", "T", net)
+        elif net < 0:
+            scaled("S", "R", -net)
+        return g
+
+    supply = max(push, pull)  # every sink edge (members pulled, the supports) must fill
+    return graph, supply, total
 
 
 @dataclass(frozen=True)
@@ -122,77 +200,13 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     Returns:
         The :class:`PlasticBound`.
     """
-    axis = joint.load_axis()
-    pattern = {m.name: float(np.dot(m.load, axis)) for m in joint.members if not m.support}
-    push = sum(v for v in pattern.values() if v > 0)
-    pull = -sum(v for v in pattern.values() if v < 0)
-    total = sum(abs(v) for v in pattern.values())  # the pattern's magnitude: Σ|P_m|
-    scale = max(push, pull, 1e-300)
-    big = 1e6 * (sum(c for c in plane_capacity if np.isfinite(c))
-                 + sum(c for c in ply_capacity if np.isfinite(c)) + scale)
-
+    graph, supply, total = flow_network(joint, plane_capacity, ply_capacity,
+                                        segment_capacity)
     ns = len(joint.stations)
-    seg_cap = segment_capacity or [float("inf")] * len(joint.plies)
-
-    def cap_or_big(c: float) -> float:
-        return c if np.isfinite(c) else big
-
-    def graph(lam: float) -> nx.DiGraph:
-        g = nx.DiGraph()
-        n = len(joint.plies)
-
-        def both(a: object, b: object, c: float) -> None:
-            g.add_edge(a, b, capacity=c)
-            g.add_edge(b, a, capacity=c)
-
-        for st in range(ns):
-            for j in range(n):
-                both(("ply", st, j), ("seg", st, j), cap_or_big(ply_capacity[j]))
-                if st + 1 < ns:
-                    both(("ply", st, j), ("ply", st + 1, j), cap_or_big(seg_cap[j]))
-            for i in range(n - 1):
-                both(("seg", st, i), ("seg", st, i + 1), cap_or_big(plane_capacity[i]))
-        for j, ply in enumerate(joint.plies):
-            if ply.member is not None:
-                st = 0 if joint.member(ply.member).enters == "before" else ns - 1
-                both(("member", ply.member), ("ply", st, j), big)
-        net = sum(pattern.values())  # the supports take -net: a sink when net > 0
-        for m in joint.members:
-            node = ("member", m.name)
-            if m.support:
-                g.add_edge(node, "R", capacity=big)
-                g.add_edge("R", node, capacity=big)
-            elif pattern[m.name] > 0:
-                g.add_edge("S", node, capacity=lam * pattern[m.name])
-            elif pattern[m.name] < 0:
-                g.add_edge(node, "T", capacity=-lam * pattern[m.name])
-        if net > 0:
-            g.add_edge("R", "T", capacity=lam * net)
-        elif net < 0:
-            g.add_edge("S", "R", capacity=-lam * net)
-        return g
-
-    supply = max(push, pull)  # every sink edge (members pulled, the supports) must fill
-
-    def feasible(lam: float) -> bool:
-        flow = nx.maximum_flow_value(graph(lam), "S", "T")
-        return flow >= lam * supply * (1 - 1e-12)
-
-    lo, hi = 0.0, 1.0
-    while feasible(hi):
-        lo, hi = hi, hi * 2.0
-        if hi > 1e12:
-            return PlasticBound(load=float("inf"), cut=())
-    for _ in range(200):
-        mid = 0.5 * (lo + hi)
-        if feasible(mid):
-            lo = mid
-        else:
-            hi = mid
-        if hi - lo <= 1e-12 * hi:
-            break
-    g = graph(hi)
-    _, (reach, _) = nx.minimum_cut(g, "S", "T")
+    found = largest_scale(graph, supply)
+    if found is None:
+        return PlasticBound(load=float("inf"), cut=())
+    lam, reach = found
     cut = []
     for st in range(ns):
         tag = f"bolt {st + 1} " if ns > 1 else ""
@@ -204,5 +218,59 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
                 cut.append(f"{tag}ply {ply.name}")
             if st + 1 < ns and (("ply", st, j) in reach) != (("ply", st + 1, j) in reach):
                 cut.append(f"ply {ply.name} between bolts {st + 1} and {st + 2}")
-    # lo scales the pattern; the reported load is the pattern's magnitude at that scale
-    return PlasticBound(load=lo * total, cut=tuple(cut))
+    # lam scales the pattern; the reported load is the pattern's magnitude at that scale
+    return PlasticBound(load=lam * total, cut=tuple(cut))
+
+
+#: Above this scale of the load pattern the shear-only bound is reported as unbounded.
+LARGEST_SCALE = 2.0**39
+#: A network is feasible at a scale when its maximum flow falls short of the
+#: demand by no more than this fraction.
+FLOW_SHORTFALL = 1e-12
+
+
+def largest_scale(graph: Callable[[float], nx.DiGraph], supply: float
+                  ) -> tuple[float, set[object]] | None:
+    """The largest load scale λ whose network delivers the demand λ·supply, and its cut.
+
+    Each edge's capacity is ``a + λ·per_lam``; a cut X (source side) carries
+    ``a(X) + λ·b(X)``, so the network is feasible while every cut has
+    ``a(X) ≥ λ·(supply − b(X))``, and λ* = min over cuts of a(X)/(supply − b(X)).
+    Dinkelbach's iteration finds it exactly (W. Dinkelbach, "On nonlinear
+    fractional programming", Management Science 13 (1967) 492–498, from memory):
+    from a scale that is too large, the minimum cut there gives the ratio of that
+    cut, a smaller scale; repeat until the network is feasible. It ends in a few
+    maximum flows (two when one cut governs at every scale), where a bisection
+    of the scale takes fifty.
+
+    Args:
+        graph: The network at a given scale; its edges carry ``capacity`` and
+            ``per_lam`` (the λ coefficient; 0 for fixed edges), source ``"S"``,
+            sink ``"T"``.
+        supply: The demand per unit scale (the λ coefficient of every cut
+            separating the supply from the demand).
+
+    Returns:
+        ``(λ*, the source side of the governing minimum cut)``, or None when the
+        network is feasible at :data:`LARGEST_SCALE`.
+    """
+    import networkx as nx
+
+    lam = LARGEST_SCALE
+    cut: set[object] | None = None
+    for _ in range(100):
+        g = graph(lam)
+        value, (reach, _) = nx.minimum_cut(g, "S", "T")
+        if value >= lam * supply * (1.0 - FLOW_SHORTFALL):
+            return (lam, cut) if cut is not None else None
+        fixed = per_lam = 0.0
+        for u, v, data in g.edges(data=True):
+            if u in reach and v not in reach:
+                fixed += data["capacity"] - lam * data["per_lam"]
+                per_lam += data["per_lam"]
+        ratio = fixed / (supply - per_lam)
+        cut = set(reach)
+        if not ratio < lam * (1.0 - 1e-15):  # round-off: the cut's own ratio is the answer
+            return ratio, cut
+        lam = ratio
+    raise RuntimeError("the load scale did not settle in 100 maximum flows")

@@ -118,19 +118,28 @@ class BoltSteel:
 
 def _epp_circle(kappa: np.ndarray, r: np.ndarray, E: float, e0: float
                 ) -> tuple[np.ndarray, np.ndarray]:
-    """Moment and tangent of one EPP part on circles of radius ``r``."""
+    """Moment and tangent of one EPP part on circles of radius ``r``.
+
+    The elastic sections take E·I·κ; the closed form of the partly plastic
+    section is evaluated on the others only (most sections, most of the time,
+    are elastic).
+    """
     ak = np.abs(kappa)
     inertia = np.pi * r**4 / 4.0
     with np.errstate(divide="ignore", invalid="ignore"):
         c = np.where(ak > 0.0, e0 / ak, np.inf)
-    elastic = c >= r
-    cc = np.where(elastic, r, c)
-    root = np.sqrt(np.maximum(r * r - cc * cc, 0.0))
-    J = cc / 8.0 * (2.0 * cc * cc - r * r) * root + r**4 / 8.0 * np.arcsin(np.minimum(cc / r, 1.0))
-    sy = E * e0
-    m_pl = 4.0 * sy * J / cc + 4.0 / 3.0 * sy * root**3
-    M = np.where(elastic, E * inertia * kappa, np.sign(kappa) * m_pl)
-    dM = np.where(elastic, E * inertia, 4.0 * E * J)
+    plastic = ~(c >= r)
+    M = E * inertia * kappa
+    dM = np.broadcast_to(E * inertia, kappa.shape).copy()
+    if plastic.any():
+        cc, rr = c[plastic], r[plastic]
+        root = np.sqrt(np.maximum(rr * rr - cc * cc, 0.0))
+        J = (cc / 8.0 * (2.0 * cc * cc - rr * rr) * root
+             + rr**4 / 8.0 * np.arcsin(np.minimum(cc / rr, 1.0)))
+        sy = E * e0
+        m_pl = 4.0 * sy * J / cc + 4.0 / 3.0 * sy * root**3
+        M[plastic] = np.sign(kappa[plastic]) * m_pl
+        dM[plastic] = 4.0 * E * J
     return M, dM
 
 

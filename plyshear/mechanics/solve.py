@@ -144,20 +144,24 @@ def solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarra
         return band_solve(cb, rhs.reshape(n * na, k)).reshape(n, na, k)
 
     XB = a_solve(B) if nm else np.zeros((n, na, 0))
-    S = C - np.swapaxes(B, 1, 2) @ XB
+    BT = np.swapaxes(B, 1, 2)
+    S = C - BT @ XB
     if nm:
         try:
             np.linalg.cholesky(S)
         except np.linalg.LinAlgError as exc:
             raise SolveError(f"the member system is singular ({exc})") from None
+        # the condition estimate's solves need only a few digits: the small member
+        # system's inverse once, then products (the solution itself is solved below)
+        S_inv = np.linalg.inv(S)
 
     def apply(rhs: np.ndarray) -> np.ndarray:
         """Solve the whole systems for right-hand sides (n, na + nm)."""
-        xa = a_solve(rhs[:, :na, None])
+        xa = band_solve(cb, rhs[:, :na].reshape(n * na, 1)).reshape(n, na)
         if not nm:
-            return xa[:, :, 0]
-        ym = np.linalg.solve(S, rhs[:, na:, None] - np.swapaxes(B, 1, 2) @ xa)
-        return np.concatenate([xa - XB @ ym, ym], axis=1)[:, :, 0]
+            return xa
+        ym = np.einsum("bij,bj->bi", S_inv, rhs[:, na:] - np.einsum("bij,bj->bi", BT, xa))
+        return np.concatenate([xa - np.einsum("bij,bj->bi", XB, ym), ym], axis=1)
 
     kappa = scaled_condition(ab, B, C, apply)
     if not nm:

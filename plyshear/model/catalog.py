@@ -19,7 +19,7 @@ import csv
 import math
 from dataclasses import dataclass
 from fractions import Fraction
-from functools import cache
+from functools import cache, lru_cache
 from importlib import resources
 
 MM_PER_IN = 25.4
@@ -504,6 +504,7 @@ def nut_height(d: float) -> float | None:
 # --------------------------------------------------------------------------- holes
 
 
+@lru_cache(maxsize=256)  # every solve's sanity check asks; a scan of the table each time
 def _hole_row(d: float, hole: str, standard: str) -> tuple[_HoleRow, float]:
     """The matching hole-table row and the bolt diameter to apply it to, mm."""
     if hole not in HOLE_TYPES:
