@@ -264,6 +264,16 @@ def _summarize(joint: Any) -> Any:
         fail(f"{joint.source}: capacity: {exc}")
 
 
+def _require_load_level(joint: Any, model: str) -> None:
+    """Refuse design values set against loads of the other level (as the check does)."""
+    from plyshear.codes.check import require_load_level
+
+    try:
+        require_load_level(joint, joint.check.standard, joint.check.method)
+    except ValueError as exc:
+        fail(f"{model}: capacity: {exc}")
+
+
 def _check_quietly(joint: Any, sol: Any) -> Any:
     """The check of a solution for the capacity's verdict line, or None if it cannot run."""
     from plyshear.codes.check import check
@@ -309,6 +319,7 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     target = _plot_target(plot, force)
     joint = _load(model)
     _echo_sanity(joint)
+    _require_load_level(joint, model)
     if scatter is not None:
         _scatter(joint, scatter, seed, as_json, target, force, out_path, resume)
         return
