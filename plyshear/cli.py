@@ -261,7 +261,7 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
     from plyshear.codes.check import check
 
     try:
-        return check(joint, sol)
+        return check(sol)
     except ValueError:
         return None
 

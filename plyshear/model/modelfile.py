@@ -24,6 +24,8 @@ from plyshear.model.joint import (
     CLEARANCE_MODES,
     END_FIXITIES,
     HOLE_TYPES,
+    METHODS,
+    STANDARDS,
     THREAD_MODES,
     Analysis,
     Bolt,
@@ -48,8 +50,6 @@ MAX_MAGNITUDE = 1e12
 #: plate, and its cubes and inverses leave the range of double precision.
 MIN_LENGTH = 1e-6
 
-STANDARDS = ("aisc360-22", "en1993-1-8")
-METHODS = ("lrfd", "asd")
 #: Faying-surface classes: AISC 360-22 J3.8 (A, B); EN 1993-1-8 Table 3.7 (A to D).
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 

@@ -178,7 +178,7 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
         from plyshear.codes.check import check
 
         try:
-            res = check(joint, sol)
+            res = check(sol)
         except ValueError as exc:
             out["error"] = _error_text(exc, source)
         else:

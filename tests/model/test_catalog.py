@@ -15,6 +15,7 @@ from importlib import resources
 
 import pytest
 
+from plyshear import units
 from plyshear.model import catalog
 
 # Tabulated stress areas are rounded to 3 (ISO) or 4 (ASME) significant
@@ -44,7 +45,7 @@ def test_every_csv_row_names_its_source(name):
 
 
 def test_ksi_conversion_is_exact_definition():
-    assert catalog.KSI_TO_MPA == pytest.approx(KSI, rel=REL_EXACT)
+    assert units.MPA_PER_KSI == pytest.approx(KSI, rel=REL_EXACT)
 
 
 # --------------------------------------------------------------------------- fastener grades

@@ -133,7 +133,7 @@ def in_kip_in(data: dict[str, Any]) -> dict[str, Any]:
 
 
 def shears(sol: Any) -> np.ndarray:
-    return np.array([p.shear_xy for p in sol.planes])
+    return np.array([p.shear_xy for p in sol.first_bolt_planes])
 
 
 def load_scale(joint: Any) -> float:
