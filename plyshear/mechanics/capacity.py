@@ -192,9 +192,10 @@ def summarize(joint_or_solution: Joint | Solution) -> CapacitySummary:
     from plyshear.mechanics.loadpath import plastic_bound
     from plyshear.mechanics.solve import solve
 
-    given = joint_or_solution if isinstance(joint_or_solution, Joint) else None
-    original = given if given is not None else joint_or_solution.joint  # type: ignore[union-attr]
-    sol = solve(original) if given is not None else joint_or_solution
+    if isinstance(joint_or_solution, Joint):
+        original, sol = joint_or_solution, solve(joint_or_solution)
+    else:
+        original, sol = joint_or_solution.joint, joint_or_solution
     joint = reference_pattern(original)  # loads are magnitudes: the pattern's size drops out
     s = strengths(joint)
     elastic = elastic_capacity(original, sol, s)

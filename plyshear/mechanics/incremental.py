@@ -336,8 +336,8 @@ class _Model:
                     ra[i] += f
                 elif kind == "m":
                     rm[i] += f
-        out = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"], "de": de,
-               "kappa": bend["kappa"]}
+        out: dict[str, Any] = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"],
+                               "de": de, "kappa": bend["kappa"]}
         if tangent:
             kbb = np.einsum("eg,eg,egi,egj->eij", self.wl, dp, self.n, self.n)
             kbu = -np.einsum("eg,eg,egi->ei", self.wl, dp, self.n)

@@ -234,9 +234,9 @@ def capacity_text(summary: CapacitySummary, joint: Joint,
         rows.append([label, fmt(a.load / f), fmt(a.load * k / f),
                      f"{summary.efficiency(a.load):.2f}", what])
     title = joint.title or (joint.source or "joint")
-    a = joint.analysis
+    an = joint.analysis
     out = [title,
-           f"capacity: bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; "
+           f"capacity: bearing law {an.bearing}, bolt {an.bolt}, clearance {an.clearance}; "
            f"nominal strengths; design = nominal x {k:.3g} ({basis})",
            f"{summary.planes} planes between members; one plane's rupture strength "
            f"0.62 fub A = {fmt(summary.plane_strength / f)} {lf}", ""]

@@ -3,8 +3,8 @@
 from __future__ import annotations
 
 import io
-import math
 import json
+import math
 from html.parser import HTMLParser
 from pathlib import Path
 
