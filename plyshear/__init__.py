@@ -26,8 +26,10 @@ if TYPE_CHECKING:
     from plyshear.model.joint import Joint
 
 __all__ = [
+    "CapacityError",
     "Joint",
     "ModelError",
+    "ResourceError",
     "SolveError",
     "__version__",
     "capacity",
@@ -41,8 +43,10 @@ _LAZY = {
     "Bolt": ("plyshear.model.joint", "Bolt"),
     "Ply": ("plyshear.model.joint", "Ply"),
     "Member": ("plyshear.model.joint", "Member"),
-    "ModelError": ("plyshear.model.modelfile", "ModelError"),
-    "SolveError": ("plyshear.mechanics.solve", "SolveError"),
+    "ModelError": ("plyshear.errors", "ModelError"),
+    "SolveError": ("plyshear.errors", "SolveError"),
+    "CapacityError": ("plyshear.errors", "CapacityError"),
+    "ResourceError": ("plyshear.errors", "ResourceError"),
 }
 
 

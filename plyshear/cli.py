@@ -115,7 +115,7 @@ def glob_escape(text: str) -> str:
 
 def _guard(func: Callable[[], Any]) -> Any:
     """Run ``func`` and turn model errors into the one-line error."""
-    from plyshear.model.modelfile import ModelError
+    from plyshear.errors import ModelError
 
     try:
         return func()
@@ -139,7 +139,7 @@ def _echo_sanity(joint: Any) -> None:
 
 def _solve(joint: Any) -> Any:
     import plyshear
-    from plyshear.mechanics.solve import SolveError
+    from plyshear.errors import SolveError
 
     try:
         return _guard(lambda: plyshear.solve(joint))
@@ -248,7 +248,8 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
 
 
 def _summarize(joint: Any) -> Any:
-    from plyshear.mechanics.capacity import CapacityError, summarize
+    from plyshear.errors import CapacityError
+    from plyshear.mechanics.capacity import summarize
 
     try:
         return _guard(lambda: summarize(joint))
@@ -484,7 +485,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 
     The stack must have two members; their plies alternate (A B A B ...).
     """
-    from plyshear.mechanics.capacity import CapacityError
+    from plyshear.errors import CapacityError
     from plyshear.mechanics.studies import planes_study
 
     target = _plot_target(plot, force)

@@ -26,6 +26,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from plyshear.errors import ResourceError
 from plyshear.mechanics import beam, bearing
 from plyshear.model.joint import Joint
 
@@ -359,10 +360,8 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
              _spring_bandwidth(springs))
     if (bw + 1) * next_dof > MAX_BAND_ENTRIES:
-        from plyshear.model.modelfile import ModelError
-
-        raise ModelError(joint.source or "<model>", "ply",
-                         f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
+        raise ResourceError(joint.source or "<model>",
+                            f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
                          "use fewer plies, bolts or elements_per_ply")
     loads = np.zeros((nm, 2))
     for i, m in enumerate(members):

@@ -95,7 +95,8 @@ import numpy as np
 import scipy.sparse as sp
 from scipy.optimize import linprog
 
-from plyshear.mechanics.incremental import CapacityError, load_pattern
+from plyshear.errors import CapacityError
+from plyshear.mechanics.incremental import load_pattern
 from plyshear.model.joint import Joint
 
 START_ELEMENTS = 8  # elements per ply of the first discretisation

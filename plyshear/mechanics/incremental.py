@@ -44,6 +44,7 @@ from typing import Any
 import numpy as np
 from scipy.linalg import solve_banded
 
+from plyshear.errors import CapacityError
 from plyshear.mechanics import beam
 from plyshear.mechanics.assembly import (
     Layout,
@@ -78,10 +79,6 @@ SLIP_LIMIT_DIAMETERS = 1.0
 #: capacity depends only on the pattern's direction and proportions, and a pattern
 #: of 1e-300 kN or 1e9 kN would otherwise leave the range of the tolerances.
 REFERENCE_PATTERN_N = 1e3
-
-
-class CapacityError(RuntimeError):
-    """The incremental analysis did not converge."""
 
 
 @dataclass(frozen=True)

@@ -13,9 +13,9 @@ from dataclasses import dataclass
 import networkx as nx
 import numpy as np
 
+from plyshear.errors import ModelError
 from plyshear.mechanics import bearing
 from plyshear.model.joint import Joint
-from plyshear.model.modelfile import ModelError
 
 BOLT = ("bolt", 0)
 

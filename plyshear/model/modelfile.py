@@ -16,6 +16,7 @@ from pathlib import Path
 from typing import Any
 
 from plyshear import units as _units
+from plyshear.errors import ModelError
 from plyshear.model import catalog
 from plyshear.model.joint import (
     BEAM_THEORIES,
@@ -77,25 +78,6 @@ LOAD_LEVELS = ("factored", "service")
 #: the moment and the shear of one section.
 PIN_INTERACTIONS = ("max-max", "same-section")
 
-
-class ModelError(ValueError):
-    """A model that cannot be used, with where and why.
-
-    Attributes:
-        path: The model file (or ``"<model>"``).
-        key: The key path, e.g. ``ply[2].thickness`` (may be empty).
-        message: What is wrong and what is expected.
-    """
-
-    def __init__(self, path: str, key: str, message: str) -> None:
-        self.path = path
-        self.key = key
-        self.message = message
-        super().__init__(str(self))
-
-    def __str__(self) -> str:
-        where = f"{self.path}: {self.key}: " if self.key else f"{self.path}: "
-        return where + self.message
 
 
 class _Reader:

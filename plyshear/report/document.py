@@ -23,7 +23,8 @@ from plyshear import __version__
 from plyshear import units as _units
 from plyshear.codes.check import check
 from plyshear.codes.result import UNVERIFIED, CheckResult
-from plyshear.mechanics.capacity import CapacityError, CapacitySummary, summarize
+from plyshear.errors import CapacityError
+from plyshear.mechanics.capacity import CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.solve import solve
 from plyshear.model.joint import Joint

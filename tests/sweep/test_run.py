@@ -105,8 +105,11 @@ def test_a_joint_too_large_to_solve_is_its_own_error() -> None:
                           .replace("thickness = 10\n", "thickness = 80\nwidth = 300\n")
                           .replace("thickness = 20\n", "thickness = 80\nwidth = 300\n"),
                           "big.toml")
-    with pytest.raises(modelfile.ModelError, match="the system is too large"):
+    with pytest.raises(plyshear.ResourceError, match="the system is too large") as info:
         plyshear.solve(big)
+    # a resource limit, not a wrong key: the line names the file and no key
+    assert (info.value.path, info.value.key) == ("big.toml", "")
+    assert str(info.value).startswith("big.toml: the system is too large")
     good = plyshear.load_model(FORK_MODEL)
     out = solve_many([good, big])
     _assert_same_solution(out[0], plyshear.solve(good))
