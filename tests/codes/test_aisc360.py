@@ -42,7 +42,7 @@ def test_a307_shear_stress_does_not_depend_on_threads() -> None:
 
 
 def test_threads_included_is_eighty_percent_of_excluded_for_group_a() -> None:
-    # REFERENCES.md (common practice): 54/68 = 0.794, about 0.80
+    # docs/references.md (common practice): 54/68 = 0.794, about 0.80
     ratio = aisc.F_nv("A", False) / aisc.F_nv("A", True)
     assert ratio == pytest.approx(54.0 / 68.0, rel=REL_EXACT)
 

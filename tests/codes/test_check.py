@@ -217,7 +217,7 @@ def test_aisc_double_shear_is_checked_per_plane() -> None:
         assert plane.capacity == pytest.approx(single.capacity, rel=REL_EXACT)
         # symmetry: P/2 in each plane
         assert plane.demand == pytest.approx(load / 2 * KIP, rel=REL_STATICS)
-    # REFERENCES.md derived: 3/4 in Group A-N single 17.89 kip, double 35.79 kip (LRFD)
+    # docs/references.md derived: 3/4 in Group A-N single 17.89 kip, double 35.79 kip (LRFD)
     assert single.capacity / KIP == pytest.approx(17.89, rel=REL_TABLE_ROUNDING)
     assert 2 * single.capacity / KIP == pytest.approx(35.79, rel=REL_TABLE_ROUNDING)
 
@@ -247,7 +247,7 @@ AS_M20 = 245.0  # mm², ISO 898-1 stress area of M20
 FUB = {"8.8": 800.0, "10.9": 1000.0}  # MPa, ISO 898-1
 # EN 1993-1-8 Table 3.4: alpha_v through threads 0.6 (8.8) / 0.5 (10.9); shank 0.6
 ALPHA_V_THREADS = {"8.8": 0.6, "10.9": 0.5}
-# printed design tables (REFERENCES.md, read): M20 per plane through threads, kN
+# printed design tables (docs/references.md, read): M20 per plane through threads, kN
 PRINTED_THREADS_KN = {"8.8": 94.1, "10.9": 98.0}
 
 
@@ -307,7 +307,7 @@ def test_en_bearing_k1_alpha_b_worked_geometry() -> None:
     k1 = min(2.8 * e2 / d0 - 1.7, 2.5)  # Table 3.4, edge bolt, one line
     derived = k1 * alpha_b * fu * d * t / GAMMA_M2
     assert bearing.capacity == pytest.approx(derived, rel=REL_EXACT)
-    # REFERENCES.md derived: 104.8 kN
+    # docs/references.md derived: 104.8 kN
     assert bearing.capacity / KN == pytest.approx(104.8, rel=REL_TABLE_ROUNDING)
     assert bearing.demand == pytest.approx(80.0 * KN, rel=REL_STATICS)
     assert "d0 22 mm" in bearing.note
