@@ -808,11 +808,11 @@ def report_cmd(model: str, output: str, force: bool) -> None:
     if path.exists() and not force:
         fail(f"{output}: exists; use --force to replace it")
     joint = _load(model)
-    _solve(joint)  # refuses a bad joint with the one-line error before the long part
+    sol = _solve(joint)  # refuses a bad joint with the one-line error before the long part
     from plyshear.report import document
 
     try:
-        data = _guard(lambda: document.build(joint))
+        data = _guard(lambda: document.build(sol))
     except ValueError as exc:
         fail(f"{model}: report: {exc}")
     payload = document.to_pdf(data) if kind == ".pdf" else document.to_html(data).encode()

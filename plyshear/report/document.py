@@ -26,7 +26,6 @@ from plyshear.codes.result import UNVERIFIED, CheckResult
 from plyshear.errors import CapacityError
 from plyshear.mechanics.capacity import CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
-from plyshear.mechanics.solve import solve
 from plyshear.model.joint import Joint
 from plyshear.report import diagrams
 from plyshear.report.text import CAUTION, capacity_text, check_text, fmt, table
@@ -51,9 +50,9 @@ class ReportData:
     created: str
 
 
-def build(joint: Joint) -> ReportData:
-    """Solve, check and (where it converges) find the capacity of ``joint``."""
-    sol = solve(joint)
+def build(sol: Solution) -> ReportData:
+    """Check a solved joint and (where it converges) find its capacity, on this one solve."""
+    joint = sol.joint
     res = check(sol)
     try:
         cap: CapacitySummary | None = summarize(sol)
