@@ -11,21 +11,8 @@ standard's text, bending against the plastic moment of the bolt section.
 from __future__ import annotations
 
 from plyshear.codes import aisc360 as aisc
+from plyshear.codes import common
 from plyshear.codes.clause import Clause, cited
-from plyshear.codes.common import (
-    StandardItems,
-    at_plane,
-    at_ply,
-    bolt_section_diameter,
-    hole_diameter,
-    joint_length,
-    noun,
-    pack_at_plane,
-    packs,
-    resultants,
-    slip_planes,
-    transferred_force,
-)
 from plyshear.codes.result import CheckItem
 from plyshear.mechanics.results import BoltResult
 from plyshear.model import catalog
@@ -59,7 +46,7 @@ def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list
 
 
 def _long_joint(joint: Joint) -> tuple[float, str]:
-    length = joint_length(joint)
+    length = common.joint_length(joint)
     return (aisc.long_joint_factor(length) if length > 0 else 1.0,
             "AISC 360-22 J3.6 long-joint")
 
@@ -80,8 +67,8 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     b = joint.bolt
     ab = b.gross_area  # J3.6: nominal unthreaded body area, also through threads
     items = []
-    long_factor = aisc.long_joint_factor(joint_length(joint)) \
-        if joint_length(joint) > 0 else 1.0
+    long_factor = aisc.long_joint_factor(common.joint_length(joint)) \
+        if common.joint_length(joint) > 0 else 1.0
     grip_factor = aisc.A307_long_grip_factor(joint.grip, b.diameter) if group == "A307" else 1.0
     developed = joint.check.fillers == "developed"
     for p in bolt.planes:
@@ -93,7 +80,7 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         if grip_factor < 1.0:
             clauses.append(cited(aisc.A307_long_grip_factor))
         note = "threads included" if p.threads else "threads excluded"
-        t_pack = pack_at_plane(joint, p.above, p.below)
+        t_pack = common.pack_at_plane(joint, p.above, p.below)
         if t_pack > 0:
             try:
                 form = "us" if joint.units == "kip-in" else "si"
@@ -101,14 +88,14 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
             except ValueError as exc:
                 items.append(CheckItem("filler thickness", t_pack, aisc.FILLER_MAX,
                                        "length", (cited(aisc.filler_factor),),
-                                       **at_plane(p), note=str(exc)))
+                                       **common.at_plane(p), note=str(exc)))
                 factor = 1.0
             rn *= factor
             clauses.append(cited(aisc.filler_factor))
             note += f", filler {length_str(joint.units, t_pack)}: factor {factor:.3f}"
-        items.append(CheckItem(f"{noun(joint)} shear", p.shear, _avail(rn, method), "force",
-                               tuple(clauses), **at_plane(p), note=note))
-    if packs(joint) and not developed:
+        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, _avail(rn, method), "force",
+                               tuple(clauses), **common.at_plane(p), note=note))
+    if common.packs(joint) and not developed:
         notes.append("fillers taken as not developed (J5.2); set [check] fillers = "
                      "\"developed\" if they are extended and bolted or welded")
     return items
@@ -116,7 +103,7 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
 
 def _hole(joint: Joint) -> float:
     inch = catalog.is_inch_size(joint.bolt.diameter)
-    return hole_diameter(joint, "aisc360-22", MM_PER_IN / 16.0 if inch else 2.0)
+    return common.hole_diameter(joint, "aisc360-22", MM_PER_IN / 16.0 if inch else 2.0)
 
 
 def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
@@ -126,11 +113,7 @@ def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
     deform = joint.check.deformation_considered
     dh = _hole(joint)
     items = []
-    for pb in bolt.plies:
-        ply = joint.plies[pb.ply]
-        if ply.is_filler:
-            continue
-        where = at_ply(joint, pb.ply)
+    for pb, ply, where in common.bearing_plies(joint, bolt):
         if pin:
             rn = aisc.R_n_pin_bearing(ply.thickness * b.diameter, ply.fy)
             items.append(CheckItem("pin bearing", pb.force, _avail(rn, method), "force",
@@ -155,12 +138,12 @@ def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     b = joint.bolt
     items = []
     # Bending: informative, the plastic moment of the section where M is largest.
-    m = resultants(bolt.M)
+    m = common.resultants(bolt.M)
     i = int(m.argmax())
     threaded = bool(joint.bolt.threaded_along(bolt.z)[i])
-    mp = aisc.M_p_circle(bolt_section_diameter(joint, threaded), b.fyb)
+    mp = aisc.M_p_circle(common.bolt_section_diameter(joint, threaded), b.fyb)
     items.append(CheckItem(
-        f"{noun(joint)} bending", float(m[i]),
+        f"{common.noun(joint)} bending", float(m[i]),
         _avail(mp, method, PHI_FLEXURE, OMEGA_FLEXURE), "moment", (cited(aisc.M_p_circle),),
         informative=True, z=float(bolt.z[i]),
         note="outside the standard's text: plastic moment of the "
@@ -201,9 +184,9 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
             return []
     surface = joint.check.slip_class or "A"
 
-    n_fillers = sum(len(run) for run, _ in packs(joint))
+    n_fillers = sum(len(run) for run, _ in common.packs(joint))
     hf = aisc.h_f(n_fillers, developed=joint.check.fillers == "developed")
-    ns = slip_planes(joint, bolt)
+    ns = common.slip_planes(joint, bolt)
     if ns == 0:
         return []
     rn = aisc.R_n_slip(MU[surface], tb, ns, hf)
@@ -212,13 +195,13 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         rn *= aisc.k_sc(b.tension, tb, 1, method)
         clauses.append(cited(aisc.k_sc))
     avail = _avail(rn, method, aisc.phi_slip(b.hole), aisc.omega_slip(b.hole))
-    return [CheckItem("slip", transferred_force(joint, bolt), avail, "force",
+    return [CheckItem("slip", common.transferred_force(joint, bolt), avail, "force",
                       tuple(clauses),
                       note=f"Class {surface}, mu {MU[surface]}, Tb {force_str(joint.units, tb)}, "
                            f"ns {ns}, hf {hf}")]
 
 
-ITEMS = StandardItems(standard="aisc360-22", edition=aisc.STANDARD, notes=_notes, bolt=_bolt,
+ITEMS = common.StandardItems(standard="aisc360-22", edition=aisc.STANDARD, notes=_notes, bolt=_bolt,
                       long_joint=_long_joint)
 
 __all__ = ["ITEMS", "OMEGA_BOLT", "PHI_BOLT"]

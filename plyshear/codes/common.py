@@ -15,9 +15,9 @@ from typing import Any
 import numpy as np
 
 from plyshear.codes.result import CheckItem
-from plyshear.mechanics.results import BoltResult, PlaneShear, Solution
+from plyshear.mechanics.results import BoltResult, PlaneShear, PlyBearing, Solution
 from plyshear.model import catalog
-from plyshear.model.joint import Joint
+from plyshear.model.joint import Joint, Ply
 from plyshear.units import length_str
 
 #: Planes whose shear is below this fraction of the load transfer nothing (slip).
@@ -57,6 +57,12 @@ def at_plane(p: PlaneShear) -> dict[str, Any]:
 def at_ply(joint: Joint, j: int) -> dict[str, Any]:
     """The place keywords of an item at ply ``j``."""
     return {"part": "ply", "ply": j, "ply_name": joint.plies[j].name}
+
+
+def bearing_plies(joint: Joint, bolt: BoltResult) -> list[tuple[PlyBearing, Ply, dict[str, Any]]]:
+    """The plies a bolt bears on that are checked (not fillers), each with its place."""
+    return [(pb, joint.plies[pb.ply], at_ply(joint, pb.ply)) for pb in bolt.plies
+            if not joint.plies[pb.ply].is_filler]
 
 
 def noun(joint: Joint) -> str:

@@ -13,21 +13,9 @@ from __future__ import annotations
 
 import numpy as np
 
+from plyshear.codes import common
 from plyshear.codes import en1993_1_8 as en
 from plyshear.codes.clause import Clause, cited
-from plyshear.codes.common import (
-    StandardItems,
-    at_plane,
-    at_ply,
-    bolt_section_diameter,
-    hole_diameter,
-    joint_length,
-    noun,
-    pack_at_plane,
-    resultants,
-    slip_planes,
-    transferred_force,
-)
 from plyshear.codes.result import CheckItem
 from plyshear.mechanics.results import BoltResult
 from plyshear.model.joint import Joint
@@ -50,7 +38,7 @@ def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list
 
 def _beta_lf(joint: Joint) -> float:
     """βLf of 3.8 for the row's length (1 up to 15 d)."""
-    length, d = joint_length(joint), joint.bolt.diameter
+    length, d = common.joint_length(joint), joint.bolt.diameter
     return en.beta_Lf(length, d) if length > 15 * d else 1.0
 
 
@@ -80,7 +68,7 @@ def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     for p in bolt.planes:
         frd, clauses = plane_resistance(joint, p.threads)
         note = "through threads (As)" if p.threads else "through shank (gross area)"
-        tp = pack_at_plane(joint, p.above, p.below)
+        tp = common.pack_at_plane(joint, p.above, p.below)
         if tp > 0:
             bp = en.beta_p(d, tp)
             frd *= bp
@@ -90,24 +78,20 @@ def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             frd *= beta_lf
             clauses.append(cited(en.beta_Lf))
             note += f", beta_Lf {beta_lf:.3f}"
-        items.append(CheckItem(f"{noun(joint)} shear", p.shear, frd, "force", tuple(clauses),
-                               **at_plane(p), note=note))
+        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, frd, "force", tuple(clauses),
+                               **common.at_plane(p), note=note))
     return items
 
 
 def _hole(joint: Joint) -> float:
-    return hole_diameter(joint, "en1993-1-8", 2.0)
+    return common.hole_diameter(joint, "en1993-1-8", 2.0)
 
 
 def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     b = joint.bolt
     d0 = _hole(joint)
     items = []
-    for pb in bolt.plies:
-        ply = joint.plies[pb.ply]
-        if ply.is_filler:
-            continue
-        where = at_ply(joint, pb.ply)
+    for pb, ply, where in common.bearing_plies(joint, bolt):
         if joint.check.connector == "pin":
             # Table 3.10: fy is the lower of the pin's and the plate's yield strength
             frd = en.F_b_Rd_pin(ply.thickness, b.diameter, min(ply.fy, b.fyb))
@@ -181,18 +165,18 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     pin = joint.check.connector == "pin"
     items = []
     # Bending and bending + shear along the bolt (Table 3.10; for bolts informative).
-    m = resultants(bolt.M)
-    v = resultants(bolt.V)
+    m = common.resultants(bolt.M)
+    v = common.resultants(bolt.V)
     threads = joint.bolt.threaded_along(bolt.z)
     # two sections at most (shank, thread): each resistance once, then spread on the nodes
-    by_section = {t: (en.M_Rd_pin(bolt_section_diameter(joint, t), b.fyb),
+    by_section = {t: (en.M_Rd_pin(common.bolt_section_diameter(joint, t), b.fyb),
                       plane_resistance(joint, t)[0]) for t in {bool(t) for t in threads}}
     mrd = np.array([by_section[bool(t)][0] for t in threads])
     vrd = np.array([by_section[bool(t)][1] for t in threads])
     i = int(np.argmax(m / mrd))
     informative = not pin
     tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
-    items.append(CheckItem(f"{noun(joint)} bending", float(m[i]),
+    items.append(CheckItem(f"{common.noun(joint)} bending", float(m[i]),
                            float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
                            informative=informative, z=float(bolt.z[i]),
                            note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
@@ -212,7 +196,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
         fpc = b.pretension if b.pretension > 0 else en.F_p_C(b.fub, b.stress_area)
         surface = joint.check.slip_class or SURFACE_DEFAULT
         mu = en.mu_class(surface)
-        n = slip_planes(joint, bolt)
+        n = common.slip_planes(joint, bolt)
         if n > 0:
             ks = en.k_s(b.hole if b.hole != "standard" else "normal")
             if b.tension > 0:
@@ -221,7 +205,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
             else:
                 frd = en.F_s_Rd(ks, n, mu, fpc)
                 clauses = (cited(en.F_s_Rd), cited(en.k_s), cited(en.mu_class))
-            items.append(CheckItem("slip", transferred_force(joint, bolt), frd, "force",
+            items.append(CheckItem("slip", common.transferred_force(joint, bolt), frd, "force",
                                    clauses, note=f"Class {surface}, mu {mu}, "
                                    f"Fp,C {force_str(joint.units, fpc)}, n {n}, ks {ks}"))
         if b.pretension <= 0:
@@ -229,7 +213,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     return items
 
 
-ITEMS = StandardItems(standard="en1993-1-8", edition=en.STANDARD, notes=_notes, bolt=_bolt,
+ITEMS = common.StandardItems(standard="en1993-1-8", edition=en.STANDARD, notes=_notes, bolt=_bolt,
                       long_joint=_long_joint, method="partial-factors")
 
 __all__ = ["ITEMS", "plane_resistance"]
