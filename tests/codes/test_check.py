@@ -616,3 +616,44 @@ def test_en_pin_bearing_uses_the_lower_yield_of_pin_and_plate() -> None:
     assert item(res, "pin bearing", "ply inner").capacity == pytest.approx(
         1.5 * 20 * 30 * fy, rel=REL_EXACT
     )
+
+
+# EN 1993-1-8:2005 Table 3.4: M20 10.9 through the shank, 0.6 fub A / gamma_M2 (N);
+# 3.8(1): beta_Lf = 1 - (Lj - 15 d)/(200 d), Lj = 5 pitches of 70 mm.
+SPLICE_PLANE_RD = 0.6 * 1000.0 * math.pi * 20.0**2 / 4.0 / 1.25 * (
+    1.0 - (5 * 70.0 - 15 * 20.0) / (200 * 20.0))
+
+
+def test_items_of_a_bolt_row_are_placed_by_bolt_plane_and_ply() -> None:
+    from tests.conftest import MODELS
+
+    joint = plyshear.load_model(MODELS / "splice-six-bolts.toml")
+    sol = plyshear.solve(joint)
+    res = plyshear.check(sol)
+    shear = {(i.bolt, i.plane): i for i in res.items if i.what == "bolt shear"}
+    assert set(shear) == {(k, p.index) for k, b in enumerate(sol.bolts) for p in b.planes}
+    for (k, index), it in shear.items():
+        assert it.demand == pytest.approx(sol.bolts[k].planes[index - 1].shear, rel=1e-12)
+        assert it.capacity == pytest.approx(SPLICE_PLANE_RD, rel=1e-12)
+        assert it.where == f"bolt {k + 1}: plane {index}"
+    data = res.to_dict()
+    bearing = [i for i in data["items"] if i["what"] == "bearing"]
+    assert {(i["bolt"], i["ply"]) for i in bearing} == {
+        (k, name) for k in range(1, 7) for name in ("cover-outer", "chord-a", "cover-inner",
+                                                     "cover-back")}  # the pack is a filler
+    assert all(i["plane"] is None for i in bearing)
+
+
+def test_check_refuses_the_solution_of_another_joint() -> None:
+    import dataclasses
+
+    from tests.conftest import FORK
+
+    a = loads(FORK)
+    b = loads(FORK.replace("load = 100", "load = 120"))
+    with pytest.raises(ValueError, match="the solution is of another joint"):
+        plyshear.check(b, plyshear.solve(a))
+    # a joint that differs in its [check] settings only is checked, by its own settings,
+    # on the same solution
+    en = dataclasses.replace(a, check=dataclasses.replace(a.check, standard="en1993-1-8"))
+    assert plyshear.check(en, plyshear.solve(a)).standard == "en1993-1-8"
