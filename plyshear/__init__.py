@@ -26,8 +26,10 @@ if TYPE_CHECKING:
     from plyshear.model.joint import Joint
 
 __all__ = [
+    "CapacityError",
     "Joint",
     "ModelError",
+    "ResourceError",
     "SolveError",
     "__version__",
     "capacity",
@@ -41,8 +43,10 @@ _LAZY = {
     "Bolt": ("plyshear.model.joint", "Bolt"),
     "Ply": ("plyshear.model.joint", "Ply"),
     "Member": ("plyshear.model.joint", "Member"),
-    "ModelError": ("plyshear.model.modelfile", "ModelError"),
-    "SolveError": ("plyshear.mechanics.solve", "SolveError"),
+    "ModelError": ("plyshear.errors", "ModelError"),
+    "SolveError": ("plyshear.errors", "SolveError"),
+    "CapacityError": ("plyshear.errors", "CapacityError"),
+    "ResourceError": ("plyshear.errors", "ResourceError"),
 }
 
 
@@ -93,22 +97,45 @@ def solve(joint: Joint) -> Solution:
     return _solve(joint)
 
 
-def check(joint: Joint, solution: Solution, standard: str | None = None,
-          method: str | None = None) -> CheckResult:
+def check(joint_or_solution: Joint | Solution, solution: Solution | None = None,
+          standard: str | None = None, method: str | None = None) -> CheckResult:
     """Check a solved joint against a design standard.
 
+    ``plyshear.check(sol)`` and ``plyshear.check(joint, sol)`` are the same check:
+    the solution carries its joint.
+
     Args:
-        joint: The joint.
-        solution: Its solution.
+        joint_or_solution: The solution, or the joint followed by its solution.
+        solution: The solution, when the first argument is the joint.
         standard: ``"aisc360-22"`` or ``"en1993-1-8"`` (default: the model's).
         method: ``"lrfd"`` or ``"asd"`` for AISC (default: the model's).
 
     Returns:
         The check result; ``.to_dict()`` gives the JSON ``check`` section.
-    """
-    from plyshear.codes.check import check as _check
 
-    return _check(joint, solution, standard, method)
+    Raises:
+        ValueError: If no solution is given, or the solution is of another joint (one
+            that differs in more than its ``[check]`` settings).
+    """
+    import dataclasses
+
+    from plyshear.codes.check import check as _check
+    from plyshear.mechanics.results import Solution
+
+    if isinstance(joint_or_solution, Solution):
+        if solution is not None:
+            raise ValueError("give the solution once: check(sol) or check(joint, sol)")
+        return _check(joint_or_solution, standard, method)
+    if solution is None:
+        raise ValueError("check needs the solution: check(sol) or check(joint, sol)")
+    joint = joint_or_solution
+    if joint is not solution.joint:
+        # the [check] settings do not enter the solve: a joint that differs only there
+        # is checked on this solution with its own settings
+        if dataclasses.replace(joint, check=solution.joint.check) != solution.joint:
+            raise ValueError("the solution is of another joint: solve this joint first")
+        solution = dataclasses.replace(solution, joint=joint)
+    return _check(solution, standard, method)
 
 
 def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:

@@ -122,7 +122,7 @@ def glob_escape(text: str) -> str:
 
 def _guard(func: Callable[[], Any]) -> Any:
     """Run ``func`` and turn model errors into the one-line error."""
-    from plyshear.model.modelfile import ModelError
+    from plyshear.errors import ModelError
 
     try:
         return func()
@@ -146,7 +146,7 @@ def _echo_sanity(joint: Any) -> None:
 
 def _solve(joint: Any) -> Any:
     import plyshear
-    from plyshear.mechanics.solve import SolveError
+    from plyshear.errors import SolveError
 
     try:
         return _guard(lambda: plyshear.solve(joint))
@@ -256,7 +256,8 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
 
 def _summarize(joint: Any) -> Any:
     from plyshear.codes.resistance import nominal_bearing
-    from plyshear.mechanics.capacity import CapacityError, summarize
+    from plyshear.errors import CapacityError
+    from plyshear.mechanics.capacity import summarize
 
     try:
         return _guard(lambda: summarize(joint, nominal_bearing(joint)))
@@ -279,7 +280,7 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
     from plyshear.codes.check import check
 
     try:
-        return check(joint, sol)
+        return check(sol)
     except ValueError:
         return None
 
@@ -506,7 +507,7 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     The stack must have two members; their plies alternate (A B A B ...).
     """
     from plyshear.codes.resistance import nominal_bearing
-    from plyshear.mechanics.capacity import CapacityError
+    from plyshear.errors import CapacityError
     from plyshear.mechanics.studies import planes_study
 
     target = _plot_target(plot, force)
@@ -830,11 +831,11 @@ def report_cmd(model: str, output: str, force: bool) -> None:
     if path.exists() and not force:
         fail(f"{output}: exists; use --force to replace it")
     joint = _load(model)
-    _solve(joint)  # refuses a bad joint with the one-line error before the long part
+    sol = _solve(joint)  # refuses a bad joint with the one-line error before the long part
     from plyshear.report import document
 
     try:
-        data = _guard(lambda: document.build(joint))
+        data = _guard(lambda: document.build(sol))
     except ValueError as exc:
         fail(f"{model}: report: {exc}")
     payload = document.to_pdf(data) if kind == ".pdf" else document.to_html(data).encode()

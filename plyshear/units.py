@@ -35,8 +35,10 @@ _INTERNAL_PINT = {
     "area": "millimeter ** 2",
 }
 
-N_PER_KIP = 4448.2216152605  # exact: 1000 lbf, 1 lbf = 4.4482216152605 N
+#: The unit factors: defined here only, every other module imports them.
+N_PER_KIP = 4448.2216152605  # exact: 1000 lbf, 1 lbf = 0.45359237 kg x 9.80665 m/s²
 MM_PER_IN = 25.4  # exact
+MPA_PER_KSI = N_PER_KIP / MM_PER_IN**2  # 6.894757293168361 MPa in 1 ksi (1000 lbf/in²)
 
 
 @dataclass(frozen=True)
@@ -106,7 +108,7 @@ SYSTEMS: dict[str, UnitSystem] = {
     "N-mm": UnitSystem("N-mm", 1.0, 1.0, "N", "mm", "MPa", 1.0),
     "kN-mm": UnitSystem("kN-mm", 1000.0, 1.0, "kN", "mm", "MPa", 1.0),
     "kip-in": UnitSystem(
-        "kip-in", N_PER_KIP, MM_PER_IN, "kip", "in", "ksi", N_PER_KIP / MM_PER_IN**2
+        "kip-in", N_PER_KIP, MM_PER_IN, "kip", "in", "ksi", MPA_PER_KSI
     ),
 }
 
@@ -217,3 +219,15 @@ def parse_quantity(text: str, dimension: str) -> float:
     if not math.isfinite(value):
         raise ValueError(f"'{text}' is not finite")
     return value
+
+
+def length_str(units: str, value: float) -> str:
+    """Format a length given in mm in the unit system ``units``."""
+    u = system(units)
+    return f"{value / u.factor('length'):.4g} {u.label('length')}"
+
+
+def force_str(units: str, value: float) -> str:
+    """Format a force given in N in the unit system ``units``."""
+    u = system(units)
+    return f"{value / u.factor('force'):.4g} {u.label('force')}"

@@ -5,6 +5,7 @@ from __future__ import annotations
 import json
 import subprocess
 import sys
+import tomllib
 from pathlib import Path
 
 import pytest
@@ -23,8 +24,18 @@ PLY_KEYS = {"name", "member", "bearing", "bearing_xy"}
 DIAGRAM_KEYS = {"z", "shear", "moment", "deflection"}
 
 
-def test_there_are_examples() -> None:
-    assert len(EXAMPLES) >= 3
+def test_each_example_has_the_bolts_and_planes_its_file_declares() -> None:
+    # read with tomllib (the standard library), not plyshear's loader: a row of
+    # [pattern] count bolts (one without), one plane between consecutive plies
+    found = {}
+    for path in EXAMPLES:
+        raw = tomllib.loads(path.read_text(encoding="utf-8"))
+        bolts = raw.get("pattern", {}).get("count", len(raw.get("pattern", {}).get(
+            "positions", [0])))
+        data = json.loads(CliRunner().invoke(main, ["solve", str(path), "--json"]).output)
+        assert [len(b["planes"]) for b in data["bolts"]] == [len(raw["ply"]) - 1] * bolts
+        found[path.stem] = bolts
+    assert found["splice-six-bolts"] == 6  # the file's own [pattern] count = 6
 
 
 @pytest.mark.parametrize("path", EXAMPLES, ids=[p.stem for p in EXAMPLES])

@@ -12,15 +12,14 @@ from __future__ import annotations
 import math
 
 from plyshear.codes.clause import clause
+from plyshear.codes.inputs import count as _count
+from plyshear.codes.inputs import non_negative as _non_negative
+from plyshear.codes.inputs import positive as _positive
+from plyshear.codes.inputs import within as _within
+from plyshear.model.joint import HOLE_TYPES, METHODS
+from plyshear.units import MM_PER_IN, MPA_PER_KSI, N_PER_KIP
 
 STANDARD = "AISC 360-22"
-
-#: 1 ksi in MPa (exact: 1000 lbf/in², 1 lbf = 4.4482216152605 N, 1 in = 25.4 mm).
-KSI = 6.894757293168361
-#: 1 kip in N (exact).
-KIP = 4448.2216152605
-#: 1 in in mm (exact).
-INCH = 25.4
 
 #: The 2022 edition's name of each bolt group (from memory; check against the
 #: printed Table J3.2 before quoting it in a report).
@@ -47,30 +46,8 @@ _T_B_KN = {
 _SIZE_MATCH_MM = 0.05  # how close (mm) d must be to a tabulated size
 #: Long-joint limit of J3.6: pattern length 38 in (printed metric: 965 mm).
 L_LONG_JOINT = 965.2  # 38 in x 25.4 mm/in, exact in decimal
-METHODS = ("lrfd", "asd")
-HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
-
-
-def _positive(**values: float) -> None:
-    for name, value in values.items():
-        if not (math.isfinite(value) and value > 0.0):
-            raise ValueError(f"{name} must be a finite number > 0, got {value!r}")
-
-
-def _non_negative(**values: float) -> None:
-    for name, value in values.items():
-        if not (math.isfinite(value) and value >= 0.0):
-            raise ValueError(f"{name} must be a finite number >= 0, got {value!r}")
-
-
-def _within(name: str, value: float, low: float, high: float) -> None:
-    if not (low < value <= high):
-        raise ValueError(f"{name} must be in ({low:g}, {high:g}], got {value!r}")
-
-
-def _count(name: str, value: int, minimum: int) -> None:
-    if int(value) != value or value < minimum:
-        raise ValueError(f"{name} must be an integer >= {minimum}, got {value!r}")
+#: The thickest filler J5.2 admits undeveloped: 3/4 in.
+FILLER_MAX = 0.75 * MM_PER_IN
 
 
 def _method(method: str) -> str:
@@ -121,7 +98,7 @@ def F_nt(group: str) -> float:
     Returns:
         Fnt, MPa.
     """
-    return _F_NT_KSI[_group(group, tuple(_F_NT_KSI))] * KSI
+    return _F_NT_KSI[_group(group, tuple(_F_NT_KSI))] * MPA_PER_KSI
 
 
 @clause(STANDARD, "Table J3.2")
@@ -140,7 +117,7 @@ def F_nv(group: str, threads_excluded: bool) -> float:
         Fnv, MPa.
     """
     table = _F_NV_X_KSI if threads_excluded else _F_NV_N_KSI
-    return table[_group(group, tuple(table))] * KSI
+    return table[_group(group, tuple(table))] * MPA_PER_KSI
 
 
 @clause(STANDARD, "Table J3.2")
@@ -194,7 +171,7 @@ def A307_long_grip_factor(grip: float, d: float) -> float:
         The factor on Fnt and Fnv, dimensionless, in (0, 1].
     """
     _positive(grip=grip, d=d)
-    factor = 1.0 - 0.01 * max(0.0, grip - 5.0 * d) / (INCH / 16.0)
+    factor = 1.0 - 0.01 * max(0.0, grip - 5.0 * d) / (MM_PER_IN / 16.0)
     if factor <= 0.0:
         raise ValueError(f"grip {grip} mm is beyond the range of the A307 reduction (factor <= 0)")
     return factor
@@ -417,8 +394,8 @@ def T_b_min(d: float, group: str) -> float:
     _group(group, ("A", "B"))
     _positive(d=d)
     for size_in, kips in zip(_T_B_SIZES_IN, _T_B_KIP[group], strict=True):
-        if abs(d - size_in * INCH) <= _SIZE_MATCH_MM:
-            return kips * KIP
+        if abs(d - size_in * MM_PER_IN) <= _SIZE_MATCH_MM:
+            return kips * N_PER_KIP
     for size_mm, kilonewtons in zip(_T_B_SIZES_MM, _T_B_KN[group], strict=True):
         if abs(d - size_mm) <= _SIZE_MATCH_MM:
             return kilonewtons * 1000.0
@@ -556,10 +533,10 @@ def filler_factor(t: float, developed: bool = False, form: str = "si") -> float:
     _non_negative(t=t)
     if form not in ("si", "us"):
         raise ValueError(f"form must be 'si' or 'us', got {form!r}")
-    if t > 0.75 * INCH and not developed:
+    if t > FILLER_MAX and not developed:
         raise ValueError(f"filler t = {t} mm > 3/4 in (19 mm): such fillers must be developed")
     if form == "us":
-        t_in = t / INCH
+        t_in = t / MM_PER_IN
         return 1.0 if developed or t_in <= 0.25 else max(0.85, 1.0 - 0.4 * (t_in - 0.25))
     if developed or t <= 6.0:
         return 1.0
@@ -609,10 +586,10 @@ def M_p_circle(d: float, F_y: float) -> float:
 
 #: D5.1(a): the allowance added to 2t in the effective width: 0.63 in (US form),
 #: 16 mm (S.I. form).
-B_E_ALLOWANCE = {"us": 0.63 * INCH, "si": 16.0}
+B_E_ALLOWANCE = {"us": 0.63 * MM_PER_IN, "si": 16.0}
 #: D5.2: the largest pin-hole clearance where the pin provides for relative
 #: movement under full load: 1/32 in (US form), 1 mm (S.I. form).
-PIN_HOLE_CLEARANCE = {"us": INCH / 32.0, "si": 1.0}
+PIN_HOLE_CLEARANCE = {"us": MM_PER_IN / 32.0, "si": 1.0}
 
 
 def _form(form: str) -> str:

@@ -12,6 +12,10 @@ from __future__ import annotations
 import math
 
 from plyshear.codes.clause import clause
+from plyshear.codes.inputs import non_negative as _non_negative
+from plyshear.codes.inputs import positive as _positive
+from plyshear.codes.inputs import within as _within
+from plyshear.model.joint import HOLE_TYPES as _HOLE_TYPES
 
 STANDARD = "EN 1993-1-8:2005"
 
@@ -19,24 +23,8 @@ STANDARD = "EN 1993-1-8:2005"
 BOLT_CLASSES = ("4.6", "4.8", "5.6", "5.8", "6.8", "8.8", "10.9")
 _ALPHA_V_06 = ("4.6", "5.6", "8.8")
 
-HOLE_TYPES = ("standard", "normal", "oversized", "short-slot", "long-slot")
-
-
-def _positive(**values: float) -> None:
-    for name, value in values.items():
-        if not (math.isfinite(value) and value > 0.0):
-            raise ValueError(f"{name} must be a finite number > 0, got {value!r}")
-
-
-def _non_negative(**values: float) -> None:
-    for name, value in values.items():
-        if not (math.isfinite(value) and value >= 0.0):
-            raise ValueError(f"{name} must be a finite number >= 0, got {value!r}")
-
-
-def _within(name: str, value: float, low: float, high: float) -> None:
-    if not (low < value <= high):
-        raise ValueError(f"{name} must be in ({low:g}, {high:g}], got {value!r}")
+#: The model's hole types, and "normal": the standard's own name of a standard hole.
+HOLE_TYPES = (*_HOLE_TYPES, "normal")
 
 
 def _governs(value: float | None) -> bool:

@@ -28,18 +28,13 @@ import numpy as np
 
 from plyshear.codes import aisc360 as aisc
 from plyshear.codes import en1993_1_8 as en
-from plyshear.codes.check import (
-    CheckItem,
-    CheckResult,
-    length_str,
-    load_level,
-    resultants,
-    tag_bolt,
-)
-from plyshear.codes.clause import cited
+from plyshear.codes.clause import Clause, cited
+from plyshear.codes.common import load_level, resultants
+from plyshear.codes.result import CheckItem, CheckResult
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.strengths import LUG_NET_TENSION, LUG_SHEAR_OUT, pin_hole, unit_form
 from plyshear.model.joint import Joint, Ply
+from plyshear.units import length_str
 
 PHI_RUPTURE, OMEGA_RUPTURE = 0.75, 2.00  # D5.1(a), D5.1(b)
 PHI_YIELD, OMEGA_YIELD = 0.90, 1.67  # D2(a)
@@ -85,7 +80,7 @@ def extend(joint: Joint, solution: Solution, result: CheckResult, method: str) -
                 per += en_items(joint, ply, pb.force)
         if result.standard == "en1993-1-8" and joint.check.replaceable:
             per.append(en_service_bending(joint, bolt.z, resultants(bolt.M)))
-        out += tag_bolt(per, k, count)
+        out += [dataclasses.replace(i, bolt=k, row=count) for i in per]
     return dataclasses.replace(result, items=result.items + tuple(out),
                                notes=tuple(dict.fromkeys(result.notes
                                                          + tuple(notes(joint, result, service)))))
@@ -122,6 +117,15 @@ def _hole_source(joint: Joint, result: CheckResult) -> str:
         " (d + 1 mm, the D5.2 limit)"
 
 
+def _item(joint: Joint, ply: Ply, what: str, where: str, demand: float, capacity: float,
+          dimension: str, clauses: tuple[Clause, ...], **kw: object) -> CheckItem:
+    """A ply's item; a detail after the ply's name (", width") goes into what it checks."""
+    detail = where.split(", ", 1)[1] if ", " in where else ""
+    return CheckItem(f"{what} ({detail})" if detail else what, demand, capacity, dimension,
+                     clauses, part="ply", ply=joint.plies.index(ply), ply_name=ply.name,
+                     **kw)  # type: ignore[arg-type]
+
+
 def _geometry(joint: Joint, ply: Ply, standard: str) -> tuple[float, float, float]:
     """Hole d_h, extension a beyond the hole and side distance c beside it, mm."""
     dh = pin_hole(joint, standard)
@@ -145,27 +149,28 @@ def aisc_items(joint: Joint, ply: Ply, force: float, method: str) -> list[CheckI
     rn_s = aisc.P_n_pin_shear(t, max(a, 0.0), d, ply.fu)
     rn_y = aisc.P_n_yield(ply.width * t, ply.fy)  # type: ignore[operator]
     items = [
-        CheckItem(LUG_NET_TENSION, where, force, avail(rn_t, PHI_RUPTURE, OMEGA_RUPTURE),
+        _item(joint, ply, LUG_NET_TENSION, where, force, avail(rn_t, PHI_RUPTURE, OMEGA_RUPTURE),
                   "force", (cited(aisc.P_n_pin_tension),),
                   note=f"2 t be, be {length_str(ln, b_e)}"
                        + (" (the side distance governs)" if b_e < b_e0 else "")),
-        CheckItem(LUG_SHEAR_OUT, where, force, avail(rn_s, PHI_RUPTURE, OMEGA_RUPTURE),
+        _item(joint, ply, LUG_SHEAR_OUT, where, force, avail(rn_s, PHI_RUPTURE, OMEGA_RUPTURE),
                   "force", (cited(aisc.P_n_pin_shear),),
                   note=f"Asf = 2 t (a + d/2), a {length_str(ln, a)}"),
-        CheckItem(GROSS_YIELDING, where, force, avail(rn_y, PHI_YIELD, OMEGA_YIELD), "force",
+        _item(joint, ply, GROSS_YIELDING, where, force, avail(rn_y, PHI_YIELD, OMEGA_YIELD),
+              "force",
                   (cited(aisc.P_n_yield),),
                   note=f"Ag = width x t, width {length_str(ln, ply.width)}"),  # type: ignore[arg-type]
-        CheckItem(GEOMETRY, f"{where}, width", aisc.pin_plate_min_width(b_e0, d), ply.width,  # type: ignore[arg-type]
+        _item(joint, ply, GEOMETRY, f"{where}, width", aisc.pin_plate_min_width(b_e0, d), ply.width,  # type: ignore[arg-type]
                   "length", (cited(aisc.pin_plate_min_width), cited(aisc.b_e_pin)),
                   note=f"width >= 2 be + d, be = 2t + {length_str(ln, aisc.B_E_ALLOWANCE[form])}"
                        f" = {length_str(ln, b_e0)}"),
-        CheckItem(GEOMETRY, f"{where}, extension a", aisc.pin_plate_min_extension(b_e0), a,
+        _item(joint, ply, GEOMETRY, f"{where}, extension a", aisc.pin_plate_min_extension(b_e0), a,
                   "length",
                   (cited(aisc.pin_plate_min_extension),),
                   note=f"a >= 1.33 be, a = edge - dh/2 = {length_str(ln, a)}"),
     ]
     if joint.analysis.hole_clearance is not None:  # else the hole is d + the limit itself
-        items.append(CheckItem(
+        items.append(_item(joint, ply,
             GEOMETRY, f"{where}, hole", dh, aisc.pin_hole_max(d, form), "length",
             (cited(aisc.pin_hole_max),), informative=True,
             note=f"hole <= d + {length_str(ln, aisc.PIN_HOLE_CLEARANCE[form])}: required where "
@@ -195,10 +200,10 @@ def en_items(joint: Joint, ply: Ply, force: float) -> list[CheckItem]:
     else:
         type_b = (d0, d0_max, f"type B: d0 <= 2.5 t (t needs {length_str(ln, t_req)})")
     return [
-        CheckItem(GEOMETRY, f"{where}, type A", type_a[0], type_a[1], "length",
+        _item(joint, ply, GEOMETRY, f"{where}, type A", type_a[0], type_a[1], "length",
                   (cited(en.a_min_pin_plate),),
                   note=type_a[2] + "; a plate of the type B shape may meet type B instead"),
-        CheckItem(GEOMETRY, f"{where}, type B", type_b[0], type_b[1], "length",
+        _item(joint, ply, GEOMETRY, f"{where}, type B", type_b[0], type_b[1], "length",
                   (cited(en.t_min_pin_plate),),
                   informative=True,
                   note=type_b[2] + "; only for a plate of the type B shape (not checked)"),
@@ -212,10 +217,10 @@ def en_service_items(joint: Joint, ply: Ply, force: float) -> list[CheckItem]:
     fy = min(ply.fy, b.fyb)  # the lower of the pin's and the plate's
     where = f"ply {ply.name}"
     return [
-        CheckItem("pin bearing (serviceability)", where, force,
+        _item(joint, ply, "pin bearing (serviceability)", where, force,
                   en.F_b_Rd_ser_pin(ply.thickness, b.diameter, fy), "force",
                   (cited(en.F_b_Rd_ser_pin),), note=f"0.6 t d fy / gM6,ser, fy {fy:.0f} MPa"),
-        CheckItem("pin contact stress", where,
+        _item(joint, ply, "pin contact stress", where,
                   en.sigma_h_Ed(ply.E, force, d0, b.diameter, ply.thickness), en.f_h_Rd(fy),
                   "stress", (cited(en.sigma_h_Ed), cited(en.f_h_Rd)),
                   note=f"d0 - d {length_str(joint.units, d0 - b.diameter)}"),
@@ -225,9 +230,9 @@ def en_service_items(joint: Joint, ply: Ply, force: float) -> list[CheckItem]:
 def en_service_bending(joint: Joint, z: np.ndarray, moment: np.ndarray) -> CheckItem:
     """EN 1993-1-8 Table 3.10: a replaceable pin's bending at serviceability."""
     i = int(np.argmax(moment))
-    return CheckItem("pin bending (serviceability)", "bolt", float(moment[i]),
+    return CheckItem("pin bending (serviceability)", float(moment[i]),
                      en.M_Rd_ser_pin(joint.bolt.diameter, joint.bolt.fyb), "moment",
-                     (cited(en.M_Rd_ser_pin),), z=float(z[i]),
+                     (cited(en.M_Rd_ser_pin),), part="bolt", z=float(z[i]),
                      note="0.8 Wel fyp / gM6,ser of the shank")
 
 

@@ -6,7 +6,7 @@ The capacity analyses give nominal strengths; set against the model's loads
 
 from __future__ import annotations
 
-from plyshear.codes.check_aisc import OMEGA_BOLT, PHI_BOLT
+from plyshear.codes.aisc360_check import OMEGA_BOLT, PHI_BOLT
 from plyshear.model.joint import Joint
 
 #: EN 1993-1-8:2005 Table 2.1: partial factor for bolts, pins and plates in bearing

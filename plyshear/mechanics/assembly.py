@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from plyshear.errors import ResourceError
 from plyshear.mechanics import beam, bearing
 from plyshear.model.joint import Joint
 
@@ -456,10 +457,8 @@ def _number(joint: Joint, mesh: Mesh) -> Numbering:
     bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
              _spring_bandwidth(springs))
     if (bw + 1) * next_dof > MAX_BAND_ENTRIES:
-        from plyshear.model.modelfile import ModelError
-
-        raise ModelError(joint.source or "<model>", "ply",
-                         f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
+        raise ResourceError(joint.source or "<model>",
+                            f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
                          "use fewer plies, bolts or elements_per_ply")
     return Numbering(na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof, edofs=edofs,
                      target=tuple(tuple(t) for t in target), el_ply=el_ply, tgt_kind=tgt_kind,

@@ -30,6 +30,7 @@ from collections.abc import Sequence
 import numpy as np
 import scipy.sparse as sp
 
+from plyshear.errors import ModelError, SolveError
 from plyshear.mechanics import beam
 from plyshear.mechanics.assembly import (
     Layout,
@@ -45,10 +46,9 @@ from plyshear.mechanics.assembly import (
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.recovery import Batch, recover
 from plyshear.mechanics.results import Solution
-from plyshear.mechanics.solve import SolveError, solve_stacked, system_unbalance
 from plyshear.mechanics.solve import solve as solve_one
+from plyshear.mechanics.solve import solve_stacked, system_unbalance
 from plyshear.model.joint import Joint
-from plyshear.model.modelfile import ModelError
 
 #: Joints assembled in one product: bounds the dense source block
 #: (about 21 doubles per element and joint: 1000 joints of 100 elements ≈ 17 MB).

@@ -23,10 +23,10 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
+from plyshear.errors import CapacityError
 from plyshear.mechanics.assembly import build_mesh
 from plyshear.mechanics.collapse import Collapse, collapse
 from plyshear.mechanics.incremental import (
-    CapacityError,
     CapacityResult,
     analyse,
     clearances,

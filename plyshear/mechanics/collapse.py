@@ -94,7 +94,8 @@ from dataclasses import dataclass
 import numpy as np
 import scipy.sparse as sp
 
-from plyshear.mechanics.incremental import CapacityError, load_pattern
+from plyshear.errors import CapacityError
+from plyshear.mechanics.incremental import load_pattern
 from plyshear.model.joint import Joint
 
 START_ELEMENTS = 8  # elements per ply of the first discretisation
@@ -618,7 +619,7 @@ def _mechanism(lp: _Program, work: _Work, x: np.ndarray, sec_point: np.ndarray,
                net_where: list[tuple[int, int]]) -> Mechanism:
     """Read hinges, plies at full bearing, planes and net sections from the active set."""
     nsec = sec_point.size
-    active = np.zeros(lp.ns * lp.np, dtype=bool)
+    active: np.ndarray = np.zeros(lp.ns * lp.np, dtype=bool)
     active[sec_point[work.row[:nsec]]] = True
     active = active.reshape(lp.ns, lp.np)
     mp, vu = lp.point_limits()

@@ -44,6 +44,7 @@ from typing import Any
 import numpy as np
 from scipy.linalg import lapack, solve_banded
 
+from plyshear.errors import CapacityError
 from plyshear.mechanics import beam, laws
 from plyshear.mechanics.assembly import (
     Layout,
@@ -77,10 +78,6 @@ SLIP_LIMIT_DIAMETERS = 1.0
 #: capacity depends only on the pattern's direction and proportions, and a pattern
 #: of 1e-300 kN or 1e9 kN would otherwise leave the range of the tolerances.
 REFERENCE_PATTERN_N = 1e3
-
-
-class CapacityError(RuntimeError):
-    """The incremental analysis did not converge."""
 
 
 @dataclass(frozen=True)
@@ -391,8 +388,8 @@ class _Model:
         r = np.bincount(self.r_dest, weights=np.concatenate([fe[self.fe_ok], fu, force, -force]),
                         minlength=self.r_size)
         ra, rm = r[:lay.na], r[lay.na:lay.na + lay.nm]
-        out = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"], "de": de,
-               "kappa": bend["kappa"]}
+        out: dict[str, Any] = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"],
+                               "de": de, "kappa": bend["kappa"]}
         if tangent:
             kbb = np.einsum("eg,eg,egi,egj->eij", self.wl, dp, self.n, self.n)
             kbu = -np.einsum("eg,eg,egi->ei", self.wl, dp, self.n)

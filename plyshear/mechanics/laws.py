@@ -22,13 +22,13 @@ from dataclasses import dataclass
 import numpy as np
 
 from plyshear.model.joint import Bolt, Ply
+from plyshear.units import MM_PER_IN as IN
+from plyshear.units import MPA_PER_KSI as KSI
+from plyshear.units import N_PER_KIP as KIP
 
 #: Nonlinear law names :func:`curve` builds.
 NONLINEAR_LAWS: tuple[str, ...] = ("linear", "elastic-plastic", "plate-bearing", "bolt-shear")
 
-IN = 25.4  #: mm per inch (exact)
-KIP = 4448.2216152605  #: N per kip (exact, from 1 lbf = 0.45359237 kg × 9.80665 m/s²)
-KSI = KIP / IN**2  #: MPa per ksi (6.894757293168361)
 
 #: AISC 360-22 J3.10(a): nominal bearing strength 2.4 d t Fu, tied to a hole
 #: elongation of about 1/4 in (AISC 360-22 Commentary J3.10).

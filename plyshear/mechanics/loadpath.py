@@ -14,9 +14,9 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
+from plyshear.errors import ModelError
 from plyshear.mechanics import bearing
 from plyshear.model.joint import Joint
-from plyshear.model.modelfile import ModelError
 
 if TYPE_CHECKING:  # networkx costs 0.2 s to import: only the graph functions load it
     import networkx as nx

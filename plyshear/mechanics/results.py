@@ -164,12 +164,15 @@ class Solution:
     segment_forces: np.ndarray = field(default_factory=lambda: np.zeros((0, 0, 2)))
 
     @property
-    def planes(self) -> tuple[PlaneShear, ...]:
-        """The planes of the first (or only) bolt."""
+    def first_bolt_planes(self) -> tuple[PlaneShear, ...]:
+        """The planes of the first bolt only (the whole answer for a single bolt).
+
+        A bolt row has planes at every bolt: ``bolts[k].planes``.
+        """
         return self.bolts[0].planes
 
-    def plane_shears(self) -> np.ndarray:
-        """Resultant shear of every plane of the first bolt, N."""
+    def first_bolt_shears(self) -> np.ndarray:
+        """Resultant shear of every plane of the first bolt only, N."""
         return np.array([p.shear for p in self.bolts[0].planes])
 
     def to_dict(self, diagram: bool = True) -> dict[str, Any]:

@@ -113,7 +113,10 @@ class BoltSteel:
         eps = np.asarray(eps, dtype=float)
         if self.model == "elastic":
             return self.E * eps
-        return sum(np.clip(E * eps, -E * e0, E * e0) for E, e0 in self.parts())
+        out = np.zeros_like(eps)
+        for E, e0 in self.parts():
+            out = out + np.clip(E * eps, -E * e0, E * e0)
+        return out
 
 
 def _epp_circle(kappa: np.ndarray, r: np.ndarray, E: float, e0: float

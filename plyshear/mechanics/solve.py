@@ -12,16 +12,13 @@ from __future__ import annotations
 import numpy as np
 from scipy.linalg import lapack
 
+from plyshear.errors import SolveError
 from plyshear.mechanics.assembly import System, assemble
 from plyshear.mechanics.conditioning import scaled_condition
 from plyshear.mechanics.loadpath import require_load_path
 from plyshear.mechanics.recovery import Batch, recover
 from plyshear.mechanics.results import Solution
 from plyshear.model.joint import Joint
-
-
-class SolveError(RuntimeError):
-    """The system could not be solved (singular or not positive definite)."""
 
 
 def banded_matvec(ab: np.ndarray, x: np.ndarray) -> np.ndarray:

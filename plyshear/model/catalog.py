@@ -22,18 +22,13 @@ from fractions import Fraction
 from functools import cache, lru_cache
 from importlib import resources
 
-MM_PER_IN = 25.4
-"""Millimetres per inch (exact by definition)."""
-
-KSI_TO_MPA = 4448.2216152605 / 645.16
-"""MPa per ksi: one pound-force (4.4482216152605 N, exact) per square inch."""
+from plyshear.model.joint import HOLE_TYPES, STANDARDS
+from plyshear.units import MM_PER_IN, MPA_PER_KSI
 
 SIZE_TOL = 0.05
 """Tolerance, mm, when a diameter is matched against a tabulated size (inclusive)."""
 _ROUNDOFF = 1e-9  # mm: keeps the tolerance inclusive despite binary round-off
 
-HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
-STANDARDS = ("aisc360-22", "en1993-1-8")
 DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv",
               "nuts.csv")
 
@@ -168,7 +163,7 @@ def _to_mpa(value: float, unit: str) -> float:
     if unit == "MPa":
         return value
     if unit == "ksi":
-        return value * KSI_TO_MPA
+        return value * MPA_PER_KSI
     raise ValueError(f"unknown stress unit {unit!r} in the fastener table")
 
 

@@ -20,7 +20,11 @@ import numpy as np
 BEAM_THEORIES = ("timoshenko", "euler-bernoulli")
 THREAD_MODES = ("auto", "included", "excluded")
 END_FIXITIES = ("free", "clamped")
+#: The shared vocabularies, defined here only: the model file, the catalogue and the
+#: clause functions all take these names.
 HOLE_TYPES = ("standard", "oversized", "short-slot", "long-slot")
+STANDARDS = ("aisc360-22", "en1993-1-8")
+METHODS = ("lrfd", "asd")
 #: Bearing-law names a model file may give; plyshear.mechanics.bearing implements each.
 BEARING_LAWS = ("component", "elastic-plastic", "plate-bearing", "bolt-shear")
 CLEARANCE_MODES = ("fitted", "concentric", "offset")

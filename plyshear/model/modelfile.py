@@ -16,6 +16,7 @@ from pathlib import Path
 from typing import Any
 
 from plyshear import units as _units
+from plyshear.errors import ModelError
 from plyshear.model import catalog
 from plyshear.model.joint import (
     BEAM_THEORIES,
@@ -24,6 +25,8 @@ from plyshear.model.joint import (
     CLEARANCE_MODES,
     END_FIXITIES,
     HOLE_TYPES,
+    METHODS,
+    STANDARDS,
     THREAD_MODES,
     Analysis,
     Bolt,
@@ -48,8 +51,6 @@ MAX_MAGNITUDE = 1e12
 #: plate, and its cubes and inverses leave the range of double precision.
 MIN_LENGTH = 1e-6
 
-STANDARDS = ("aisc360-22", "en1993-1-8")
-METHODS = ("lrfd", "asd")
 #: Faying-surface classes: AISC 360-22 J3.8 (A, B); EN 1993-1-8 Table 3.7 (A to D).
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
@@ -77,25 +78,6 @@ LOAD_LEVELS = ("factored", "service")
 #: the moment and the shear of one section.
 PIN_INTERACTIONS = ("max-max", "same-section")
 
-
-class ModelError(ValueError):
-    """A model that cannot be used, with where and why.
-
-    Attributes:
-        path: The model file (or ``"<model>"``).
-        key: The key path, e.g. ``ply[2].thickness`` (may be empty).
-        message: What is wrong and what is expected.
-    """
-
-    def __init__(self, path: str, key: str, message: str) -> None:
-        self.path = path
-        self.key = key
-        self.message = message
-        super().__init__(str(self))
-
-    def __str__(self) -> str:
-        where = f"{self.path}: {self.key}: " if self.key else f"{self.path}: "
-        return where + self.message
 
 
 class _Reader:

@@ -11,8 +11,9 @@ from dataclasses import dataclass
 from typing import Any
 
 from plyshear import units as _units
-from plyshear.codes.check import CheckResult, load_level
+from plyshear.codes.check import load_level
 from plyshear.codes.resistance import design_factor
+from plyshear.codes.result import CheckResult
 from plyshear.mechanics.capacity import Answer, CapacitySummary, governing_lugs, lug_rules
 from plyshear.model.joint import Joint
 from plyshear.report.text import fmt

@@ -3,7 +3,8 @@
 Free functions that draw on an Axes (``plot_shear(solution, ax=None)``) and
 return it; :func:`solution_figure` composes the stack and the diagrams. Figures
 are built with :class:`matplotlib.figure.Figure` (no pyplot state, no
-``show()``), legible in greyscale: plies are told apart by hatching and grey
+``show()``, and so no global backend to select: a Figure saves itself through
+the canvas of the file format), legible in greyscale: plies are told apart by hatching and grey
 level, curves by line style.
 """
 
@@ -12,23 +13,19 @@ from __future__ import annotations
 import io
 from typing import Any
 
-import matplotlib
+import numpy as np
+from matplotlib.axes import Axes
+from matplotlib.figure import Figure
+from matplotlib.patches import Rectangle
+from matplotlib.ticker import MaxNLocator
 
-matplotlib.use("Agg")
-
-import numpy as np  # noqa: E402
-from matplotlib.axes import Axes  # noqa: E402
-from matplotlib.figure import Figure  # noqa: E402
-from matplotlib.patches import Rectangle  # noqa: E402
-from matplotlib.ticker import MaxNLocator  # noqa: E402
-
-from plyshear import units as _units  # noqa: E402
-from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
-from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
-from plyshear.mechanics.strengths import pin_hole  # noqa: E402
-from plyshear.mechanics.studies import PlanesRow, ScatterResult  # noqa: E402
-from plyshear.model.joint import Joint, Ply  # noqa: E402
-from plyshear.report.text import fmt  # noqa: E402
+from plyshear import units as _units
+from plyshear.mechanics.capacity import CapacitySummary
+from plyshear.mechanics.results import Solution, signed_resultant
+from plyshear.mechanics.strengths import pin_hole
+from plyshear.mechanics.studies import PlanesRow, ScatterResult
+from plyshear.model.joint import Joint, Ply
+from plyshear.report.text import fmt
 
 INK = "#1b1b1b"
 GREYS = ("#d9d9d9", "#9e9e9e", "#f2f2f2", "#6e6e6e", "#bdbdbd", "#ffffff")

@@ -21,11 +21,12 @@ from matplotlib.figure import Figure
 
 from plyshear import __version__
 from plyshear import units as _units
-from plyshear.codes.check import UNVERIFIED, CheckResult, check
+from plyshear.codes.check import check
 from plyshear.codes.resistance import nominal_bearing
-from plyshear.mechanics.capacity import CapacityError, CapacitySummary, summarize
+from plyshear.codes.result import UNVERIFIED, CheckResult
+from plyshear.errors import CapacityError
+from plyshear.mechanics.capacity import CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
-from plyshear.mechanics.solve import solve
 from plyshear.model.joint import Joint
 from plyshear.report import diagrams
 from plyshear.report.text import CAUTION, capacity_text, check_text, fmt, table
@@ -50,10 +51,10 @@ class ReportData:
     created: str
 
 
-def build(joint: Joint) -> ReportData:
-    """Solve, check and (where it converges) find the capacity of ``joint``."""
-    sol = solve(joint)
-    res = check(joint, sol)
+def build(sol: Solution) -> ReportData:
+    """Check a solved joint and (where it converges) find its capacity, on this one solve."""
+    joint = sol.joint
+    res = check(sol)
     try:
         cap: CapacitySummary | None = summarize(sol, nominal_bearing(joint))
         note = ""
@@ -71,13 +72,9 @@ def _created() -> str:
     return _dt.date.today().isoformat()
 
 
-def plane_utilization(res: CheckResult) -> dict[int, float]:
-    """Utilization of the bolt shear at each plane, by plane index."""
-    out: dict[int, float] = {}
-    for item in res.items:
-        if item.what in ("bolt shear", "pin shear") and item.where.startswith("plane "):
-            out[int(item.where.split()[1])] = item.utilization
-    return out
+def _first_bolt_utilization(res: CheckResult) -> dict[int, float]:
+    """The bolt-shear utilization of the first bolt's planes (the figures draw that bolt)."""
+    return {plane: u for (bolt, plane), u in res.plane_utilization().items() if bolt == 0}
 
 
 def _esc(text: object) -> str:
@@ -138,7 +135,7 @@ def model_rows(data: ReportData) -> dict[str, tuple[list[str], list[list[str]]]]
                       f"{u.label('stiffness')}"])
     planes = [[str(p.index), fmt(p.z / ln), f"{joint.plies[p.above].name} / "
                f"{joint.plies[p.below].name}", "included" if p.threads else "excluded"]
-              for p in sol.planes]
+              for p in sol.bolts[0].planes]  # every bolt of a row has the same planes
     return {
         "bolt": (["property", "value"], bolt_rows),
         "stack": (["#", "ply", "member", f"t [{ll}]", f"gap [{ll}]", "steel",
@@ -153,17 +150,22 @@ def result_rows(data: ReportData) -> dict[str, tuple[list[str], list[list[str]]]
     u = _units.system(joint.units)
     f, mo = u.factor("force"), u.factor("moment")
     lf, lm = u.label("force"), u.label("moment")
-    util = plane_utilization(data.check)
-    planes = [[str(p.index), fmt(p.shear / f), fmt(p.shear_xy[0] / f), fmt(p.shear_xy[1] / f),
-               fmt(p.moment / mo), f"{util[p.index]:.3f}" if p.index in util else "-"]
-              for p in sol.planes]
-    plies = [[joint.plies[pb.ply].name, joint.plies[pb.ply].member or "(filler)",
+    util = data.check.plane_utilization()
+    row = len(sol.bolts) > 1
+    first = ["bolt"] if row else []
+    planes = [[*([str(k + 1)] if row else []), str(p.index), fmt(p.shear / f),
+               fmt(p.shear_xy[0] / f), fmt(p.shear_xy[1] / f), fmt(p.moment / mo),
+               f"{util[(k, p.index)]:.3f}" if (k, p.index) in util else "-"]
+              for k, b in enumerate(sol.bolts) for p in b.planes]
+    plies = [[*([str(k + 1)] if row else []), joint.plies[pb.ply].name,
+              joint.plies[pb.ply].member or "(filler)",
               fmt(pb.force / f), fmt(pb.force_xy[0] / f), fmt(pb.force_xy[1] / f)]
-             for pb in sol.bolts[0].plies]
+             for k, b in enumerate(sol.bolts) for pb in b.plies]
     return {
-        "planes": (["plane", f"V [{lf}]", f"Vx [{lf}]", f"Vy [{lf}]", f"M [{lm}]",
+        "planes": ([*first, "plane", f"V [{lf}]", f"Vx [{lf}]", f"Vy [{lf}]", f"M [{lm}]",
                     "utilization"], planes),
-        "plies": (["ply", "member", f"bearing [{lf}]", f"x [{lf}]", f"y [{lf}]"], plies),
+        "plies": ([*first, "ply", "member", f"bearing [{lf}]", f"x [{lf}]", f"y [{lf}]"],
+                  plies),
     }
 
 
@@ -242,7 +244,8 @@ def to_html(data: ReportData) -> str:
     for name, (headers, rows) in model_rows(data).items():
         parts.append(f"<h3>{_esc(name)}</h3>" + _html_table(headers, rows))
     parts.append("<h2>2 Stack, shear, moment and bearing pressure along the bolt</h2>")
-    fig = diagrams.solution_figure(data.solution, plane_utilization(data.check), pressure=True)
+    util = _first_bolt_utilization(data.check)
+    fig = diagrams.solution_figure(data.solution, util, pressure=True)
     parts.append(f"<figure>{_svg(fig, 'stack')}<figcaption>Elevation of the stack (dimensions in "
                  f"{_esc(_units.system(joint.units).label('length'))}) beside the bolt's "
                  "shear (plane shears with their utilization), bending moment and bearing "
@@ -299,7 +302,7 @@ def to_pdf(data: ReportData) -> bytes:
         for name, (headers, rows) in result_rows(data).items():
             lines += [f"RESULTS: {name.upper()}", table(headers, rows), ""]
         _text_page(pdf, title, lines)
-        fig = diagrams.solution_figure(data.solution, plane_utilization(data.check),
+        fig = diagrams.solution_figure(data.solution, _first_bolt_utilization(data.check),
                                        pressure=True)
         fig.set_size_inches(11.69, 8.27)
         pdf.savefig(fig)

@@ -7,7 +7,8 @@ from collections.abc import Sequence
 import numpy as np
 
 from plyshear import units as _units
-from plyshear.codes.check import UNVERIFIED, CheckResult, fitted_holes_note
+from plyshear.codes.check import fitted_holes_note
+from plyshear.codes.result import UNVERIFIED, CheckResult
 from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
@@ -69,8 +70,8 @@ def solution_text(sol: Solution) -> str:
     bolt = joint.bolt
     out.append(f"{title}")
     out.append(f"bolt: d = {fmt(bolt.diameter / ln)} {ll}, grade {bolt.grade}, "
-               f"ends {bolt.ends}, {len(joint.plies)} plies, {len(sol.planes)} planes, "
-               f"units {joint.units}")
+               f"ends {bolt.ends}, {len(joint.plies)} plies, "
+               f"{len(sol.bolts[0].planes)} planes, units {joint.units}")
     out.append("")
     many = len(sol.bolts) > 1
     for k, b in enumerate(sol.bolts):
@@ -233,9 +234,9 @@ def capacity_text(summary: CapacitySummary, joint: Joint,
         rows.append([label, fmt(a.load / f), fmt(a.load * k / f),
                      f"{summary.efficiency(a.load):.2f}", what])
     title = joint.title or (joint.source or "joint")
-    a = joint.analysis
+    an = joint.analysis
     out = [title,
-           f"capacity: bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; "
+           f"capacity: bearing law {an.bearing}, bolt {an.bolt}, clearance {an.clearance}; "
            f"nominal strengths; design = nominal x {k:.3g} ({basis})",
            f"{summary.planes} plane{'s' * (summary.planes != 1)} between members; one plane's "
            "rupture strength "
@@ -375,12 +376,12 @@ def scatter_text(result: ScatterResult, joint: Joint) -> str:
 
 def row_text(sol: Solution) -> str:
     """The load share along a bolt row: each bolt's transferred force and worst plane."""
-    from plyshear.codes.check import bolt_loads
+    from plyshear.codes.common import bolt_loads
 
     joint = sol.joint
     u = _units.system(joint.units)
     f, lf, ln, ll = u.factor("force"), u.label("force"), u.factor("length"), u.label("length")
-    loads = bolt_loads(joint, sol)
+    loads = bolt_loads(sol)
     mean = float(loads.mean()) if loads.size else 0.0
     rows = [[str(k + 1), fmt(b.x / ln), fmt(loads[k] / f),
              f"{loads[k] / mean:.3f}" if mean > 0 else "-",

@@ -106,10 +106,10 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
     Returns:
         One row per case: column → value, in the model's units.
     """
+    from plyshear.errors import ModelError, SolveError
     from plyshear.mechanics.batch import solve_many
-    from plyshear.mechanics.solve import SolveError
     from plyshear.mechanics.solve import solve as solve_one
-    from plyshear.model.modelfile import ModelError, from_dict
+    from plyshear.model.modelfile import from_dict
 
     rows: list[dict[str, Any]] = []
     joints = []
@@ -158,7 +158,8 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
     import numpy as np
 
     from plyshear import units as _units
-    from plyshear.mechanics.capacity import CapacityError, elastic_capacity, pattern_total
+    from plyshear.errors import CapacityError
+    from plyshear.mechanics.capacity import elastic_capacity, pattern_total
 
     u = _units.system(joint.units)
     f, mo = u.factor("force"), u.factor("moment")
@@ -178,7 +179,7 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
         from plyshear.codes.check import check
 
         try:
-            res = check(joint, sol)
+            res = check(sol)
         except ValueError as exc:
             out["error"] = _error_text(exc, source)
         else:

@@ -42,7 +42,7 @@ def test_a307_shear_stress_does_not_depend_on_threads() -> None:
 
 
 def test_threads_included_is_eighty_percent_of_excluded_for_group_a() -> None:
-    # REFERENCES.md (common practice): 54/68 = 0.794, about 0.80
+    # docs/references.md (common practice): 54/68 = 0.794, about 0.80
     ratio = aisc.F_nv("A", False) / aisc.F_nv("A", True)
     assert ratio == pytest.approx(54.0 / 68.0, rel=REL_EXACT)
 
@@ -183,9 +183,12 @@ def test_pretension_group_c_not_tabulated() -> None:
         aisc.T_b_min(20.0, "C")
 
 
-def test_pretension_inch_and_metric_neighbours_are_distinct() -> None:
-    # 5/8 in (15.875 mm) and M16 are separate rows of Tables J3.1 / J3.1M
-    assert aisc.T_b_min(0.625 * IN, "A") != aisc.T_b_min(16.0, "A")
+def test_pretension_inch_and_metric_neighbours_are_their_own_rows() -> None:
+    # 5/8 in (15.875 mm) and M16 are separate rows of Tables J3.1 / J3.1M:
+    # AISC 360-22 Table J3.1, 5/8 in Group A: 19 kip; Table J3.1M, M16 Group A: 91 kN
+    kip = 4448.2216152605  # N, exact (1000 lbf)
+    assert aisc.T_b_min(0.625 * IN, "A") == pytest.approx(19.0 * kip, rel=1e-12)
+    assert aisc.T_b_min(16.0, "A") == pytest.approx(91.0e3, rel=1e-12)
 
 
 def test_filler_factor_ranges() -> None:

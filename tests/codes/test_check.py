@@ -217,7 +217,7 @@ def test_aisc_double_shear_is_checked_per_plane() -> None:
         assert plane.capacity == pytest.approx(single.capacity, rel=REL_EXACT)
         # symmetry: P/2 in each plane
         assert plane.demand == pytest.approx(load / 2 * KIP, rel=REL_STATICS)
-    # REFERENCES.md derived: 3/4 in Group A-N single 17.89 kip, double 35.79 kip (LRFD)
+    # docs/references.md derived: 3/4 in Group A-N single 17.89 kip, double 35.79 kip (LRFD)
     assert single.capacity / KIP == pytest.approx(17.89, rel=REL_TABLE_ROUNDING)
     assert 2 * single.capacity / KIP == pytest.approx(35.79, rel=REL_TABLE_ROUNDING)
 
@@ -247,7 +247,7 @@ AS_M20 = 245.0  # mm², ISO 898-1 stress area of M20
 FUB = {"8.8": 800.0, "10.9": 1000.0}  # MPa, ISO 898-1
 # EN 1993-1-8 Table 3.4: alpha_v through threads 0.6 (8.8) / 0.5 (10.9); shank 0.6
 ALPHA_V_THREADS = {"8.8": 0.6, "10.9": 0.5}
-# printed design tables (REFERENCES.md, read): M20 per plane through threads, kN
+# printed design tables (docs/references.md, read): M20 per plane through threads, kN
 PRINTED_THREADS_KN = {"8.8": 94.1, "10.9": 98.0}
 
 
@@ -307,7 +307,7 @@ def test_en_bearing_k1_alpha_b_worked_geometry() -> None:
     k1 = min(2.8 * e2 / d0 - 1.7, 2.5)  # Table 3.4, edge bolt, one line
     derived = k1 * alpha_b * fu * d * t / GAMMA_M2
     assert bearing.capacity == pytest.approx(derived, rel=REL_EXACT)
-    # REFERENCES.md derived: 104.8 kN
+    # docs/references.md derived: 104.8 kN
     assert bearing.capacity / KN == pytest.approx(104.8, rel=REL_TABLE_ROUNDING)
     assert bearing.demand == pytest.approx(80.0 * KN, rel=REL_STATICS)
     assert "d0 22 mm" in bearing.note
@@ -616,3 +616,44 @@ def test_en_pin_bearing_uses_the_lower_yield_of_pin_and_plate() -> None:
     assert item(res, "pin bearing", "ply inner").capacity == pytest.approx(
         1.5 * 20 * 30 * fy, rel=REL_EXACT
     )
+
+
+# EN 1993-1-8:2005 Table 3.4: M20 10.9 through the shank, 0.6 fub A / gamma_M2 (N);
+# 3.8(1): beta_Lf = 1 - (Lj - 15 d)/(200 d), Lj = 5 pitches of 70 mm.
+SPLICE_PLANE_RD = 0.6 * 1000.0 * math.pi * 20.0**2 / 4.0 / 1.25 * (
+    1.0 - (5 * 70.0 - 15 * 20.0) / (200 * 20.0))
+
+
+def test_items_of_a_bolt_row_are_placed_by_bolt_plane_and_ply() -> None:
+    from tests.conftest import MODELS
+
+    joint = plyshear.load_model(MODELS / "splice-six-bolts.toml")
+    sol = plyshear.solve(joint)
+    res = plyshear.check(sol)
+    shear = {(i.bolt, i.plane): i for i in res.items if i.what == "bolt shear"}
+    assert set(shear) == {(k, p.index) for k, b in enumerate(sol.bolts) for p in b.planes}
+    for (k, index), it in shear.items():
+        assert it.demand == pytest.approx(sol.bolts[k].planes[index - 1].shear, rel=1e-12)
+        assert it.capacity == pytest.approx(SPLICE_PLANE_RD, rel=1e-12)
+        assert it.where == f"bolt {k + 1}: plane {index}"
+    data = res.to_dict()
+    bearing = [i for i in data["items"] if i["what"] == "bearing"]
+    assert {(i["bolt"], i["ply"]) for i in bearing} == {
+        (k, name) for k in range(1, 7) for name in ("cover-outer", "chord-a", "cover-inner",
+                                                     "cover-back")}  # the pack is a filler
+    assert all(i["plane"] is None for i in bearing)
+
+
+def test_check_refuses_the_solution_of_another_joint() -> None:
+    import dataclasses
+
+    from tests.conftest import FORK
+
+    a = loads(FORK)
+    b = loads(FORK.replace("load = 100", "load = 120"))
+    with pytest.raises(ValueError, match="the solution is of another joint"):
+        plyshear.check(b, plyshear.solve(a))
+    # a joint that differs in its [check] settings only is checked, by its own settings,
+    # on the same solution
+    en = dataclasses.replace(a, check=dataclasses.replace(a.check, standard="en1993-1-8"))
+    assert plyshear.check(en, plyshear.solve(a)).standard == "en1993-1-8"

@@ -200,14 +200,14 @@ def test_brittle_capacity_is_the_elastic_first_failure(path) -> None:
 def test_brittle_plane_rupture_scales_the_linear_plane_shear() -> None:
     joint = _fork("component")
     sol = plyshear.solve(joint)
-    strength = 0.5 * max(p.shear for p in sol.planes)  # a plane rupture at half the load
-    lim = dataclasses.replace(_ample(joint), plane=np.full(len(sol.planes), strength),
+    strength = 0.5 * max(p.shear for p in sol.first_bolt_planes)  # a plane rupture at half the load
+    lim = dataclasses.replace(_ample(joint), plane=np.full(len(sol.first_bolt_planes), strength),
                               curves=_uncapped(joint).curves)
     result = capacity.analyse(joint, strength=lim)
     # statics of the linear solution: the load pattern scaled until the most
     # loaded plane reaches its strength
     pattern = sum(abs(float(np.dot(m.load, joint.load_axis()))) for m in joint.members)
-    expected = pattern * strength / max(p.shear for p in sol.planes)
+    expected = pattern * strength / max(p.shear for p in sol.first_bolt_planes)
     assert result.load == pytest.approx(expected, rel=REL_BISECTION)
     assert result.event.event == "plane shear rupture"
 

@@ -17,7 +17,7 @@ import numpy as np
 import pytest
 
 import plyshear
-from plyshear.codes.check import bolt_loads
+from plyshear.codes.common import bolt_loads
 from plyshear.model import modelfile
 from tests.conftest import MODELS
 
@@ -95,10 +95,38 @@ def test_three_bolt_lap_matches_tate_and_rosenfeld() -> None:
     assert forces[0] > forces[1]  # the end bolts carry more
 
 
+def _chain(n: int, kb: float, ka: float, kbb: float) -> np.ndarray:
+    """Bolt forces of n bolts as springs kb between two bars (segments ka, kbb).
+
+    The compatibility solution of the discrete lap joint (the module docstring's
+    model): P enters plate a at bolt 1, plate b is held past bolt n.
+    """
+    k = np.zeros((2 * n, 2 * n))  # a_0..a_{n-1}, b_0..b_{n-1}
+
+    def spring(i: int, j: int, stiffness: float) -> None:
+        k[np.ix_([i, j], [i, j])] += stiffness * np.array([[1.0, -1.0], [-1.0, 1.0]])
+
+    for i in range(n - 1):
+        spring(i, i + 1, ka)
+        spring(n + i, n + i + 1, kbb)
+    for i in range(n):
+        spring(i, n + i, kb)
+    f = np.zeros(2 * n)
+    f[0] = 100000.0
+    free = list(range(2 * n - 1))  # b_{n-1} held
+    u = np.zeros(2 * n)
+    u[free] = np.linalg.solve(k[np.ix_(free, free)], f[free])
+    return kb * (u[:n] - u[n:])
+
+
 def test_stiffer_plate_unloads_the_end_where_it_enters() -> None:
+    # plate a (twice as stiff) enters at bolt 1: the compatibility solution of the
+    # four-bolt chain, with the bolt's own spring from a one-bolt solve
+    kb = _bolt_spring(ta=20.0, tb=10.0)
+    ka, kbb = 210000.0 * 20.0 * 100.0 / PITCH, 210000.0 * 10.0 * 100.0 / PITCH
     forces = _bearing_a(plyshear.solve(_lap(4, ta=20.0, tb=10.0)))
-    # plate a (twice as stiff) enters at bolt 1: bolt 1 carries less than bolt 4
-    assert forces[0] < forces[-1]
+    assert forces == pytest.approx(_chain(4, kb, ka, kbb), rel=REL_ROUNDOFF)
+    assert forces[0] < forces[-1]  # and so bolt 1 carries less than bolt 4
 
 
 def test_rigid_plates_share_equally() -> None:
@@ -116,7 +144,7 @@ def test_balanced_double_cover_splice_is_symmetric() -> None:
     joint = modelfile.loads(text)
     # put a in the middle: b / a / b2
     joint = dataclasses.replace(joint, plies=(joint.plies[1], joint.plies[0], joint.plies[2]))
-    loads = bolt_loads(joint, plyshear.solve(joint))
+    loads = bolt_loads(plyshear.solve(joint))
     assert loads == pytest.approx(loads[::-1], rel=1e-9)  # symmetry of the row
     assert loads[0] > loads[2]
 

@@ -80,7 +80,7 @@ def test_same_joint_in_kn_mm_and_kip_in_gives_the_same_results() -> None:
                 py=-30e3 / N_PER_KIP)
     a = plyshear.solve(modelfile.loads(KN_MM.format(**metric)))
     b = plyshear.solve(modelfile.loads(KIP_IN.format(**{k: repr(v) for k, v in inch.items()})))
-    assert b.plane_shears() == pytest.approx(a.plane_shears(), rel=REL_ROUNDOFF)
+    assert b.first_bolt_shears() == pytest.approx(a.first_bolt_shears(), rel=REL_ROUNDOFF)
     assert b.bolts[0].max_moment == pytest.approx(a.bolts[0].max_moment, rel=REL_ROUNDOFF)
     # and the JSON of each is in its own units
     ja, jb = a.to_dict(diagram=False), b.to_dict(diagram=False)
@@ -96,13 +96,13 @@ def test_thread_position_from_length_and_thread_length() -> None:
     joint = modelfile.loads(text)
     sol = plyshear.solve(joint)
     # geometry: the thread starts 60 - 35 = 25 mm under the head; planes at 10 and 30 mm
-    assert [p.threads for p in sol.planes] == [False, True]
+    assert [p.threads for p in sol.first_bolt_planes] == [False, True]
 
 
 def test_unknown_thread_geometry_assumes_threads_in_every_plane() -> None:
     joint = modelfile.loads(FORK)
     assert joint.bolt.threads_assumed
-    assert all(p.threads for p in plyshear.solve(joint).planes)
+    assert all(p.threads for p in plyshear.solve(joint).first_bolt_planes)
 
 
 def test_thread_length_defaults_from_the_bolt_standard() -> None:

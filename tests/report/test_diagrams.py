@@ -63,3 +63,22 @@ def test_no_pyplot_state_is_left_behind() -> None:
 
         assert plt.get_fignums() == []
     assert matplotlib.get_backend().lower() == "agg"
+
+
+def test_importing_the_figures_selects_no_backend(tmp_path) -> None:
+    # the user's backend stays theirs (MPLBACKEND, matplotlib's documented variable);
+    # figures are still written, through the canvas of the file format
+    import os
+    import subprocess
+    import sys
+
+    code = ("import sys, matplotlib\n"
+            "from plyshear.report import diagrams\n"
+            "from matplotlib.figure import Figure\n"
+            "fig = Figure()\nfig.add_subplot().plot([0, 1], [1, 0])\n"
+            "png = diagrams.figure_bytes(fig, 'png')\n"
+            "print(matplotlib.get_backend(), 'matplotlib.pyplot' in sys.modules, png[:4])")
+    env = {**os.environ, "MPLBACKEND": "svg"}
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True, timeout=120, env=env, cwd=tmp_path)
+    assert out.stdout.split() == ["svg", "False", r"b'\x89PNG'"]

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import io
 import json
+import math
 from html.parser import HTMLParser
 from pathlib import Path
 
@@ -122,3 +123,50 @@ def test_report_needs_html_or_pdf(tmp_path) -> None:
                                        str(tmp_path / "r.docx")])
     assert result.exit_code == EXIT_BAD_INPUT
     assert ".html or .pdf" in result.output
+
+
+class _Tables(HTMLParser):
+    """Collect every table as rows of cell texts (header row first)."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.tables: list[list[list[str]]] = []
+        self._cell: list[str] | None = None
+
+    def handle_starttag(self, tag, attrs) -> None:
+        if tag == "table":
+            self.tables.append([])
+        elif tag == "tr" and self.tables:
+            self.tables[-1].append([])
+        elif tag in ("td", "th"):
+            self._cell = []
+
+    def handle_endtag(self, tag) -> None:
+        if tag in ("td", "th") and self._cell is not None:
+            self.tables[-1][-1].append("".join(self._cell).strip())
+            self._cell = None
+
+    def handle_data(self, data) -> None:
+        if self._cell is not None:
+            self._cell.append(data)
+
+
+# EN 1993-1-8:2005 Table 3.4, M20 class 10.9 through the shank: alpha_v 0.6, gross
+# area, gamma_M2 1.25; 3.8(1): beta_Lf = 1 - (Lj - 15 d) / (200 d) for Lj = 5 x 70 mm.
+SPLICE_F_V_RD = 0.6 * 1000.0 * math.pi * 20.0**2 / 4.0 / 1.25 / 1000.0  # kN
+SPLICE_BETA_LF = 1.0 - (5 * 70.0 - 15 * 20.0) / (200 * 20.0)
+ABS_3_DECIMALS = 5e-4  # the report prints utilizations to three decimals
+
+
+def test_bolt_row_report_shows_every_bolts_plane_utilizations(tmp_path) -> None:
+    path = MODELS / "splice-six-bolts.toml"
+    tables = _Tables()
+    tables.feed(_report(tmp_path, path, ".html").read_text(encoding="utf-8"))
+    (planes,) = [t for t in tables.tables if t and t[0][:2] == ["bolt", "plane"]]
+    header, rows = planes[0], planes[1:]
+    util = {(int(r[0]), int(r[1])): float(r[header.index("utilization")]) for r in rows}
+    solved = json.loads(CliRunner().invoke(main, ["solve", str(path), "--json"]).output)
+    expected = {(k, p["index"]): p["shear"] / (SPLICE_F_V_RD * SPLICE_BETA_LF)
+                for k, bolt in enumerate(solved["bolts"], start=1) for p in bolt["planes"]}
+    assert len(expected) == 6 * 4  # six bolts, four planes each (five plies)
+    assert util == pytest.approx(expected, abs=ABS_3_DECIMALS)

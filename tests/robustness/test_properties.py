@@ -2,10 +2,13 @@
 
 Random stacks of 2 to 30 plies, thicknesses across three orders of magnitude
 (0.5 to 500 mm, the ratio of any two at most 1000), 2 to 4 members, loose
-fillers, gaps, loads in x and y, free or clamped ends, in the kN-mm and the
-kip-in systems. The properties:
+fillers, gaps, loads in x and y, free or clamped ends, single bolts and rows
+of 2 to 4 bolts (members entering before or after the row), in the kN-mm and
+the kip-in systems. The properties:
 
-* every result is finite;
+* every result of every bolt is finite;
+* statics of a row: each member's bearings, summed over the bolts, balance its
+  load (a support's take the rest);
 * the equilibrium residual is at round-off (below 1e-6 of the load), or the
   solution says it is ill-conditioned;
 * a determinate stack (one ply per member, one support) gives the shears of
@@ -57,7 +60,10 @@ T_MIN, T_MAX = 0.5, 500.0
 
 @st.composite
 def joints(draw: Any, determinate: bool = False) -> dict[str, Any]:
-    """A valid model (as parsed TOML, kN-mm) with its stack drawn at random."""
+    """A valid model (as parsed TOML, kN-mm) with its stack drawn at random.
+
+    A determinate stack has one bolt; the others are a bolt row one time in two.
+    """
     n = draw(st.integers(2, 30))
     lo = draw(st.floats(math.log10(T_MIN), math.log10(T_MAX) - 1.0))
     span = draw(st.floats(1.0, min(3.0, math.log10(T_MAX) - lo)))  # ratio ≤ 1000
@@ -96,7 +102,7 @@ def joints(draw: Any, determinate: bool = False) -> dict[str, Any]:
             fx = draw(st.floats(-500, 500).filter(lambda v: abs(v) > 1))
             fy = draw(st.floats(-500, 500))
             members[f"m{m}"] = {"load": [fx, fy]}
-    return {
+    out: dict[str, Any] = {
         "format": 1, "units": "kN-mm",
         "bolt": {"diameter": draw(st.sampled_from([0.625, 0.75, 0.875, 1.0, 1.125])) * MM_PER_IN,
                  "grade": "8.8", "threads": "excluded",
@@ -104,6 +110,14 @@ def joints(draw: Any, determinate: bool = False) -> dict[str, Any]:
         "ply": plies, "member": members,
         "analysis": {"elements_per_ply": draw(st.integers(2, 8))},
     }
+    count = 1 if determinate else draw(st.sampled_from([1, 1, 1, 2, 3, 4]))
+    if count > 1:
+        out["pattern"] = {"count": count, "pitch": _dyadic_mm(draw(st.floats(40.0, 120.0)))}
+        for ply in plies:
+            ply["width"] = _dyadic_mm(draw(st.floats(50.0, 300.0)))
+        for member in members.values():
+            member["enters"] = draw(st.sampled_from(["before", "after"]))
+    return out
 
 
 def _dyadic_mm(mm: float) -> float:
@@ -120,20 +134,29 @@ def in_kip_in(data: dict[str, Any]) -> dict[str, Any]:
     """The same model written in kip-in (exact conversions)."""
     out = {**data, "units": "kip-in", "bolt": {**data["bolt"]}}
     out["bolt"]["diameter"] = data["bolt"]["diameter"] / MM_PER_IN
+    if "pattern" in data:
+        out["pattern"] = {**data["pattern"], "pitch": data["pattern"]["pitch"] / MM_PER_IN}
     out["ply"] = []
     for p in data["ply"]:
         q = {**p, "thickness": p["thickness"] / MM_PER_IN, "fy": p["fy"] / MPA_PER_KSI,
              "fu": p["fu"] / MPA_PER_KSI}
-        if "gap" in p:
-            q["gap"] = p["gap"] / MM_PER_IN
+        for key in ("gap", "width"):
+            if key in p:
+                q[key] = p[key] / MM_PER_IN
         out["ply"].append(q)
-    out["member"] = {k: ({"load": [f / KN_PER_KIP for f in v["load"]]} if "load" in v else v)
+    out["member"] = {k: ({**v, "load": [f / KN_PER_KIP for f in v["load"]]} if "load" in v
+                         else v)
                      for k, v in data["member"].items()}
     return out
 
 
 def shears(sol: Any) -> np.ndarray:
-    return np.array([p.shear_xy for p in sol.planes])
+    """Plane shears of every bolt, shape (bolts, planes, 2)."""
+    return np.array([[p.shear_xy for p in b.planes] for b in sol.bolts])
+
+
+def max_moments(sol: Any) -> np.ndarray:
+    return np.array([b.max_moment for b in sol.bolts])
 
 
 def load_scale(joint: Any) -> float:
@@ -141,9 +164,9 @@ def load_scale(joint: Any) -> float:
 
 
 def assert_sound(sol: Any) -> None:
-    b = sol.bolts[0]
-    for arr in (b.V, b.M, b.w):
-        assert np.all(np.isfinite(arr))
+    for b in sol.bolts:
+        for arr in (b.V, b.M, b.w):
+            assert np.all(np.isfinite(arr))
     assert np.all(np.isfinite(shears(sol)))
     assert math.isfinite(sol.equilibrium_residual)
     ill = any("ill-conditioned" in w for w in sol.warnings)
@@ -154,7 +177,17 @@ def assert_sound(sol: Any) -> None:
 @given(joints())
 def test_results_are_finite_and_in_equilibrium(data: dict[str, Any]) -> None:
     joint = modelfile.from_dict(data)
-    assert_sound(plyshear.solve(joint))
+    sol = plyshear.solve(joint)
+    assert_sound(sol)
+    # statics: a loaded member's plies take, over all bolts, the member's load back
+    scale = load_scale(joint)
+    for m in joint.members:
+        if m.support:
+            continue
+        taken = sum(np.array(pb.force_xy) for b in sol.bolts for pb in b.plies
+                    if joint.plies[pb.ply].member == m.name)
+        assert taken == pytest.approx(-np.array(m.load), rel=RESIDUAL_ROUNDOFF,
+                                      abs=RESIDUAL_ROUNDOFF * scale)
 
 
 @SETTINGS
@@ -174,7 +207,7 @@ def test_a_determinate_stack_gives_statics(data: dict[str, Any]) -> None:
     assert len(held) == 1
     bearing[held[0]] = -bearing.sum(axis=0)
     statics = np.cumsum(bearing, axis=0)[:-1]  # V at plane k: plies 0..k on the head side
-    assert shears(sol) == pytest.approx(statics, rel=REL_STATICS,
+    assert shears(sol)[0] == pytest.approx(statics, rel=REL_STATICS,
                                         abs=REL_STATICS * load_scale(joint))
 
 
@@ -186,12 +219,12 @@ def test_results_do_not_depend_on_the_unit_system(data: dict[str, Any]) -> None:
     a, b = plyshear.solve(metric), plyshear.solve(inch)
     scale = load_scale(metric)
     assert shears(b) == pytest.approx(shears(a), rel=REL_UNITS, abs=REL_UNITS * scale)
-    assert b.bolts[0].max_moment == pytest.approx(a.bolts[0].max_moment, rel=REL_UNITS,
-                                                  abs=REL_UNITS * scale * T_MIN)
+    assert max_moments(b) == pytest.approx(max_moments(a), rel=REL_UNITS,
+                                           abs=REL_UNITS * scale * T_MIN)
     # and the JSON in each system's own units converts back
     ja, jb = a.to_dict(), b.to_dict()
-    va = np.array([p["shear_xy"] for p in ja["bolts"][0]["planes"]])
-    vb = np.array([p["shear_xy"] for p in jb["bolts"][0]["planes"]]) * KN_PER_KIP
+    va = np.array([p["shear_xy"] for b in ja["bolts"] for p in b["planes"]])
+    vb = np.array([p["shear_xy"] for b in jb["bolts"] for p in b["planes"]]) * KN_PER_KIP
     assert vb == pytest.approx(va, rel=REL_UNITS, abs=REL_UNITS * scale / 1000.0)
 
 
@@ -205,9 +238,10 @@ def test_mirroring_the_stack_reverses_the_planes(data: dict[str, Any]) -> None:
     a, b = plyshear.solve(joint), plyshear.solve(mirror)
     assert_sound(b)
     scale = load_scale(joint)
-    assert shears(b) == pytest.approx(-shears(a)[::-1], rel=REL_MIRROR, abs=REL_MIRROR * scale)
-    assert b.bolts[0].max_moment == pytest.approx(a.bolts[0].max_moment, rel=REL_MIRROR,
-                                                  abs=REL_MIRROR * scale * T_MIN)
+    assert shears(b) == pytest.approx(-shears(a)[:, ::-1], rel=REL_MIRROR,
+                                      abs=REL_MIRROR * scale)
+    assert max_moments(b) == pytest.approx(max_moments(a), rel=REL_MIRROR,
+                                           abs=REL_MIRROR * scale * T_MIN)
 
 
 def test_max_moment_is_continuous_in_the_thickness() -> None:

@@ -219,6 +219,14 @@ def test_a_ply_outside_plate_sizes_names_the_units(t) -> None:
     assert found[0].startswith(f"ply[2] 'lug'.thickness: {t} mm as read with units = \"kN-mm\"")
 
 
-def test_warnings_is_pure() -> None:
-    joint = _joint(_edit("thickness = 20", "thickness = 5"))
-    assert sanity.warnings(joint) == sanity.warnings(joint)
+@pytest.mark.parametrize(("t", "warned"), [("5.99", True), ("6.01", False)])
+def test_a_ply_thinner_than_a_quarter_of_the_bolt_is_a_shim(t, warned) -> None:
+    # common practice, no source: a ply under d/4 (M24: 6 mm) bears as a shim
+    joint = _joint(_edit("thickness = 20", f"thickness = {t}"))
+    found = [w for w in sanity.warnings(joint) if "0.25 d" in w]
+    assert bool(found) == warned, found
+    if warned:
+        assert found[0].startswith(f"ply[2] 'lug'.thickness: {t} mm is less than "
+                                   f"0.25 d = {0.25 * 24:g} mm")
+    # and the warnings leave the joint as it was (frozen: the same solve after)
+    assert joint.plies[1].thickness == pytest.approx(float(t), rel=1e-15)

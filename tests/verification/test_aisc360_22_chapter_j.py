@@ -30,7 +30,7 @@ KIP = 1000.0 * LBF  # N
 
 # Arithmetic in double precision on exact conversions: only round-off remains.
 REL_EXACT = 1e-12
-# Values printed to 2 decimals (REFERENCES.md derived strengths): half a unit in
+# Values printed to 2 decimals (docs/references.md derived strengths): half a unit in
 # the last place relative to ~10 kips is < 5e-4.
 REL_TWO_DECIMALS = 5e-4
 # Values printed to 3 significant figures (design examples, Manual tables).
@@ -108,7 +108,7 @@ def test_table_j3_2_a307_grip_note_one_percent_per_sixteenth() -> None:
     assert aisc.A307_long_grip_factor(grip, d) == pytest.approx(0.97, rel=REL_EXACT)
 
 
-# --- J3.6 derived available strengths (REFERENCES.md) -----------------------
+# --- J3.6 derived available strengths (docs/references.md) -----------------------
 
 
 def test_j3_6_five_eighths_group_a_n_single_shear_lrfd() -> None:
@@ -132,7 +132,7 @@ def test_j3_6_three_quarter_group_a_n_single_and_double_shear_lrfd() -> None:
     single = aisc.available(rn, "lrfd", phi=0.75, omega=2.00) / KIP
     # derived: 0.75*54 ksi*pi/4*(0.75 in)^2 = 17.89 kips
     assert single == pytest.approx(17.89, rel=REL_TWO_DECIMALS)
-    # derived: two planes, 35.78 kips (REFERENCES.md prints 35.79, a rounding of
+    # derived: two planes, 35.78 kips (docs/references.md prints 35.79, a rounding of
     # 2 x 17.892); from memory: AISC Manual Table 7-1 prints 17.9 / 35.8.
     assert 2.0 * single == pytest.approx(35.79, rel=REL_TWO_DECIMALS)
     assert 2.0 * single == pytest.approx(35.8, rel=REL_TABLE_ROUNDING)
@@ -188,7 +188,7 @@ def test_table_j3_1m_minimum_pretension_metric(d_mm: float, group_a: float, grou
 def test_table_j3_1_is_seventy_percent_of_tensile_strength() -> None:
     # AISC 360 Table J3.1 footnote (read): Tb = 0.70 x minimum tensile strength,
     # rounded to the nearest kip. A325 3/4 in: 120 ksi x 0.334 in² (stress area,
-    # REFERENCES.md) x 0.70 = 28.06 -> 28 kips.
+    # docs/references.md) x 0.70 = 28.06 -> 28 kips.
     assert aisc.T_b_min(0.75 * IN, "A") / KIP == pytest.approx(
         0.70 * 120.0 * 0.334, abs=0.5
     )  # half a kip: the table's rounding

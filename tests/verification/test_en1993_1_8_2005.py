@@ -13,9 +13,9 @@ References:
     62.8 / 98 / 141 / 224 kN; slip resistance at SLS, μ = 0.5, single
     shear, M20 8.8: 62.4 kN; at ULS (countersunk table, same slip rule):
     M20 8.8, μ = 0.5, single: 54.9 kN.
-    The packing example βp(d = 20, tp = 30) = 0.72 is from REFERENCES.md (read).
+    The packing example βp(d = 20, tp = 30) = 0.72 is from docs/references.md (read).
 
-Stress areas As (mm²) are from ISO 898-1 (REFERENCES.md, read).
+Stress areas As (mm²) are from ISO 898-1 (docs/references.md, read).
 """
 
 from __future__ import annotations
@@ -65,7 +65,7 @@ def test_table_3_4_shear_through_shank_uses_alpha_06_and_gross_area() -> None:
 
 
 def test_table_3_4_bearing_m20_end_and_edge_bolt() -> None:
-    # derived (REFERENCES.md): M20, d0 22, t 10, fu 510, e1 40, e2 30, fub 800:
+    # derived (docs/references.md): M20, d0 22, t 10, fu 510, e1 40, e2 30, fub 800:
     # alpha_b = 40/66 = 0.606, k1 = 2.8*30/22 - 1.7 = 2.118 -> 104.8 kN
     ab = ec.alpha_b(e_1=40.0, p_1=None, d_0=22.0, f_ub=800.0, f_u=510.0, end_bolt=True)
     k1 = ec.k_1(e_2=30.0, p_2=None, d_0=22.0, edge_bolt=True)
@@ -89,7 +89,7 @@ def test_table_3_4_combined_shear_tension_at_limit() -> None:
 
 
 def test_clause_3_6_1_12_packing_d20_tp30() -> None:
-    # REFERENCES.md (read): d 20, tp 30 -> beta_p = 9*20/(160 + 90) = 0.72
+    # docs/references.md (read): d 20, tp 30 -> beta_p = 9*20/(160 + 90) = 0.72
     assert ec.beta_p(20.0, 30.0) == pytest.approx(0.72, rel=REL_EXACT)
 
 
@@ -164,5 +164,5 @@ def test_table_3_10_pin_in_clevis() -> None:
 
 
 def test_clevis_moment_matches_knuckle_joint_statics() -> None:
-    # REFERENCES.md: knuckle joint, no gap, uniform bearing: M = F(2a + b)/8
+    # docs/references.md: knuckle joint, no gap, uniform bearing: M = F(2a + b)/8
     assert ec.M_Ed_clevis(8.0, a=3.0, b=5.0, c=0.0) == pytest.approx(2 * 3.0 + 5.0, rel=REL_EXACT)

@@ -126,7 +126,7 @@ def test_summary_plastic_bound_of_the_fork_example() -> None:
     summary = capacity.summarize(joint)
     sol = plyshear.solve(joint)
     # Kulak, Fisher & Struik (1987): 0.62 fub A, A by the thread at each plane
-    r = [capacity.plane_strength(joint, p.threads) for p in sol.planes]
+    r = [capacity.plane_strength(joint, p.threads) for p in sol.first_bolt_planes]
     # AISC 360-22 J3.10(a)(1): min(2.4 d t Fu, 1.2 lc t Fu), lc = edge - dh/2, with
     # dh = d + 2 mm for an M24 in a normal hole (EN 1090-2:2018 Table 11)
     d = joint.bolt.diameter

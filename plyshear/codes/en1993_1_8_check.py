@@ -13,56 +13,37 @@ from __future__ import annotations
 
 import numpy as np
 
+from plyshear.codes import common
 from plyshear.codes import en1993_1_8 as en
-from plyshear.codes.check import (
-    CheckItem,
-    CheckResult,
-    bolt_section_diameter,
-    force_str,
-    geometry_notes,
-    joint_length,
-    length_str,
-    node_threads,
-    pack_at_plane,
-    resultants,
-    row_note,
-    slip_planes,
-    tag_bolt,
-    transferred_force,
-)
-from plyshear.codes.clause import cited
-from plyshear.mechanics.results import BoltResult, Solution
-from plyshear.model import catalog
+from plyshear.codes.clause import Clause, cited
+from plyshear.codes.result import CheckItem
+from plyshear.mechanics.results import BoltResult
 from plyshear.model.joint import Joint
+from plyshear.units import force_str, length_str
 
 SURFACE_DEFAULT = "D"  # Table 3.7: the lowest class, when none is given
 
 
-def _noun(joint: Joint) -> str:
-    return "pin" if joint.check.connector == "pin" else "bolt"
-
-
-def check(joint: Joint, solution: Solution) -> CheckResult:
-    """Check ``joint`` to EN 1993-1-8:2005 with the recommended partial factors."""
-    notes = geometry_notes(joint)
+def _notes(joint: Joint) -> list[str]:
     grade = joint.bolt.grade
-    if grade not in en.BOLT_CLASSES:
-        notes.append(f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
-                     "alpha_v taken as for class 10.9 (0.5 through threads)")
-    items: list[CheckItem] = []
-    count = len(solution.bolts)
-    for k, bolt in enumerate(solution.bolts):
-        items += tag_bolt(_shear(joint, bolt) + _bearing(joint, bolt)
-                          + _bolt_items(joint, bolt, notes), k, count)
-    length = joint_length(joint)
-    d = joint.bolt.diameter
-    note = row_note(joint, solution, en.beta_Lf(length, d) if length > 15 * d else 1.0,
-                    "EN 1993-1-8 3.8 beta_Lf")
-    if note:
-        notes.append(note)
-    return CheckResult(standard="en1993-1-8", method="partial-factors", edition=en.STANDARD,
-                       items=tuple(items), notes=tuple(dict.fromkeys(notes)),
-                       units=joint.units)
+    if grade in en.BOLT_CLASSES:
+        return []
+    return [f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
+            "alpha_v taken as for class 10.9 (0.5 through threads)"]
+
+
+def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list[CheckItem]:
+    return _shear(joint, bolt) + _bearing(joint, bolt) + _bolt_items(joint, bolt, notes)
+
+
+def _beta_lf(joint: Joint) -> float:
+    """βLf of 3.8 for the row's length (1 up to 15 d)."""
+    length, d = common.joint_length(joint), joint.bolt.diameter
+    return en.beta_Lf(length, d) if length > 15 * d else 1.0
+
+
+def _long_joint(joint: Joint) -> tuple[float, str]:
+    return _beta_lf(joint), "EN 1993-1-8 3.8 beta_Lf"
 
 
 def _alpha_v(grade: str, threads: bool) -> float:
@@ -71,7 +52,7 @@ def _alpha_v(grade: str, threads: bool) -> float:
     return en.alpha_v("10.9", threads)
 
 
-def plane_resistance(joint: Joint, threads: bool) -> tuple[float, list]:
+def plane_resistance(joint: Joint, threads: bool) -> tuple[float, list[Clause]]:
     """Return F_v,Rd of one plane (N) and the clauses used, before βp and βLf."""
     b = joint.bolt
     area = b.stress_area if threads else b.gross_area
@@ -82,13 +63,12 @@ def plane_resistance(joint: Joint, threads: bool) -> tuple[float, list]:
 
 def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     d = joint.bolt.diameter
-    length = joint_length(joint)
-    beta_lf = en.beta_Lf(length, d) if length > 15 * d else 1.0
+    beta_lf = _beta_lf(joint)
     items = []
     for p in bolt.planes:
         frd, clauses = plane_resistance(joint, p.threads)
         note = "through threads (As)" if p.threads else "through shank (gross area)"
-        tp = pack_at_plane(joint, p.above, p.below)
+        tp = common.pack_at_plane(joint, p.above, p.below)
         if tp > 0:
             bp = en.beta_p(d, tp)
             frd *= bp
@@ -98,33 +78,25 @@ def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             frd *= beta_lf
             clauses.append(cited(en.beta_Lf))
             note += f", beta_Lf {beta_lf:.3f}"
-        items.append(CheckItem(f"{_noun(joint)} shear", f"plane {p.index}", p.shear, frd, "force",
-                               tuple(clauses), note=note))
+        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, frd, "force", tuple(clauses),
+                               **common.at_plane(p), note=note))
     return items
 
 
 def _hole(joint: Joint) -> float:
-    d = joint.bolt.diameter
-    try:
-        return catalog.hole_diameter(d, joint.bolt.hole, "en1993-1-8")
-    except catalog.CatalogError:
-        return d + 2.0
+    return common.hole_diameter(joint, "en1993-1-8", 2.0)
 
 
 def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     b = joint.bolt
     d0 = _hole(joint)
     items = []
-    for pb in bolt.plies:
-        ply = joint.plies[pb.ply]
-        if ply.is_filler:
-            continue
-        where = f"ply {ply.name}"
+    for pb, ply, where in common.bearing_plies(joint, bolt):
         if joint.check.connector == "pin":
             # Table 3.10: fy is the lower of the pin's and the plate's yield strength
             frd = en.F_b_Rd_pin(ply.thickness, b.diameter, min(ply.fy, b.fyb))
-            items.append(CheckItem("pin bearing", where, pb.force, frd, "force",
-                                   (cited(en.F_b_Rd_pin),)))
+            items.append(CheckItem("pin bearing", pb.force, frd, "force",
+                                   (cited(en.F_b_Rd_pin),), **where))
             continue
         e2 = ply.width / 2.0 if ply.width is not None else None
         k1_note = ""
@@ -142,16 +114,16 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             else:
                 k1 = en.k_1(e2, None, d0, edge_bolt=True)
         except ValueError as exc:
-            items.append(CheckItem("edge distance", where, en.e_min(d0),
+            items.append(CheckItem("edge distance", en.e_min(d0),
                                    min(v for v in (ply.edge, e2) if v is not None), "length",
-                                   (cited(en.e_min),), note=str(exc)))
+                                   (cited(en.e_min),), **where, note=str(exc)))
             continue
         factor = en.bearing_hole_factor(b.hole)
         frd = en.F_b_Rd(k1, ab, ply.fu, b.diameter, ply.thickness) * factor
         clauses = [cited(en.alpha_b), cited(en.k_1), cited(en.F_b_Rd)]
         if factor < 1.0:
             clauses.append(cited(en.bearing_hole_factor))
-        items.append(CheckItem("bearing", where, pb.force, frd, "force", tuple(clauses),
+        items.append(CheckItem("bearing", pb.force, frd, "force", tuple(clauses), **where,
                                note=f"k1 {k1:.2f}, alpha_b {ab:.2f}, "
                                     f"d0 {length_str(joint.units, d0)}{k1_note}"))
     return items
@@ -183,7 +155,7 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
                 f"{length_str(joint.units, float(zs[j]))}), conservative; [check] "
                 f"pin_interaction = \"same-section\" takes M and Fv of one section")
         z = float(zs[i])
-    return CheckItem("bending + shear", "bolt", value, 1.0, "ratio",
+    return CheckItem("bending + shear", value, 1.0, "ratio",
                      (cited(en.pin_interaction),), informative=informative, z=z,
                      note=rule + tail)
 
@@ -193,18 +165,18 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     pin = joint.check.connector == "pin"
     items = []
     # Bending and bending + shear along the bolt (Table 3.10; for bolts informative).
-    m = resultants(bolt.M)
-    v = resultants(bolt.V)
-    threads = node_threads(joint, bolt)
+    m = common.resultants(bolt.M)
+    v = common.resultants(bolt.V)
+    threads = joint.bolt.threaded_along(bolt.z)
     # two sections at most (shank, thread): each resistance once, then spread on the nodes
-    by_section = {t: (en.M_Rd_pin(bolt_section_diameter(joint, t), b.fyb),
+    by_section = {t: (en.M_Rd_pin(common.bolt_section_diameter(joint, t), b.fyb),
                       plane_resistance(joint, t)[0]) for t in {bool(t) for t in threads}}
     mrd = np.array([by_section[bool(t)][0] for t in threads])
     vrd = np.array([by_section[bool(t)][1] for t in threads])
     i = int(np.argmax(m / mrd))
     informative = not pin
     tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
-    items.append(CheckItem(f"{_noun(joint)} bending", "bolt", float(m[i]),
+    items.append(CheckItem(f"{common.noun(joint)} bending", float(m[i]),
                            float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
                            informative=informative, z=float(bolt.z[i]),
                            note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
@@ -212,19 +184,19 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     # Tension and combined (Table 3.4).
     if b.tension > 0:
         ftrd = en.F_t_Rd(b.fub, b.stress_area)
-        items.append(CheckItem("bolt tension", "bolt", b.tension, ftrd, "force",
+        items.append(CheckItem("bolt tension", b.tension, ftrd, "force",
                                (cited(en.F_t_Rd),)))
         worst = max(bolt.planes, key=lambda p: p.shear / plane_resistance(joint, p.threads)[0])
         fvrd = plane_resistance(joint, worst.threads)[0]
         value = en.shear_tension_interaction(worst.shear, fvrd, b.tension, ftrd)
-        items.append(CheckItem("tension + shear", f"bolt, plane {worst.index}", value, 1.0,
-                               "ratio", (cited(en.shear_tension_interaction),)))
+        items.append(CheckItem("tension + shear", value, 1.0, "ratio",
+                               (cited(en.shear_tension_interaction),), plane=worst.index))
     # Slip (3.9).
     if joint.check.slip_critical or b.pretension > 0:
         fpc = b.pretension if b.pretension > 0 else en.F_p_C(b.fub, b.stress_area)
         surface = joint.check.slip_class or SURFACE_DEFAULT
         mu = en.mu_class(surface)
-        n = slip_planes(joint, bolt)
+        n = common.slip_planes(joint, bolt)
         if n > 0:
             ks = en.k_s(b.hole if b.hole != "standard" else "normal")
             if b.tension > 0:
@@ -233,7 +205,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
             else:
                 frd = en.F_s_Rd(ks, n, mu, fpc)
                 clauses = (cited(en.F_s_Rd), cited(en.k_s), cited(en.mu_class))
-            items.append(CheckItem("slip", "bolt", transferred_force(joint, bolt), frd, "force",
+            items.append(CheckItem("slip", common.transferred_force(joint, bolt), frd, "force",
                                    clauses, note=f"Class {surface}, mu {mu}, "
                                    f"Fp,C {force_str(joint.units, fpc)}, n {n}, ks {ks}"))
         if b.pretension <= 0:
@@ -241,4 +213,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     return items
 
 
-__all__ = ["check", "plane_resistance"]
+ITEMS = common.StandardItems(standard="en1993-1-8", edition=en.STANDARD, notes=_notes, bolt=_bolt,
+                      long_joint=_long_joint, method="partial-factors")
+
+__all__ = ["ITEMS", "plane_resistance"]

@@ -35,7 +35,7 @@ def _ply(t: float = 10.0, edge: float | None = 40.0) -> Ply:
 
 def _rex_easterling(x: np.ndarray) -> np.ndarray:
     # Rex & Easterling (2003), J. Struct. Eng. 129(6): R/Rn = 1.74x/(1+sqrt x)^2 - 0.009x
-    # from memory: equation as recorded in REFERENCES.md ("memory, verify")
+    # from memory: equation as recorded in docs/references.md ("memory, verify")
     return 1.74 * x / (1.0 + np.sqrt(x)) ** 2 - 0.009 * x
 
 
@@ -45,7 +45,7 @@ def _rex_easterling(x: np.ndarray) -> np.ndarray:
                          [(0.01, 0.2743), (0.05, 0.5987), (0.10, 0.7770), (0.34, 0.9815)])
 def test_crawford_kulak_1971_r_over_rult(delta_in: float, ratio: float) -> None:
     # Crawford & Kulak (1971), J. Struct. Div. 97(ST3): R = Rult (1 - e^(-10 Δ))^0.55, Δ in in;
-    # R/Rult as read (REFERENCES.md, "read"); 4 printed digits
+    # R/Rult as read (docs/references.md, "read"); 4 printed digits
     ply = _ply()
     c = laws.curve("bolt-shear", _bolt(), ply, K_LINEAR)
     r_ult = 0.62 * 800.0 * _bolt().gross_area

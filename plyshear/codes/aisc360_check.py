@@ -11,62 +11,44 @@ standard's text, bending against the plastic moment of the bolt section.
 from __future__ import annotations
 
 from plyshear.codes import aisc360 as aisc
-from plyshear.codes.check import (
-    CheckItem,
-    CheckResult,
-    bolt_section_diameter,
-    force_str,
-    geometry_notes,
-    joint_length,
-    length_str,
-    node_threads,
-    pack_at_plane,
-    packs,
-    resultants,
-    row_note,
-    slip_planes,
-    tag_bolt,
-    transferred_force,
-)
+from plyshear.codes import common
 from plyshear.codes.clause import Clause, cited
-from plyshear.mechanics.results import BoltResult, Solution
+from plyshear.codes.result import CheckItem
+from plyshear.mechanics.results import BoltResult
 from plyshear.model import catalog
 from plyshear.model.joint import Joint
+from plyshear.units import MM_PER_IN, force_str, length_str
 
 PHI_BOLT, OMEGA_BOLT = 0.75, 2.00  # J3.6, J3.7, J3.10 and J7
 PHI_FLEXURE, OMEGA_FLEXURE = 0.90, 1.67  # F1, used for the informative bending item
 MU = {"A": 0.30, "B": 0.50}  # J3.8 Class A and Class B surfaces
 
 
-def _noun(joint: Joint) -> str:
-    return "pin" if joint.check.connector == "pin" else "bolt"
-
-
-def check(joint: Joint, solution: Solution, method: str) -> CheckResult:
-    """Check ``joint`` to AISC 360-22 by ``method`` ("lrfd" or "asd")."""
-    notes = geometry_notes(joint)
+def _group(joint: Joint) -> str | None:
+    """The Table J3.2 group of the bolt's grade ("A307", "A", "B", "C"), or None."""
     grade = catalog.fastener(joint.bolt.grade)
-    group = grade.aisc_group if grade.key != "A307" else "A307"
+    return grade.aisc_group if grade.key != "A307" else "A307"
+
+
+def _notes(joint: Joint) -> list[str]:
+    grade = catalog.fastener(joint.bolt.grade)
+    group = _group(joint)
     if group is None:
-        notes.append(f"grade {grade.key} is not an ASTM structural bolt: Table J3.2 "
-                     "threaded-part strengths with Fu = fub are used")
-    else:
-        notes.append(f"bolt group: {aisc.EDITION_GROUP_NAMES.get(group, group)} "
-                     f"(model key {grade.key})")
-    items: list[CheckItem] = []
-    count = len(solution.bolts)
-    for k, bolt in enumerate(solution.bolts):
-        items += tag_bolt(_shear(joint, bolt, method, group, notes)
-                          + _bearing(joint, bolt, method)
-                          + _bolt_items(joint, bolt, method, group, notes), k, count)
-    length = joint_length(joint)
-    note = row_note(joint, solution, aisc.long_joint_factor(length) if length > 0 else 1.0,
-                    "AISC 360-22 J3.6 long-joint")
-    if note:
-        notes.append(note)
-    return CheckResult(standard="aisc360-22", method=method, edition=aisc.STANDARD,
-                       items=tuple(items), notes=tuple(dict.fromkeys(notes)),
-                       units=joint.units)
+        return [f"grade {grade.key} is not an ASTM structural bolt: Table J3.2 "
+                "threaded-part strengths with Fu = fub are used"]
+    return [f"bolt group: {aisc.EDITION_GROUP_NAMES.get(group, group)} (model key {grade.key})"]
+
+
+def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list[CheckItem]:
+    group = _group(joint)
+    return (_shear(joint, bolt, method, group, notes) + _bearing(joint, bolt, method)
+            + _bolt_items(joint, bolt, method, group, notes))
+
+
+def _long_joint(joint: Joint) -> tuple[float, str]:
+    length = common.joint_length(joint)
+    return (aisc.long_joint_factor(length) if length > 0 else 1.0,
+            "AISC 360-22 J3.6 long-joint")
 
 
 def _avail(rn: float, method: str, phi: float = PHI_BOLT, omega: float = OMEGA_BOLT) -> float:
@@ -85,8 +67,8 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     b = joint.bolt
     ab = b.gross_area  # J3.6: nominal unthreaded body area, also through threads
     items = []
-    long_factor = aisc.long_joint_factor(joint_length(joint)) \
-        if joint_length(joint) > 0 else 1.0
+    long_factor = aisc.long_joint_factor(common.joint_length(joint)) \
+        if common.joint_length(joint) > 0 else 1.0
     grip_factor = aisc.A307_long_grip_factor(joint.grip, b.diameter) if group == "A307" else 1.0
     developed = joint.check.fillers == "developed"
     for p in bolt.planes:
@@ -98,33 +80,30 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         if grip_factor < 1.0:
             clauses.append(cited(aisc.A307_long_grip_factor))
         note = "threads included" if p.threads else "threads excluded"
-        t_pack = pack_at_plane(joint, p.above, p.below)
+        t_pack = common.pack_at_plane(joint, p.above, p.below)
         if t_pack > 0:
             try:
                 form = "us" if joint.units == "kip-in" else "si"
                 factor = aisc.filler_factor(t_pack, developed=developed, form=form)
             except ValueError as exc:
-                items.append(CheckItem("filler thickness", f"plane {p.index}", t_pack,
-                                       19.05, "length", (cited(aisc.filler_factor),),
-                                       note=str(exc)))
+                items.append(CheckItem("filler thickness", t_pack, aisc.FILLER_MAX,
+                                       "length", (cited(aisc.filler_factor),),
+                                       **common.at_plane(p), note=str(exc)))
                 factor = 1.0
             rn *= factor
             clauses.append(cited(aisc.filler_factor))
             note += f", filler {length_str(joint.units, t_pack)}: factor {factor:.3f}"
-        items.append(CheckItem(f"{_noun(joint)} shear", f"plane {p.index}", p.shear,
-                               _avail(rn, method), "force", tuple(clauses), note=note))
-    if packs(joint) and not developed:
+        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, _avail(rn, method), "force",
+                               tuple(clauses), **common.at_plane(p), note=note))
+    if common.packs(joint) and not developed:
         notes.append("fillers taken as not developed (J5.2); set [check] fillers = "
                      "\"developed\" if they are extended and bolted or welded")
     return items
 
 
 def _hole(joint: Joint) -> float:
-    d = joint.bolt.diameter
-    try:
-        return catalog.hole_diameter(d, joint.bolt.hole, "aisc360-22")
-    except catalog.CatalogError:
-        return d + (1.0 / 16.0 * aisc.INCH if catalog.is_inch_size(d) else 2.0)
+    inch = catalog.is_inch_size(joint.bolt.diameter)
+    return common.hole_diameter(joint, "aisc360-22", MM_PER_IN / 16.0 if inch else 2.0)
 
 
 def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
@@ -134,25 +113,21 @@ def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
     deform = joint.check.deformation_considered
     dh = _hole(joint)
     items = []
-    for pb in bolt.plies:
-        ply = joint.plies[pb.ply]
-        if ply.is_filler:
-            continue
-        where = f"ply {ply.name}"
+    for pb, ply, where in common.bearing_plies(joint, bolt):
         if pin:
             rn = aisc.R_n_pin_bearing(ply.thickness * b.diameter, ply.fy)
-            items.append(CheckItem("pin bearing", where, pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_pin_bearing),)))
+            items.append(CheckItem("pin bearing", pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_pin_bearing),), **where))
         else:
             rn = aisc.R_n_bearing(b.diameter, ply.thickness, ply.fu, deform, long_slot)
             note = "deformation at service considered" if deform else "deformation not considered"
-            items.append(CheckItem("bearing", where, pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_bearing),), note=note))
+            items.append(CheckItem("bearing", pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_bearing),), **where, note=note))
         if ply.edge is not None:
             lc = aisc.l_c_edge(ply.edge, dh) if ply.edge > dh / 2 else 0.0
             rn = aisc.R_n_tearout(lc, ply.thickness, ply.fu, deform, long_slot) if lc > 0 else 0.0
-            items.append(CheckItem("tear-out", where, pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_tearout), cited(aisc.l_c_edge)),
+            items.append(CheckItem("tear-out", pb.force, _avail(rn, method), "force",
+                                   (cited(aisc.R_n_tearout), cited(aisc.l_c_edge)), **where,
                                    note=f"lc = {length_str(joint.units, lc)}, hole "
                                         f"{length_str(joint.units, dh)}"))
     return items
@@ -163,12 +138,12 @@ def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     b = joint.bolt
     items = []
     # Bending: informative, the plastic moment of the section where M is largest.
-    m = resultants(bolt.M)
+    m = common.resultants(bolt.M)
     i = int(m.argmax())
-    threaded = bool(node_threads(joint, bolt)[i])
-    mp = aisc.M_p_circle(bolt_section_diameter(joint, threaded), b.fyb)
+    threaded = bool(joint.bolt.threaded_along(bolt.z)[i])
+    mp = aisc.M_p_circle(common.bolt_section_diameter(joint, threaded), b.fyb)
     items.append(CheckItem(
-        f"{_noun(joint)} bending", "bolt", float(m[i]),
+        f"{common.noun(joint)} bending", float(m[i]),
         _avail(mp, method, PHI_FLEXURE, OMEGA_FLEXURE), "moment", (cited(aisc.M_p_circle),),
         informative=True, z=float(bolt.z[i]),
         note="outside the standard's text: plastic moment of the "
@@ -180,12 +155,13 @@ def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         fnv, _ = _fnv(group, b.fub, worst.threads)
         frv = worst.shear / b.gross_area
         fnt_p = aisc.F_nt_prime(fnt, fnv, frv, method, PHI_BOLT, OMEGA_BOLT)
-        items.append(CheckItem("bolt tension", "bolt", b.tension,
+        items.append(CheckItem("bolt tension", b.tension,
                                _avail(fnt * b.gross_area, method), "force",
                                (cited(aisc.F_nt),)))
-        items.append(CheckItem("tension + shear", f"bolt, plane {worst.index}", b.tension,
+        items.append(CheckItem("tension + shear", b.tension,
                                _avail(fnt_p * b.gross_area, method), "force",
-                               (cited(aisc.F_nt_prime),), note=f"frv = {frv:.0f} MPa"))
+                               (cited(aisc.F_nt_prime),), plane=worst.index,
+                               note=f"frv = {frv:.0f} MPa"))
     # Slip (J3.8).
     if joint.check.slip_critical or b.pretension > 0:
         items += _slip(joint, bolt, method, group, notes)
@@ -208,9 +184,9 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
             return []
     surface = joint.check.slip_class or "A"
 
-    n_fillers = sum(len(run) for run, _ in packs(joint))
+    n_fillers = sum(len(run) for run, _ in common.packs(joint))
     hf = aisc.h_f(n_fillers, developed=joint.check.fillers == "developed")
-    ns = slip_planes(joint, bolt)
+    ns = common.slip_planes(joint, bolt)
     if ns == 0:
         return []
     rn = aisc.R_n_slip(MU[surface], tb, ns, hf)
@@ -219,10 +195,13 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         rn *= aisc.k_sc(b.tension, tb, 1, method)
         clauses.append(cited(aisc.k_sc))
     avail = _avail(rn, method, aisc.phi_slip(b.hole), aisc.omega_slip(b.hole))
-    return [CheckItem("slip", "bolt", transferred_force(joint, bolt), avail, "force",
+    return [CheckItem("slip", common.transferred_force(joint, bolt), avail, "force",
                       tuple(clauses),
                       note=f"Class {surface}, mu {MU[surface]}, Tb {force_str(joint.units, tb)}, "
                            f"ns {ns}, hf {hf}")]
 
 
-__all__ = ["check"]
+ITEMS = common.StandardItems(standard="aisc360-22", edition=aisc.STANDARD, notes=_notes, bolt=_bolt,
+                      long_joint=_long_joint)
+
+__all__ = ["ITEMS", "OMEGA_BOLT", "PHI_BOLT"]

@@ -1,0 +1,35 @@
+"""One linear solve per command: the report and the capacity reuse the solution they have."""
+
+from __future__ import annotations
+
+import pytest
+from click.testing import CliRunner
+
+from plyshear.cli import main
+from plyshear.mechanics import solve as solve_module
+from tests.conftest import MODELS
+
+FORK = MODELS / "fork-four-planes.toml"
+
+
+@pytest.fixture
+def solves(monkeypatch) -> list[int]:
+    calls: list[int] = []
+    real = solve_module.solve
+
+    def counted(joint):
+        calls.append(1)
+        return real(joint)
+
+    monkeypatch.setattr(solve_module, "solve", counted)
+    return calls
+
+
+@pytest.mark.parametrize("args", [["report", str(FORK), "-o", "{tmp}/r.html"],
+                                  ["capacity", str(FORK), "--json"],
+                                  ["check", str(FORK), "--json"]],
+                         ids=["report", "capacity-json", "check-json"])
+def test_a_command_solves_the_joint_once(tmp_path, solves, args) -> None:
+    result = CliRunner().invoke(main, [a.format(tmp=tmp_path) for a in args])
+    assert result.exit_code in (0, 1), result.output  # 1: a check that fails
+    assert len(solves) == 1
