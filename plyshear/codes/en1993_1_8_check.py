@@ -19,7 +19,7 @@ from plyshear.codes.clause import Clause, cited
 from plyshear.codes.result import CheckItem
 from plyshear.mechanics.results import BoltResult
 from plyshear.model.joint import Joint
-from plyshear.units import force_str, length_str
+from plyshear.units import force_str, length_str, system
 
 SURFACE_DEFAULT = "D"  # Table 3.7: the lowest class, when none is given
 
@@ -160,6 +160,22 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
                      note=rule + tail)
 
 
+def _figure_3_11(joint: Joint, bolt: BoltResult) -> float | None:
+    """The moment of Figure 3.11 for a clevis (cheek, lug, cheek), or None for other stacks.
+
+    a: the cheeks' mean thickness, b: the lug's, c: the mean gap between them; F_Ed
+    the lug's bearing (the pin's load).
+    """
+    plies = [p for p in joint.plies if not p.is_filler]
+    if len(plies) != 3 or len(joint.plies) != 3:
+        return None
+    if not (plies[0].member == plies[2].member != plies[1].member):
+        return None
+    a = 0.5 * (plies[0].thickness + plies[2].thickness)
+    c = 0.5 * (plies[1].gap + plies[2].gap)
+    return en.M_Ed_clevis(bolt.plies[1].force, a, plies[1].thickness, c)
+
+
 def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckItem]:
     b = joint.bolt
     pin = joint.check.connector == "pin"
@@ -173,9 +189,17 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
                       plane_resistance(joint, t)[0]) for t in {bool(t) for t in threads}}
     mrd = np.array([by_section[bool(t)][0] for t in threads])
     vrd = np.array([by_section[bool(t)][1] for t in threads])
-    i = int(np.argmax(m / mrd))
     informative = not pin
     tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
+    figure = _figure_3_11(joint, bolt) if pin else None
+    if figure is not None and figure > m.max() > 0:
+        # 3.13.2 takes the bearing as uniform (Figure 3.11): never below that moment
+        m = m * (figure / m.max())
+        u = system(joint.units)
+        tail += (f"; the solved moments scaled to the Figure 3.11 moment "
+                 f"{figure / u.factor('moment'):.4g} {u.label('moment')} (uniform bearing, "
+                 "which governs)")
+    i = int(np.argmax(m / mrd))
     items.append(CheckItem(f"{common.noun(joint)} bending", float(m[i]),
                            float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
                            informative=informative, z=float(bolt.z[i]),

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
 
 import numpy as np
 
@@ -57,7 +58,7 @@ def case_cowper_shear_coefficient() -> Case:
                 REL_PRINTED_3)
 
 
-def _hetenyi(half: float) -> tuple[float, float]:
+def _hetenyi(half: Callable[[float], float]) -> tuple[float, float]:
     """(plyshear's largest moment, β) of a bolt on equal springs, loaded in the middle."""
     d, e, k, t_load, p = 20.0, 210000.0, 2000.0, 0.2, 10000.0
     beta = (k / (4 * e * math.pi * d**4 / 64)) ** 0.25

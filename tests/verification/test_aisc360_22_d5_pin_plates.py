@@ -24,8 +24,8 @@ import math
 import pytest
 
 import plyshear
+from plyshear import check
 from plyshear.codes import aisc360 as aisc
-from plyshear.codes.check import check
 
 IN = 25.4  # mm, exact by definition
 KIP = 4448.2216152605  # N, exact by definition

@@ -21,8 +21,8 @@ import math
 import pytest
 
 import plyshear
+from plyshear import check
 from plyshear.codes import en1993_1_8 as en
-from plyshear.codes.check import check
 
 # Hand arithmetic carried to 6 significant figures.
 REL_HAND = 1e-5
