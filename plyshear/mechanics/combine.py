@@ -1,0 +1,216 @@
+"""Load cases solved once, combinations by superposition, and their envelope.
+
+The linear system does not depend on the loads: it is assembled and factorised
+once, and every load case is one more right-hand side
+(:func:`plyshear.mechanics.solve.solve_stacked` with the cases side by side on
+its component axis). A combination's unknowns are the factored sum of the
+cases' unknowns; its plane shears, moments, bearings and reactions are
+recovered from them (:func:`plyshear.mechanics.recovery.recover`, linear in the
+unknowns) as one batch, so each combination's :class:`Solution` has exactly
+the shape of a single solve's and agrees with solving the combined joint to
+round-off.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+
+from plyshear import units as _units
+from plyshear.mechanics.assembly import FIXED, System, assemble
+from plyshear.mechanics.loadpath import require_load_path
+from plyshear.mechanics.recovery import Batch, recover
+from plyshear.mechanics.results import Solution
+from plyshear.mechanics.solve import SolveError, solve_stacked, system_unbalance
+from plyshear.model.joint import Joint
+
+
+@dataclass(frozen=True)
+class EnvelopeValue:
+    """The largest value of one quantity over the combinations.
+
+    Attributes:
+        value: The largest resultant (N or N·mm).
+        combination: The combination that gives it.
+    """
+
+    value: float
+    combination: str
+
+
+@dataclass(frozen=True)
+class PlaneEnvelope:
+    """One plane's largest |V| and |M| over the combinations.
+
+    Attributes:
+        bolt: Bolt index (0-based) in the row.
+        index: Plane number from the head side, from 1.
+        shear: Largest resultant shear, N.
+        moment: Largest resultant moment at the plane, N·mm.
+    """
+
+    bolt: int
+    index: int
+    shear: EnvelopeValue
+    moment: EnvelopeValue
+
+
+@dataclass(frozen=True)
+class PlyEnvelope:
+    """One ply's largest bearing over the combinations.
+
+    Attributes:
+        bolt: Bolt index (0-based).
+        ply: Ply index (0-based).
+        bearing: Largest resultant bearing force, N.
+    """
+
+    bolt: int
+    ply: int
+    bearing: EnvelopeValue
+
+
+@dataclass(frozen=True)
+class Combined:
+    """Every case and every combination of a joint, solved.
+
+    Attributes:
+        joint: The joint (with its cases and combinations).
+        cases: Case name → the solution of that case alone.
+        combinations: Combination name → its solution (the joint's members
+            loaded by the combination, :meth:`Joint.for_combination`).
+        planes: The envelope of every plane of every bolt.
+        plies: The envelope of every ply's bearing at every bolt.
+    """
+
+    joint: Joint
+    cases: dict[str, Solution]
+    combinations: dict[str, Solution]
+    planes: tuple[PlaneEnvelope, ...]
+    plies: tuple[PlyEnvelope, ...]
+
+    def envelope_dict(self) -> dict[str, Any]:
+        """The JSON ``envelope`` section, in the joint's units."""
+        u = _units.system(self.joint.units)
+        f, mo = u.factor("force"), u.factor("moment")
+        plies = self.joint.plies
+        bolts: list[dict[str, Any]] = [{"planes": [], "plies": []}
+                                       for _ in self.joint.stations]
+        for p in self.planes:
+            bolts[p.bolt]["planes"].append({
+                "index": p.index, "shear": p.shear.value / f,
+                "shear_combination": p.shear.combination, "moment": p.moment.value / mo,
+                "moment_combination": p.moment.combination})
+        for b in self.plies:
+            bolts[b.bolt]["plies"].append({
+                "name": plies[b.ply].name, "bearing": b.bearing.value / f,
+                "bearing_combination": b.bearing.combination})
+        for i, x in enumerate(self.joint.stations):
+            bolts[i] = {"x": x / u.factor("length"), **bolts[i]}
+        return {"bolts": bolts}
+
+
+def case_loads(joint: Joint, sys: System) -> np.ndarray:
+    """The free members' loads of every case on the border, shape (nm, cases, 2), N."""
+    lay = sys.layout
+    out = np.zeros((lay.nm, len(joint.cases), 2))
+    for c, case in enumerate(joint.cases):
+        for m_i, load in enumerate(case.loads):
+            if lay.member_dof[m_i] != FIXED:
+                out[lay.member_dof[m_i], c] = load
+    return out
+
+
+def factor_matrix(joint: Joint) -> np.ndarray:
+    """The factors of every combination on every case, shape (combinations, cases)."""
+    names = [c.name for c in joint.cases]
+    return np.array([[combo.factor(n) for n in names] for combo in joint.combinations],
+                    dtype=float).reshape(len(joint.combinations), len(names))
+
+
+def solve_combinations(joint: Joint) -> Combined:
+    """Solve every load case once and every combination by superposition.
+
+    Args:
+        joint: A joint with load cases and combinations (:attr:`Joint.has_cases`).
+
+    Returns:
+        The :class:`Combined` results with their envelope.
+
+    Raises:
+        ValueError: If the joint has no load cases.
+        plyshear.ModelError: If a combination's loads make the joint a mechanism.
+        SolveError: If the stiffness matrix cannot be factorised.
+    """
+    if not joint.has_cases:
+        raise ValueError("the joint has no load cases")
+    case_joints = [joint.for_case(c.name) for c in joint.cases]
+    combo_joints = [joint.for_combination(c.name) for c in joint.combinations]
+    for j in combo_joints:
+        require_load_path(j)
+    with np.errstate(all="ignore"):
+        sys = assemble(joint)
+        loads = case_loads(joint, sys)  # (nm, k, 2)
+        k = loads.shape[1]
+        x, y, kappa = solve_stacked(sys.ab[None], sys.B[None], sys.C[None],
+                                    loads.reshape(loads.shape[0], 2 * k)[None])
+        xc = x[0].reshape(-1, k, 2)  # (na, cases, 2)
+        yc = y[0].reshape(-1, k, 2)
+        F = factor_matrix(joint)
+        # every case, then every combination: unknowns (n, na, 2), loads (n, nm, 2)
+        xs = np.concatenate([np.moveaxis(xc, 1, 0), np.einsum("ck,akt->cat", F, xc)])
+        ys = np.concatenate([np.moveaxis(yc, 1, 0), np.einsum("ck,akt->cat", F, yc)])
+        fs = np.concatenate([np.moveaxis(loads, 1, 0), np.einsum("ck,akt->cat", F, loads)])
+        if not (np.all(np.isfinite(xs)) and np.all(np.isfinite(ys))):
+            raise SolveError("the solution is not finite: check the magnitudes of the inputs")
+        solutions = _recover(case_joints + combo_joints, sys, xs, ys, float(kappa[0]), fs)
+    cases = dict(zip([c.name for c in joint.cases], solutions[:k], strict=True))
+    combos = dict(zip([c.name for c in joint.combinations], solutions[k:], strict=True))
+    planes, plies = envelope(combos)
+    return Combined(joint=joint, cases=cases, combinations=combos, planes=planes, plies=plies)
+
+
+def _recover(joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, kappa: float,
+             fs: np.ndarray) -> list[Solution]:
+    """The solutions of several load vectors on one system, as one recovery batch."""
+    lay = sys.layout
+    n = len(joints)
+
+    def rep(a: np.ndarray) -> np.ndarray:
+        return np.broadcast_to(a, (n, *a.shape))
+
+    ab, B, C = rep(sys.ab), rep(sys.B), rep(sys.C)
+    batch = Batch(
+        joints=joints, layout=lay, z=rep(lay.mesh.z), stations=rep(lay.stations),
+        kel=rep(lay.kel), kbb=rep(sys.kbb), kbu=rep(sys.kbu), kply=rep(sys.k),
+        kspring=rep(np.array([sp.k for sp in lay.springs], dtype=float).reshape(-1)),
+        x=xs, y=ys, kappa=np.full(n, kappa), unbalance=system_unbalance(ab, B, C, xs, ys, fs))
+    return recover(batch)
+
+
+def envelope(combos: dict[str, Solution]) -> tuple[tuple[PlaneEnvelope, ...],
+                                                    tuple[PlyEnvelope, ...]]:
+    """The largest |V|, |M| of every plane and bearing of every ply, with its combination.
+
+    Ties go to the first combination in the model's order.
+    """
+    names = list(combos)
+    sols = list(combos.values())
+    planes, plies = [], []
+    for b_i, bolt in enumerate(sols[0].bolts):
+        for p_i, plane in enumerate(bolt.planes):
+            V = [s.bolts[b_i].planes[p_i].shear for s in sols]
+            M = [s.bolts[b_i].planes[p_i].moment for s in sols]
+            planes.append(PlaneEnvelope(bolt=b_i, index=plane.index,
+                                        shear=_largest(V, names), moment=_largest(M, names)))
+        for j in range(len(bolt.plies)):
+            R = [s.bolts[b_i].plies[j].force for s in sols]
+            plies.append(PlyEnvelope(bolt=b_i, ply=j, bearing=_largest(R, names)))
+    return tuple(planes), tuple(plies)
+
+
+def _largest(values: list[float], names: list[str]) -> EnvelopeValue:
+    i = int(np.argmax(values))
+    return EnvelopeValue(value=float(values[i]), combination=names[i])
