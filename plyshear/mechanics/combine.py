@@ -214,3 +214,37 @@ def envelope(combos: dict[str, Solution]) -> tuple[tuple[PlaneEnvelope, ...],
 def _largest(values: list[float], names: list[str]) -> EnvelopeValue:
     i = int(np.argmax(values))
     return EnvelopeValue(value=float(values[i]), combination=names[i])
+
+
+def combined_dict(combined: Combined, combination: str, diagram: bool = True
+                  ) -> dict[str, Any]:
+    """The JSON result of a joint with load cases.
+
+    The top level is the single result of ``combination`` (the shape of today's
+    result, plus ``combination``), beside ``cases`` and ``combinations`` (each a
+    single result without diagrams, with its name, factors and level) and the
+    ``envelope``.
+
+    Args:
+        combined: The solved cases and combinations.
+        combination: The combination shown at the top level.
+        diagram: Include the top level's diagram arrays.
+    """
+    joint = combined.joint
+    u = _units.system(joint.units)
+    f = u.factor("force")
+    data = combined.combinations[combination].to_dict(diagram)
+    data["combination"] = combination
+    data["cases"] = [
+        {"name": c.name, "category": c.category,
+         "loads": [{"member": m.name, "load_xy": [fx / f, fy / f]}
+                   for m, (fx, fy) in zip(joint.members, c.loads, strict=True)
+                   if (fx, fy) != (0.0, 0.0)],
+         **combined.cases[c.name].to_dict(diagram=False)}
+        for c in joint.cases]
+    data["combinations"] = [
+        {"name": c.name, "level": c.level, "factors": dict(c.factors), "source": c.source,
+         **combined.combinations[c.name].to_dict(diagram=False)}
+        for c in joint.combinations if c.name in combined.combinations]
+    data["envelope"] = combined.envelope_dict()
+    return data
