@@ -611,8 +611,11 @@ def scatter_dict(result: Any, joint: Any, samples: int, seed: int) -> dict[str, 
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write capacity and efficiency against the number of planes.")
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("--combination", default=None, metavar="NAME",
+              help="Use one load combination as the load pattern (default, where the model "
+                   "has load cases: the check's governing combination).")
 def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str | None,
-               force: bool) -> None:
+               force: bool, combination: str | None) -> None:
     """Does an extra plane pay? Rebuild MODEL with 2 … --max planes and compare.
 
     The stack must have two members; their plies alternate (A B A B ...).
@@ -621,7 +624,9 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     from plyshear.mechanics.studies import planes_study
 
     target = _plot_target(plot, force)
-    joint = _load(model)
+    joint = _pick(_load(model), combination)
+    if joint.has_cases and combination is None:
+        joint = _governing_joint(joint, "planes")
     _echo_sanity(joint)
     try:
         rows = _guard(lambda: planes_study(joint, max_planes, keep))
@@ -975,6 +980,11 @@ def validate_cmd(model: str) -> None:
     row = f", {bolts} bolts" if bolts > 1 else ""
     click.echo(f"ok: {model}: {len(joint.plies)} plies, {planes} planes{row}, "
                f"units {joint.units}, check {joint.check.standard}")
+    if joint.has_cases:
+        from plyshear.report.combinations_text import loads_text
+
+        click.echo(f"{len(joint.cases)} load cases, {len(joint.combinations)} combinations")
+        click.echo(loads_text(joint))
     for w in sanity.warnings(joint):
         click.echo(f"warning: {w}")
     for note in sanity.notes(joint):

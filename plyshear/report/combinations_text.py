@@ -52,8 +52,14 @@ def envelope_text(combined: Combined) -> str:
 
 def solve_text(combined: Combined) -> str:
     """The terminal report of ``solve`` for a joint with load cases."""
+    sols = list(combined.cases.values()) + list(combined.combinations.values())
+    residual = max(s.equilibrium_residual for s in sols)
+    warnings = dict.fromkeys(w for s in sols for w in s.warnings)
     return "\n".join([combined.joint.title or (combined.joint.source or "joint"), "",
                       loads_text(combined.joint), "", envelope_text(combined), "",
+                      f"equilibrium residual (largest over cases and combinations): "
+                      f"{residual:.1e} of the load",
+                      *[f"WARNING: {w}" for w in warnings],
                       "Every combination's full result: --combination NAME (or --json).", "",
                       CAUTION])
 

@@ -145,3 +145,18 @@ def test_capacity_runs_on_the_governing_combination(write_model) -> None:
     start = result.stdout.index("{")
     data = json.loads(result.stdout[start:])
     assert data["combination"] in ("gravity", "uplift")
+
+
+EXAMPLE = MODELS.parent.parent / "docs" / "examples" / "gusset-load-cases.toml"
+
+
+def test_the_four_case_example_runs_through_every_command(tmp_path) -> None:
+    for args in (["solve"], ["solve", "--json"], ["check"], ["check", "--json"],
+                 ["validate"], ["capacity", "--json"],
+                 ["report", "-o", str(tmp_path / "r.html")]):
+        result = CliRunner().invoke(main, [args[0], str(EXAMPLE), *args[1:]])
+        assert result.exit_code == EXIT_PASS, (args, result.output)
+    code, out = run("validate", str(EXAMPLE))
+    # ASCE 7-22 2.3.1 (from memory) for D, L, S, W: eq. 1; eq. 2 with and without 0.5S;
+    # eq. 3 with L, with 0.5W, alone; eq. 4 with L and S, L, S, neither; eq. 5
+    assert "4 load cases, 11 combinations" in out
