@@ -6,14 +6,18 @@ once, and every load case is one more right-hand side
 its component axis). A combination's unknowns are the factored sum of the
 cases' unknowns; its plane shears, moments, bearings and reactions are
 recovered from them (:func:`plyshear.mechanics.recovery.recover`, linear in the
-unknowns) as one batch, so each combination's :class:`Solution` has exactly
-the shape of a single solve's and agrees with solving the combined joint to
-round-off.
+unknowns) as one batch, when first asked for, so each combination's
+:class:`Solution` has exactly the shape of a single solve's and agrees with
+solving the combined joint to round-off. The envelope is the factored sum of
+the cases' recovered plane and ply results, which needs no combination's
+solution.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+import dataclasses
+import functools
+from dataclasses import dataclass, field
 from typing import Any
 
 import numpy as np
@@ -73,23 +77,49 @@ class PlyEnvelope:
 
 
 @dataclass(frozen=True)
+class _Solved:
+    """The solved unknowns of every case on the one system (kept for the combinations)."""
+
+    sys: System
+    x: np.ndarray  # (cases, na, 2)
+    y: np.ndarray  # (cases, nm, 2)
+    loads: np.ndarray  # (cases, nm, 2)
+    kappa: float
+
+
+@dataclass(frozen=True)
 class Combined:
     """Every case and every combination of a joint, solved.
+
+    The combinations' full solutions are recovered when first asked for
+    (:attr:`combinations`); the envelope is the factored sum of the cases'
+    plane and ply results, which needs none of them.
 
     Attributes:
         joint: The joint (with its cases and combinations).
         cases: Case name → the solution of that case alone.
-        combinations: Combination name → its solution (the joint's members
-            loaded by the combination, :meth:`Joint.for_combination`).
         planes: The envelope of every plane of every bolt.
         plies: The envelope of every ply's bearing at every bolt.
     """
 
     joint: Joint
     cases: dict[str, Solution]
-    combinations: dict[str, Solution]
     planes: tuple[PlaneEnvelope, ...]
     plies: tuple[PlyEnvelope, ...]
+    solved: _Solved = field(repr=False, compare=False)
+
+    @functools.cached_property
+    def combinations(self) -> dict[str, Solution]:
+        """Combination name → its solution (the joint loaded by the combination)."""
+        joint, s = self.joint, self.solved
+        F = factor_matrix(joint)
+        xs = np.einsum("ck,kat->cat", F, s.x)
+        ys = np.einsum("ck,kat->cat", F, s.y)
+        fs = np.einsum("ck,kat->cat", F, s.loads)
+        joints = [joint.for_combination(c.name) for c in joint.combinations]
+        with np.errstate(all="ignore"):
+            sols = _recover(joints, s.sys, xs, ys, s.kappa, fs)
+        return dict(zip([c.name for c in joint.combinations], sols, strict=True))
 
     def envelope_dict(self) -> dict[str, Any]:
         """The JSON ``envelope`` section, in the joint's units."""
@@ -130,6 +160,23 @@ def factor_matrix(joint: Joint) -> np.ndarray:
                     dtype=float).reshape(len(joint.combinations), len(names))
 
 
+def require_load_paths(joint: Joint) -> None:
+    """Refuse a combination whose loads make the joint a mechanism.
+
+    The load path depends only on which members are loaded, so each distinct
+    set is checked once.
+
+    Raises:
+        plyshear.ModelError: Naming the member no path reaches.
+    """
+    cases = np.array([c.loads for c in joint.cases], dtype=float)  # (k, members, 2)
+    combined = np.einsum("ck,kmt->cmt", factor_matrix(joint), cases)
+    for loaded in {tuple(bool(v) for v in row) for row in np.any(combined != 0.0, axis=2)}:
+        members = tuple(dataclasses.replace(m, load=(1.0, 0.0) if on else (0.0, 0.0))
+                        for m, on in zip(joint.members, loaded, strict=True))
+        require_load_path(dataclasses.replace(joint, members=members))
+
+
 def solve_combinations(joint: Joint) -> Combined:
     """Solve every load case once and every combination by superposition.
 
@@ -146,30 +193,24 @@ def solve_combinations(joint: Joint) -> Combined:
     """
     if not joint.has_cases:
         raise ValueError("the joint has no load cases")
-    case_joints = [joint.for_case(c.name) for c in joint.cases]
-    combo_joints = [joint.for_combination(c.name) for c in joint.combinations]
-    for j in combo_joints:
-        require_load_path(j)
+    require_load_paths(joint)
     with np.errstate(all="ignore"):
         sys = assemble(joint)
         loads = case_loads(joint, sys)  # (nm, k, 2)
         k = loads.shape[1]
         x, y, kappa = solve_stacked(sys.ab[None], sys.B[None], sys.C[None],
                                     loads.reshape(loads.shape[0], 2 * k)[None])
-        xc = x[0].reshape(-1, k, 2)  # (na, cases, 2)
-        yc = y[0].reshape(-1, k, 2)
-        F = factor_matrix(joint)
-        # every case, then every combination: unknowns (n, na, 2), loads (n, nm, 2)
-        xs = np.concatenate([np.moveaxis(xc, 1, 0), np.einsum("ck,akt->cat", F, xc)])
-        ys = np.concatenate([np.moveaxis(yc, 1, 0), np.einsum("ck,akt->cat", F, yc)])
-        fs = np.concatenate([np.moveaxis(loads, 1, 0), np.einsum("ck,akt->cat", F, loads)])
+        xs = np.moveaxis(x[0].reshape(-1, k, 2), 1, 0)  # (cases, na, 2)
+        ys = np.moveaxis(y[0].reshape(-1, k, 2), 1, 0)
+        fs = np.moveaxis(loads, 1, 0)
         if not (np.all(np.isfinite(xs)) and np.all(np.isfinite(ys))):
             raise SolveError("the solution is not finite: check the magnitudes of the inputs")
-        solutions = _recover(case_joints + combo_joints, sys, xs, ys, float(kappa[0]), fs)
-    cases = dict(zip([c.name for c in joint.cases], solutions[:k], strict=True))
-    combos = dict(zip([c.name for c in joint.combinations], solutions[k:], strict=True))
-    planes, plies = envelope(combos)
-    return Combined(joint=joint, cases=cases, combinations=combos, planes=planes, plies=plies)
+        solved = _Solved(sys=sys, x=xs, y=ys, loads=fs, kappa=float(kappa[0]))
+        case_joints = [joint.for_case(c.name) for c in joint.cases]
+        sols = _recover(case_joints, sys, xs, ys, solved.kappa, fs)
+    cases = dict(zip([c.name for c in joint.cases], sols, strict=True))
+    planes, plies = envelope(joint, sols)
+    return Combined(joint=joint, cases=cases, planes=planes, plies=plies, solved=solved)
 
 
 def _recover(joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, kappa: float,
@@ -190,28 +231,42 @@ def _recover(joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, k
     return recover(batch)
 
 
-def envelope(combos: dict[str, Solution]) -> tuple[tuple[PlaneEnvelope, ...],
-                                                    tuple[PlyEnvelope, ...]]:
+def envelope(joint: Joint, case_solutions: list[Solution]
+             ) -> tuple[tuple[PlaneEnvelope, ...], tuple[PlyEnvelope, ...]]:
     """The largest |V|, |M| of every plane and bearing of every ply, with its combination.
 
-    Ties go to the first combination in the model's order.
+    Each combination's plane shears, moments and bearings are the factored sums
+    of the cases' (superposition of the linear results). Ties go to the first
+    combination in the model's order.
+
+    Args:
+        joint: The joint with its combinations.
+        case_solutions: The solution of every case, in the joint's order.
     """
-    names = list(combos)
-    sols = list(combos.values())
+    names = [c.name for c in joint.combinations]
+    F = factor_matrix(joint)
+
+    def combine(values: np.ndarray) -> np.ndarray:
+        """Case values (cases, items, 2) → resultants per combination (combinations, items)."""
+        v = np.einsum("ck,kit->cit", F, values)
+        return np.hypot(v[..., 0], v[..., 1])
+
     planes, plies = [], []
-    for b_i, bolt in enumerate(sols[0].bolts):
+    for b_i, bolt in enumerate(case_solutions[0].bolts):
+        per_case = [s.bolts[b_i] for s in case_solutions]
+        V = combine(np.array([[p.shear_xy for p in b.planes] for b in per_case]))
+        M = combine(np.array([[p.moment_xy for p in b.planes] for b in per_case]))
+        R = combine(np.array([[p.force_xy for p in b.plies] for b in per_case]))
         for p_i, plane in enumerate(bolt.planes):
-            V = [s.bolts[b_i].planes[p_i].shear for s in sols]
-            M = [s.bolts[b_i].planes[p_i].moment for s in sols]
             planes.append(PlaneEnvelope(bolt=b_i, index=plane.index,
-                                        shear=_largest(V, names), moment=_largest(M, names)))
+                                        shear=_largest(V[:, p_i], names),
+                                        moment=_largest(M[:, p_i], names)))
         for j in range(len(bolt.plies)):
-            R = [s.bolts[b_i].plies[j].force for s in sols]
-            plies.append(PlyEnvelope(bolt=b_i, ply=j, bearing=_largest(R, names)))
+            plies.append(PlyEnvelope(bolt=b_i, ply=j, bearing=_largest(R[:, j], names)))
     return tuple(planes), tuple(plies)
 
 
-def _largest(values: list[float], names: list[str]) -> EnvelopeValue:
+def _largest(values: np.ndarray, names: list[str]) -> EnvelopeValue:
     i = int(np.argmax(values))
     return EnvelopeValue(value=float(values[i]), combination=names[i])
 
