@@ -16,6 +16,10 @@ from typing import Any
 from plyshear.codes.check import CheckItem, CheckResult, check
 from plyshear.mechanics.combine import Combined
 
+#: Utilizations within this relative difference are a tie (round-off of equal demands):
+#: the first combination in the model's order keeps the line.
+TIE = 1e-9
+
 
 @dataclass(frozen=True)
 class GoverningLine:
@@ -62,14 +66,14 @@ class CombinedCheck:
         """The governing line of every item, largest utilization first.
 
         Items are matched by limit state and place (``what``, ``where``); ties go
-        to the first combination in the model's order.
+        to the first combination in the model's order (within :data:`TIE`).
         """
         best: dict[tuple[str, str], GoverningLine] = {}
         for name, res in self.results.items():
             for item in res.items:
                 key = (item.what, item.where)
                 held = best.get(key)
-                if held is None or item.utilization > held.item.utilization:
+                if held is None or item.utilization > held.item.utilization * (1 + TIE):
                     best[key] = GoverningLine(combination=name, item=item)
         return sorted(best.values(), key=lambda line: -line.item.utilization)
 

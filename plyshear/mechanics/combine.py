@@ -266,8 +266,14 @@ def envelope(joint: Joint, case_solutions: list[Solution]
     return tuple(planes), tuple(plies)
 
 
+#: Values within this relative difference are a tie (round-off of equal results): the
+#: first combination in the model's order is named.
+TIE = 1e-9
+
+
 def _largest(values: np.ndarray, names: list[str]) -> EnvelopeValue:
-    i = int(np.argmax(values))
+    top = float(np.max(values))
+    i = int(np.flatnonzero(values >= top * (1 - TIE))[0])
     return EnvelopeValue(value=float(values[i]), combination=names[i])
 
 
