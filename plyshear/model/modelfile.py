@@ -29,8 +29,8 @@ from plyshear.model.joint import (
     Analysis,
     Bolt,
     CheckSettings,
-    Combination,
     Joint,
+    LoadCase,
     Member,
     Ply,
 )
@@ -371,7 +371,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
                       combinations=combos)
         members = first.with_loads(first.combined_loads(dict(combos[0].factors))).members
         check = dataclasses.replace(check, loads=combos[0].level)
-    _require_load(r, members, check, combos)
+    _require_load(r, members, check, cases)
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
                  stations=stations, cases=cases, combinations=combos,
@@ -390,9 +390,10 @@ def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:
 
 
 def _require_load(r: _Reader, members: tuple[Member, ...], check: CheckSettings,
-                  combos: tuple[Combination, ...] = ()) -> None:
-    """Refuse a joint whose members carry no load, unless the file allows it."""
-    if check.allow_unloaded or any(m.is_loaded for m in members) or combos:
+                  cases: tuple[LoadCase, ...] = ()) -> None:
+    """Refuse a joint whose members carry no load (in any case), unless the file allows it."""
+    if check.allow_unloaded or any(m.is_loaded for m in members) or any(
+            f != (0.0, 0.0) for c in cases for f in c.loads):
         return
     raise r.fail("member", "no member carries a load, so every check would pass with "
                  "utilization 0; give a loaded member a load (or set [check] "

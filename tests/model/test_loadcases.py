@@ -141,6 +141,8 @@ def test_generated_combinations_are_read_from_check() -> None:
     (CHAIN.replace("load = { wind = -120 }", "load = {}") + COMBOS, "member.c.load",
      "empty"),
     (CHAIN + COMBOS.replace('name = "uplift"\n', ""), "combination[2].name", "missing"),
+    (CHAIN.replace("dead = 50, live = [0, 30]", "dead = 0").replace("wind = -120", "wind = 0")
+     + COMBOS.replace(", live = 1.6", ""), "member", "no member carries a load"),
 ])
 def test_bad_cases_and_combinations_are_refused_in_one_line(text: str, key: str,
                                                             words: str) -> None:
