@@ -13,7 +13,8 @@ import dataclasses
 from dataclasses import dataclass
 from typing import Any
 
-from plyshear.codes.check import CheckItem, CheckResult, check
+import plyshear
+from plyshear.codes.check import CheckItem, CheckResult
 from plyshear.mechanics.combine import Combined
 
 #: Utilizations within this relative difference are a tie (round-off of equal demands):
@@ -127,5 +128,6 @@ def check_combinations(combined: Combined, standard: str | None = None,
     results = {}
     for name in names:
         sol = combined.combinations[name]
-        results[name] = check(sol.joint, sol, standard, method)
+        # the public API: its signature is stable across the codes/ restructuring
+        results[name] = plyshear.check(sol.joint, sol, standard, method)
     return CombinedCheck(results=results)

@@ -102,8 +102,8 @@ def test_the_governing_combination_of_a_plane_is_the_one_that_maximises_its_shea
     assert plane2.shear.combination == "uplift"
     assert plane2.shear.value == pytest.approx(120e3, rel=REL_EXACT)
     # the uplift combination reverses plane 1's x shear against gravity's
-    g = combined.combinations["gravity"].planes[0].shear_xy[0]
-    u = combined.combinations["uplift"].planes[0].shear_xy[0]
+    g = combined.combinations["gravity"].bolts[0].planes[0].shear_xy[0]
+    u = combined.combinations["uplift"].bolts[0].planes[0].shear_xy[0]
     assert g * u < 0
     # the ply envelope: c bears 120 kN in uplift only (statics); b the larger of its cases
     by_ply = {combined.joint.plies[p.ply].name: p.bearing for p in combined.plies}
