@@ -154,6 +154,60 @@ def _solve(joint: Any) -> Any:
         fail(f"{joint.source}: {exc}")
 
 
+def _pick(joint: Any, combination: str | None) -> Any:
+    """The joint loaded by ``--combination NAME`` (the joint itself without the option)."""
+    if combination is None:
+        return joint
+    if not joint.has_cases:
+        fail(f"{joint.source}: --combination: the model has no load combinations "
+             "(its loads are one case)")
+    try:
+        return joint.for_combination(combination)
+    except KeyError as exc:
+        fail(f"{joint.source}: --combination: {exc.args[0]}")
+
+
+def _solve_combined(joint: Any) -> Any:
+    """Every case and combination of a joint with load cases, solved."""
+    from plyshear.mechanics.combine import solve_combinations
+    from plyshear.mechanics.solve import SolveError
+
+    try:
+        return _guard(lambda: solve_combinations(joint))
+    except SolveError as exc:
+        fail(f"{joint.source}: {exc}")
+
+
+def _check_combined(joint: Any, combined: Any, standard: str | None = None,
+                    method: str | None = None) -> Any:
+    """The check of every combination (one line on a level the method does not take)."""
+    from plyshear.codes.combinations import check_combinations
+
+    try:
+        return check_combinations(combined, standard, method)
+    except ValueError as exc:
+        fail(f"{joint.source}: check: {exc}")
+
+
+def _governing_joint(joint: Any, what: str) -> Any:
+    """The joint of the check's governing combination, said on stderr, for ``what``."""
+    from plyshear.codes.combinations import check_combinations
+
+    combined = _solve_combined(joint)
+    try:
+        name = check_combinations(combined).governing_combination
+        why = "the check's governing one"
+    except ValueError:
+        name, why = joint.combination, "the first (the check cannot run)"
+    click.echo(f"{what}: combination {name} ({why}; --combination NAME for another)",
+               err=True)
+    return joint.for_combination(name)
+
+
+COMBINATION_HELP = ("Use one load combination of the model (default: every combination, "
+                    "where the model has load cases).")
+
+
 def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
     """Check a --plot file name (format, and no overwrite) before any long work."""
     if plot is None:
@@ -198,19 +252,50 @@ def main() -> None:
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
-def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
-    """Solve the shear in every plane of MODEL (a TOML model file)."""
+@click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
+def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool,
+              combination: str | None) -> None:
+    """Solve the shear in every plane of MODEL (a TOML model file).
+
+    With load cases, every case is solved once and every combination by
+    superposition; the table shows the cases, the combinations and the envelope
+    (the largest shear, moment and bearing with the combination that gives it).
+    """
     target = _plot_target(plot, force)
-    joint = _load(model)
+    joint = _pick(_load(model), combination)
+    if joint.has_cases and combination is None:
+        _solve_all(joint, as_json, target, force)
+        return
     sol = _solve(joint)
     if as_json:
-        click.echo(json.dumps(sol.to_dict(), indent=2))
+        data = sol.to_dict()
+        if combination is not None:
+            data["combination"] = combination
+        click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import solution_text
 
         click.echo(solution_text(sol))
     if target is not None:
         _write_plot(sol, target, force)
+
+
+def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force: bool
+               ) -> None:
+    """``solve`` of a joint with load cases: every combination and the envelope."""
+    from plyshear.mechanics.combine import combined_dict
+
+    combined = _solve_combined(joint)
+    if as_json:
+        click.echo(json.dumps(combined_dict(combined, joint.combination), indent=2))
+    else:
+        from plyshear.report.combinations_text import solve_text
+
+        click.echo(solve_text(combined))
+    if target is not None:
+        click.echo(f"plot: combination {joint.combination} (--combination NAME for another)",
+                   err=True)
+        _write_plot(combined.combinations[joint.combination], target, force)
 
 
 @main.command("check")
@@ -223,19 +308,24 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
 def check_cmd(model: str, standard: str | None, method: str | None, as_json: bool,
-              plot: str | None, force: bool) -> None:
+              plot: str | None, force: bool, combination: str | None) -> None:
     """Check every plane, ply and the bolt of MODEL against a design standard.
 
+    With load cases, every combination is checked and the table shows each
+    item's governing combination; the verdict is over all combinations.
     Exit code 0 when every item passes, 1 when one fails, 2 on bad input.
     """
     import plyshear
 
     target = _plot_target(plot, force)
-    joint = _load(model)
-    sol = _solve(joint)
+    joint = _pick(_load(model), combination)
     if method is not None and (standard or joint.check.standard) != "aisc360-22":
         fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
+    if joint.has_cases and combination is None:
+        _check_all(joint, standard, method, as_json, target, force)
+    sol = _solve(joint)
     try:
         result = plyshear.check(joint, sol, standard, method)
     except ValueError as exc:
@@ -243,15 +333,50 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     if as_json:
         data = sol.to_dict()
         data["check"] = result.to_dict()
+        if combination is not None:
+            data["combination"] = data["check"]["combination"] = combination
         data["warnings"] = data["warnings"] + list(result.warnings)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import check_text
 
+        if combination is not None:
+            click.echo(f"combination {combination}: {_factors_text(joint, combination)}")
         click.echo(check_text(result, sol))
     if target is not None:
         _write_plot(sol, target, force)
     sys.exit(0 if result.passes else 1)
+
+
+def _factors_text(joint: Any, name: str) -> str:
+    combo = joint.combination_named(name)
+    return " + ".join(f"{v:g} {k}" for k, v in combo.factors) + f" ({combo.level})"
+
+
+def _check_all(joint: Any, standard: str | None, method: str | None, as_json: bool,
+               target: tuple[Path, str] | None, force: bool) -> NoReturn:
+    """``check`` of a joint with load cases: every combination, the governing lines."""
+    combined = _solve_combined(joint)
+    checks = _check_combined(joint, combined, standard, method)
+    gov = checks.governing_combination
+    if as_json:
+        from plyshear.mechanics.combine import combined_dict
+
+        data = combined_dict(combined, gov)
+        data["check"] = checks.to_dict()
+        for entry in data["combinations"]:
+            entry["check"] = {**checks.results[entry["name"]].to_dict(),
+                              "combination": entry["name"]}
+        data["warnings"] = data["warnings"] + list(data["check"]["warnings"])
+        click.echo(json.dumps(data, indent=2))
+    else:
+        from plyshear.report.combinations_text import check_text
+
+        click.echo(check_text(checks, joint))
+    if target is not None:
+        click.echo(f"plot: combination {gov} (the governing one)", err=True)
+        _write_plot(combined.combinations[gov], target, force)
+    sys.exit(0 if checks.to_dict()["passes"] else 1)
 
 
 def _summarize(joint: Any) -> Any:
@@ -300,8 +425,12 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
                    "finishes.")
 @click.option("--resume", is_flag=True,
               help="With --scatter -o: continue the run that wrote the file.")
+@click.option("--combination", default=None, metavar="NAME",
+              help="Use one load combination as the load pattern (default, where the model "
+                   "has load cases: the check's governing combination).")
 def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
-                 scatter: int | None, seed: int, output: str | None, resume: bool) -> None:
+                 scatter: int | None, seed: int, output: str | None, resume: bool,
+                 combination: str | None) -> None:
     """Find the ultimate capacity of MODEL: elastic, nonlinear, collapse, shear-only.
 
     Nominal strengths, each with its design value under the model's standard
@@ -318,7 +447,9 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         fail(f"{model}: -o and --resume apply to --scatter only")
     out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
-    joint = _load(model)
+    joint = _pick(_load(model), combination)
+    if joint.has_cases and combination is None:
+        joint = _governing_joint(joint, "capacity")
     _echo_sanity(joint)
     _require_load_level(joint, model)
     if scatter is not None:
@@ -330,6 +461,8 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         from plyshear.report.capacity_data import capacity_dict
 
         data = summary.solution.to_dict(diagram=False)
+        if joint.combination:
+            data["combination"] = joint.combination
         data["capacity"] = capacity_dict(summary, joint, result)
         click.echo(json.dumps(data, indent=2))
     else:
@@ -500,8 +633,11 @@ def scatter_dict(result: Any, joint: Any, samples: int, seed: int) -> dict[str, 
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write capacity and efficiency against the number of planes.")
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("--combination", default=None, metavar="NAME",
+              help="Use one load combination as the load pattern (default, where the model "
+                   "has load cases: the check's governing combination).")
 def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str | None,
-               force: bool) -> None:
+               force: bool, combination: str | None) -> None:
     """Does an extra plane pay? Rebuild MODEL with 2 … --max planes and compare.
 
     The stack must have two members; their plies alternate (A B A B ...).
@@ -511,7 +647,9 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
     from plyshear.mechanics.studies import planes_study
 
     target = _plot_target(plot, force)
-    joint = _load(model)
+    joint = _pick(_load(model), combination)
+    if joint.has_cases and combination is None:
+        joint = _governing_joint(joint, "planes")
     _echo_sanity(joint)
     try:
         rows = _guard(lambda: planes_study(joint, max_planes, keep, nominal_bearing))
@@ -605,6 +743,9 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
     out_path = _sweep_output(output, force, resume)
     target = _plot_target(plot, force)
     joint = _load(model)
+    if joint.has_cases:
+        fail(f"{model}: sweep: a model with load cases is not swept yet; give plain loads "
+             "(e.g. one combination's) in a copy of the file")
     _echo_sanity(joint)
     data, keys, cases = _sweep_cases(model, varies, cases_file)
     key_texts = [k.text for k in keys]
@@ -822,7 +963,10 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
 @click.option("-o", "--output", type=click.Path(dir_okay=False), required=True,
               help="The report file: .html (self-contained) or .pdf.")
 @click.option("--force", is_flag=True, help="Replace an existing report.")
-def report_cmd(model: str, output: str, force: bool) -> None:
+@click.option("--combination", default=None, metavar="NAME",
+              help="Report one load combination (default, where the model has load cases: "
+                   "the check's governing combination).")
+def report_cmd(model: str, output: str, force: bool, combination: str | None) -> None:
     """Write the calculation report of MODEL: model, diagrams, check, capacity."""
     path = Path(output)
     kind = path.suffix.lower()
@@ -830,7 +974,9 @@ def report_cmd(model: str, output: str, force: bool) -> None:
         fail(f"{output}: the report must be a .html or .pdf file")
     if path.exists() and not force:
         fail(f"{output}: exists; use --force to replace it")
-    joint = _load(model)
+    joint = _pick(_load(model), combination)
+    if joint.has_cases and combination is None:
+        joint = _governing_joint(joint, "report")
     sol = _solve(joint)  # refuses a bad joint with the one-line error before the long part
     from plyshear.report import document
 
@@ -858,6 +1004,11 @@ def validate_cmd(model: str) -> None:
     row = f", {bolts} bolts" if bolts > 1 else ""
     click.echo(f"ok: {model}: {len(joint.plies)} plies, {planes} planes{row}, "
                f"units {joint.units}, check {joint.check.standard}")
+    if joint.has_cases:
+        from plyshear.report.combinations_text import loads_text
+
+        click.echo(f"{len(joint.cases)} load cases, {len(joint.combinations)} combinations")
+        click.echo(loads_text(joint))
     for w in sanity.warnings(joint):
         click.echo(f"warning: {w}")
     for note in sanity.notes(joint):

@@ -243,6 +243,45 @@ class CheckSettings:
 
 
 @dataclass(frozen=True)
+class LoadCase:
+    """One named load case: the force it puts on every member.
+
+    Attributes:
+        name: The case's name, as the model file gives it (``dead``, ``wind_north``).
+        loads: Force (Fx, Fy) on every member in :attr:`Joint.members` order, N;
+            (0, 0) on a member that does not name the case.
+        category: What the case is, for the generated combinations (``dead``,
+            ``live``, ``wind``, ...; see :mod:`plyshear.model.combinations`), or
+            None when its name says nothing a generator knows.
+    """
+
+    name: str
+    loads: tuple[tuple[float, float], ...]
+    category: str | None = None
+
+
+@dataclass(frozen=True)
+class Combination:
+    """A load combination: factors on the cases.
+
+    Attributes:
+        name: Unique name.
+        factors: ``(case name, factor)`` pairs; cases not named carry factor 0.
+        level: ``"factored"`` (strength: LRFD, EN 1993) or ``"service"`` (ASD).
+        source: The equation it comes from (generated ones), or "".
+    """
+
+    name: str
+    factors: tuple[tuple[str, float], ...]
+    level: str = "factored"
+    source: str = ""
+
+    def factor(self, case: str) -> float:
+        """The factor on ``case`` (0 when the combination does not name it)."""
+        return dict(self.factors).get(case, 0.0)
+
+
+@dataclass(frozen=True)
 class Joint:
     """A bolt through a stack of plies, with its members and settings.
 
@@ -257,6 +296,11 @@ class Joint:
         analysis: Analysis settings.
         check: Design-check settings.
         source: The model file it was read from, if any.
+        cases: Named load cases (empty for a model with plain loads: one case,
+            the members' :attr:`Member.load`).
+        combinations: Load combinations of the cases; the members' loads are
+            those of the first unless :meth:`for_combination` chose another.
+        combination: The name of the combination the members' loads are, or "".
     """
 
     bolt: Bolt
@@ -269,6 +313,9 @@ class Joint:
     stations: tuple[float, ...] = (0.0,)
     check: CheckSettings = field(default_factory=CheckSettings)
     source: str | None = None
+    cases: tuple[LoadCase, ...] = ()
+    combinations: tuple[Combination, ...] = ()
+    combination: str = ""
 
     def ply_starts(self) -> np.ndarray:
         """Return z of the head-side face of every ply, mm."""
@@ -305,6 +352,61 @@ class Joint:
             return np.array([1.0, 0.0])
         i = int(np.argmax(norms))
         return loads[i] / norms[i]
+
+    @property
+    def has_cases(self) -> bool:
+        """True when the model declares load cases (and so combinations)."""
+        return bool(self.cases)
+
+    def combination_named(self, name: str) -> Combination:
+        """Return the combination called ``name``.
+
+        Raises:
+            KeyError: With the known names, if there is none.
+        """
+        for c in self.combinations:
+            if c.name == name:
+                return c
+        known = ", ".join(c.name for c in self.combinations) or "none"
+        raise KeyError(f"no combination '{name}' (known: {known})")
+
+    def combined_loads(self, factors: dict[str, float]) -> tuple[tuple[float, float], ...]:
+        """The member loads ``Σ factor · case`` in :attr:`members` order, N."""
+        out = np.zeros((len(self.members), 2))
+        for case in self.cases:
+            f = factors.get(case.name, 0.0)
+            if f:
+                out += f * np.asarray(case.loads, dtype=float)
+        return tuple((float(fx), float(fy)) for fx, fy in out)
+
+    def with_loads(self, loads: tuple[tuple[float, float], ...]) -> Joint:
+        """Return a copy with every member's load replaced (in :attr:`members` order)."""
+        members = tuple(dataclasses.replace(m, load=(0.0, 0.0) if m.support
+                                            else (float(f[0]), float(f[1])))
+                        for m, f in zip(self.members, loads, strict=True))
+        return dataclasses.replace(self, members=members)
+
+    def for_combination(self, name: str) -> Joint:
+        """Return a copy whose member loads are the combination ``name``.
+
+        Everything that takes a joint (solve, check, capacity, report) then runs
+        on that combination unchanged. The check's load level is the
+        combination's.
+
+        Raises:
+            KeyError: If there is no such combination.
+        """
+        combo = self.combination_named(name)
+        joint = self.with_loads(self.combined_loads(dict(combo.factors)))
+        check = dataclasses.replace(self.check, loads=combo.level)
+        return dataclasses.replace(joint, check=check, combination=combo.name)
+
+    def for_case(self, name: str) -> Joint:
+        """Return a copy whose member loads are the case ``name`` alone (factor 1)."""
+        if name not in {c.name for c in self.cases}:
+            raise KeyError(f"no load case '{name}'")
+        return dataclasses.replace(self.with_loads(self.combined_loads({name: 1.0})),
+                                   combination="")
 
     def with_ply(self, index: int, **changes: Any) -> Joint:
         """Return a copy with ply ``index`` (0-based) changed."""

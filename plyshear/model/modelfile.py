@@ -7,6 +7,7 @@ side) and what was expected, so the command line can print it as one line.
 
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import math
 import os
@@ -32,6 +33,7 @@ from plyshear.model.joint import (
     Bolt,
     CheckSettings,
     Joint,
+    LoadCase,
     Member,
     Ply,
 )
@@ -55,7 +57,11 @@ MIN_LENGTH = 1e-6
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
 TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
-            "pattern")
+            "pattern", "combination")
+COMBINATION_KEYS = ("name", "factors", "level")
+#: Most load cases and combinations in one file.
+MAX_CASES = 200
+MAX_COMBINATIONS = 2000
 PATTERN_KEYS = ("positions", "count", "pitch")
 MAX_STATIONS = 500
 BOLT_KEYS = (
@@ -71,7 +77,7 @@ ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clear
                  "deformation_limits")
 CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
               "slip_critical", "slip_class", "joint_length", "loads", "allow_unloaded",
-              "pin_interaction", "replaceable")
+              "pin_interaction", "replaceable", "combinations", "category")
 #: What the file's loads are: design (factored) or service level.
 LOAD_LEVELS = ("factored", "service")
 #: EN 1993-1-8 Table 3.10 pin bending with shear: the maxima wherever they occur, or
@@ -326,7 +332,8 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
                          f"'{ply.name}' is already the name of ply[{seen[ply.name]}]")
         seen[ply.name] = i
 
-    members = _members(r, data.get("member", {}), plies)
+    case_loads: dict[str, dict[str, tuple[float, float]]] = {}
+    members = _members(r, data.get("member", {}), plies, case_loads)
     stations = _pattern(r, r.table(data.get("pattern", {}), "pattern")) \
         if "pattern" in data else (0.0,)
     if len(stations) > 1:
@@ -335,12 +342,22 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
                 raise r.fail(f"ply[{i}].width", "missing; a bolt row needs every ply's width "
                              "for its axial stiffness")
     analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
-    check = _check(r, r.table(data.get("check", {}), "check"))
+    check_raw = r.table(data.get("check", {}), "check")
+    check = _check(r, check_raw)
     _require_reach(r, bolt, plies)
-    _require_load(r, members, check)
+    from plyshear.model import loadcases
+
+    cases, combos = loadcases.read(r, data, check_raw, check, members, case_loads)
+    if cases:
+        first = Joint(bolt=bolt, plies=plies, members=members, cases=cases,
+                      combinations=combos)
+        members = first.with_loads(first.combined_loads(dict(combos[0].factors))).members
+        check = dataclasses.replace(check, loads=combos[0].level)
+    _require_load(r, members, check, cases)
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
-                 stations=stations)
+                 stations=stations, cases=cases, combinations=combos,
+                 combination=combos[0].name if combos else "")
 
 
 def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:
@@ -354,9 +371,11 @@ def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:
                      "reach through the stack; give the under-head length of a longer bolt")
 
 
-def _require_load(r: _Reader, members: tuple[Member, ...], check: CheckSettings) -> None:
-    """Refuse a joint whose members carry no load, unless the file allows it."""
-    if check.allow_unloaded or any(m.is_loaded for m in members):
+def _require_load(r: _Reader, members: tuple[Member, ...], check: CheckSettings,
+                  cases: tuple[LoadCase, ...] = ()) -> None:
+    """Refuse a joint whose members carry no load (in any case), unless the file allows it."""
+    if check.allow_unloaded or any(m.is_loaded for m in members) or any(
+            f != (0.0, 0.0) for c in cases for f in c.loads):
         return
     raise r.fail("member", "no member carries a load, so every check would pass with "
                  "utilization 0; give a loaded member a load (or set [check] "
@@ -500,7 +519,14 @@ def _ply(r: _Reader, raw: Any, i: int) -> Ply:
                link_stiffness=link if link > 0 else None, hole_offset=offset)
 
 
-def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...]) -> tuple[Member, ...]:
+def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...],
+             case_loads: dict[str, dict[str, tuple[float, float]]] | None = None
+             ) -> tuple[Member, ...]:
+    """Read the members.
+
+    A load given as a table of cases goes into ``case_loads`` (case → member →
+    force), and the member's own load stays (0, 0) until a combination is chosen.
+    """
     table = r.table(raw, "member")
     used = [p.member for p in plies if p.member is not None]
     for i, ply in enumerate(plies, start=1):
@@ -523,12 +549,34 @@ def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...]) -> tuple[Member, ...]
         if "load" in m:
             if support:
                 raise r.fail(f"{key}.load", "a supported member cannot also be loaded")
-            load = _load(r, m["load"], f"{key}.load")
+            if isinstance(m["load"], Mapping):
+                if case_loads is None:
+                    raise r.fail(f"{key}.load", "a table of load cases is not accepted here")
+                for case, value in _case_table(r, m["load"], f"{key}.load").items():
+                    case_loads.setdefault(case, {})[name] = value
+            else:
+                load = _load(r, m["load"], f"{key}.load")
         enters = r.choice(m.get("enters", "before"), f"{key}.enters", ("before", "after"))
         members.append(Member(name=name, support=support, load=load, enters=enters))
     if not any(m.support for m in members):
         raise r.fail("member", "no supported member; mark at least one with support = true")
     return tuple(members)
+
+
+def _case_table(r: _Reader, raw: Mapping[str, Any], key: str) -> dict[str, tuple[float, float]]:
+    """A member's ``load = { dead = 40, live = [0, 65] }``: case name → (Fx, Fy), N."""
+    if not raw:
+        raise r.fail(key, "an empty table of load cases; give e.g. { dead = 40, live = 65 }")
+    if len(raw) > MAX_CASES:
+        raise r.fail(key, f"at most {MAX_CASES} load cases (got {len(raw)})")
+    out = {}
+    for case, value in raw.items():
+        if not case.strip():
+            raise r.fail(key, "a load case needs a name")
+        if isinstance(value, Mapping):
+            raise r.fail(f"{key}.{case}", "must be a scalar (along x) or [Fx, Fy] (got a table)")
+        out[case] = _load(r, value, f"{key}.{case}")
+    return out
 
 
 def _load(r: _Reader, raw: Any, key: str) -> tuple[float, float]:
