@@ -451,7 +451,8 @@ def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
     else:
         found = catalog.stress_area(d)
         if found is None:
-            if threads == "excluded":
+            # threads excluded, or no thread at all (thread_length = 0): a plain shank
+            if threads == "excluded" or thread_length == 0.0:
                 found = math.pi * d * d / 4
             else:
                 raise r.fail("bolt.diameter", f"no thread data for a {_fmt(d)} mm diameter; "

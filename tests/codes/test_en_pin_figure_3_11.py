@@ -31,3 +31,13 @@ def test_pin_bending_is_at_least_the_figure_3_11_moment(a: float, c: float) -> N
     assert bending.demand >= figure * (1 - 1e-9)
     solved = plyshear.solve(joint).bolts[0].max_moment
     assert bending.demand == pytest.approx(max(solved, figure), rel=1e-9)
+
+
+def test_a_pin_with_no_thread_needs_no_thread_data() -> None:
+    # thread_length = 0: a plain shank, so an M21 (no ISO thread row) is a pin of its own
+    text = _clevis(12.0, 25.0, 0.0).replace(
+        'threads = "excluded"\n', "length = 80\nthread_length = 0\n").replace(
+        "diameter = 30", "diameter = 21")
+    joint = modelfile.loads(text)
+    assert joint.bolt.stress_area == pytest.approx(3.141592653589793 * 21.0**2 / 4.0)
+    assert not any(p.threads for p in plyshear.solve(joint).bolts[0].planes)
