@@ -123,6 +123,16 @@ def _guard(func: Callable[[], Any]) -> Any:
         fail(str(exc))
 
 
+def _extra(func: Callable[[], Any]) -> Any:
+    """Run ``func``; a missing optional package ends in one line naming its extra."""
+    from plyshear.report.extras import MissingExtraError
+
+    try:
+        return func()
+    except MissingExtraError as exc:
+        fail(str(exc))
+
+
 def _load(path: str) -> Any:
     import plyshear
 
@@ -798,12 +808,24 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
 @click.option("-o", "--output", type=click.Path(dir_okay=False), required=True,
               help="The report file: .html (self-contained) or .pdf.")
 @click.option("--force", is_flag=True, help="Replace an existing report.")
-def report_cmd(model: str, output: str, force: bool) -> None:
-    """Write the calculation report of MODEL: model, diagrams, check, capacity."""
+@click.option("--paper", type=click.Choice(["letter", "a4"]), default=None,
+              help="Paper of the PDF (default: US Letter for kip-in models, A4 otherwise).")
+def report_cmd(model: str, output: str, force: bool, paper: str | None) -> None:
+    """Write the calculation report of MODEL: model, loads, diagrams, check, capacity.
+
+    The PDF is typeset with a title block on every page (the model's project, job,
+    subject, prepared_by, checked_by, revision and date keys) and page numbers.
+    """
     path = Path(output)
     kind = path.suffix.lower()
     if kind not in (".html", ".htm", ".pdf"):
         fail(f"{output}: the report must be a .html or .pdf file")
+    if paper is not None and kind != ".pdf":
+        fail(f"{output}: --paper applies to a .pdf report only")
+    if kind == ".pdf":
+        from plyshear.report.extras import require
+
+        _extra(lambda: require("typst", "pdf"))
     if path.exists() and not force:
         fail(f"{output}: exists; use --force to replace it")
     joint = _load(model)
@@ -814,7 +836,8 @@ def report_cmd(model: str, output: str, force: bool) -> None:
         data = _guard(lambda: document.build(joint))
     except ValueError as exc:
         fail(f"{model}: report: {exc}")
-    payload = document.to_pdf(data) if kind == ".pdf" else document.to_html(data).encode()
+    payload = document.to_pdf(data, paper) if kind == ".pdf" else \
+        document.to_html(data).encode()
     write_atomic(path, payload, force)
     click.echo(f"report written to {path}", err=True)
 

@@ -236,6 +236,31 @@ class CheckSettings:
 
 
 @dataclass(frozen=True)
+class TitleBlock:
+    """The report's title block, from the model file's top-level keys (all free text).
+
+    Attributes:
+        job: Job number or name.
+        subject: What this calculation is of.
+        prepared_by: Who prepared it.
+        checked_by: Who checked it.
+        revision: Its revision.
+        date: Its date (a TOML date is kept as YYYY-MM-DD).
+    """
+
+    job: str = ""
+    subject: str = ""
+    prepared_by: str = ""
+    checked_by: str = ""
+    revision: str = ""
+    date: str = ""
+
+
+#: The title block's keys, top level in the model file (``project`` is a field of Joint).
+TITLE_BLOCK_KEYS = ("job", "subject", "prepared_by", "checked_by", "revision", "date")
+
+
+@dataclass(frozen=True)
 class Joint:
     """A bolt through a stack of plies, with its members and settings.
 
@@ -250,6 +275,7 @@ class Joint:
         analysis: Analysis settings.
         check: Design-check settings.
         source: The model file it was read from, if any.
+        title_block: The report's title block (job, subject, who, revision, date).
     """
 
     bolt: Bolt
@@ -262,6 +288,7 @@ class Joint:
     stations: tuple[float, ...] = (0.0,)
     check: CheckSettings = field(default_factory=CheckSettings)
     source: str | None = None
+    title_block: TitleBlock = field(default_factory=TitleBlock)
 
     def ply_starts(self) -> np.ndarray:
         """Return z of the head-side face of every ply, mm."""

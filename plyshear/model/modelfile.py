@@ -7,6 +7,7 @@ side) and what was expected, so the command line can print it as one line.
 
 from __future__ import annotations
 
+import datetime as dt
 import difflib
 import math
 import os
@@ -25,12 +26,14 @@ from plyshear.model.joint import (
     END_FIXITIES,
     HOLE_TYPES,
     THREAD_MODES,
+    TITLE_BLOCK_KEYS,
     Analysis,
     Bolt,
     CheckSettings,
     Joint,
     Member,
     Ply,
+    TitleBlock,
 )
 
 FORMAT_VERSION = 1
@@ -54,7 +57,7 @@ METHODS = ("lrfd", "asd")
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
 TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
-            "pattern")
+            "pattern", *TITLE_BLOCK_KEYS)
 PATTERN_KEYS = ("positions", "count", "pitch")
 MAX_STATIONS = 500
 BOLT_KEYS = (
@@ -322,6 +325,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     r.system = _units.SYSTEMS[units_name]
     title = r.text(data.get("title", ""), "title")
     project = r.text(data.get("project", ""), "project")
+    title_block = _title_block(r, data)
 
     if "bolt" not in data:
         raise r.fail("bolt", "missing; the joint needs a [bolt] table")
@@ -358,7 +362,18 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     _require_load(r, members, check)
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
-                 stations=stations)
+                 stations=stations, title_block=title_block)
+
+
+def _title_block(r: _Reader, data: dict[str, Any]) -> TitleBlock:
+    """The title block's keys: strings, or (for ``date``) a TOML date."""
+    values = {}
+    for key in TITLE_BLOCK_KEYS:
+        value = data.get(key, "")
+        if key == "date" and isinstance(value, dt.date):
+            value = value.isoformat()
+        values[key] = r.text(value, key)
+    return TitleBlock(**values)
 
 
 def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:

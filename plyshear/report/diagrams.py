@@ -22,11 +22,11 @@ from matplotlib.figure import Figure  # noqa: E402
 from matplotlib.patches import Rectangle  # noqa: E402
 from matplotlib.ticker import MaxNLocator  # noqa: E402
 
-from plyshear import units as _units  # noqa: E402
 from plyshear.mechanics.capacity import CapacitySummary  # noqa: E402
 from plyshear.mechanics.results import Solution, signed_resultant  # noqa: E402
 from plyshear.mechanics.studies import PlanesRow, ScatterResult  # noqa: E402
 from plyshear.model.joint import Joint  # noqa: E402
+from plyshear.report.quantities import display  # noqa: E402
 from plyshear.report.text import fmt  # noqa: E402
 
 INK = "#1b1b1b"
@@ -73,7 +73,7 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
         The Axes.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     ln = u.factor("length")
     styles = member_styles(joint)
     d = joint.bolt.diameter / ln
@@ -115,7 +115,7 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
 def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -> Axes:
     ax = _new_axes(ax)
     joint = sol.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     b = sol.bolts[bolt]
     dim = {"shear": "force", "moment": "moment", "deflection": "length"}[which]
     arr = {"shear": b.V, "moment": b.M, "deflection": b.w}[which]
@@ -151,7 +151,7 @@ def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0,
         The Axes; its first line holds (V, z) in the joint's units.
     """
     ax = _diagram(solution, "shear", ax, bolt, **kw)
-    u = _units.system(solution.joint.units)
+    u = display(solution.joint.units)
     for p in solution.bolts[bolt].planes:
         v = signed_resultant(_as_row(p.shear_xy), solution.joint.load_axis())[0]
         label = fmt(p.shear / u.factor("force"), 3)
@@ -180,7 +180,7 @@ def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int 
     """
     ax = _new_axes(ax)
     joint = solution.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     b = solution.bolts[bolt]
     ends = b.q.reshape(-1, 2)  # element ends in z order: (ne * 2, comp)
     q = signed_resultant(ends, joint.load_axis()) / joint.bolt.diameter / u.factor("stress")
@@ -279,7 +279,7 @@ def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = Non
         The Axes; its first line holds (slip, load) in the joint's units.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     hist = summary.analysis.history
     slip = [s.slip / u.factor("length") for s in hist]
     load = [s.load / u.factor("force") for s in hist]
@@ -305,7 +305,7 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
         The Axes; line k holds (load, shear of plane k+1) in the joint's units.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f = u.factor("force")
     hist = summary.analysis.history
     load = np.array([s.load for s in hist]) / f
@@ -336,7 +336,7 @@ def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
         start of loading, then at capacity.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     x = np.asarray(joint.stations) / u.factor("length")
     hist = [s for s in summary.analysis.history if s.load > 0]
     for state, style, when in ((hist[0], ":", "service"), (hist[-1], "-", "capacity")):
@@ -372,7 +372,7 @@ def capacity_figure(summary: CapacitySummary, joint: Joint) -> Figure:
 
 def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
     """Capacity and plane efficiency against the number of planes (the study's chart)."""
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f = u.factor("force")
     n = [r.planes for r in rows]
     fig = Figure(figsize=(10, 4.2), layout="constrained")
@@ -411,7 +411,7 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
     histogram. Samples with no finite value (failed below the load, not
     converged) cannot be drawn; the panel's title counts them.
     """
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f, lf = u.factor("force"), u.label("force")
     fig = Figure(figsize=(10, 4.0), layout="constrained")
     axs = fig.subplots(1, 2)
@@ -446,7 +446,7 @@ def plot_row(solution: Solution, ax: Axes | None = None) -> Axes:
     """
     ax = _new_axes(ax)
     joint = solution.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     x = np.array([b.x for b in solution.bolts]) / u.factor("length")
     shear = np.array([[p.shear for p in b.planes] for b in solution.bolts]) / u.factor("force")
     for k in range(shear.shape[1]):

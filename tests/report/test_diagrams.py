@@ -10,6 +10,7 @@ import pytest
 import plyshear
 from plyshear.mechanics.results import signed_resultant
 from plyshear.report import diagrams
+from plyshear.report.quantities import display
 from tests.conftest import MODELS
 
 EXAMPLES = sorted(MODELS.glob("*.toml"))
@@ -21,7 +22,7 @@ UNIT = re.compile(r"\[[^\]]+\]")
 def test_plotted_diagrams_equal_the_solution_arrays(path) -> None:
     joint = plyshear.load_model(path)
     sol = plyshear.solve(joint)
-    u = plyshear.units.system(joint.units)
+    u = display(joint.units)  # the report's engineering form (kN, kN·m for metric models)
     b = sol.bolts[0]
     axis = joint.load_axis()
     fig = diagrams.solution_figure(sol, pressure=True)
@@ -42,6 +43,19 @@ def test_plotted_diagrams_equal_the_solution_arrays(path) -> None:
         if ax is not stack:
             assert UNIT.search(ax.get_xlabel()), ax.get_xlabel()
     assert UNIT.search(stack.get_ylabel())
+
+
+def test_metric_figures_are_in_kn_and_kn_m() -> None:
+    joint = plyshear.load_model(MODELS / "lug-cheek-plates.toml")  # an N-mm model
+    sol = plyshear.solve(joint)
+    fig = diagrams.solution_figure(sol)
+    moment = fig.axes[2]
+    assert "[kN·m]" in moment.get_xlabel()
+    m, _ = moment.lines[0].get_data()
+    N_MM_PER_KN_M = 1e6  # exact: 1 kN = 1000 N, 1 m = 1000 mm
+    expected = signed_resultant(sol.bolts[0].M, joint.load_axis()) / N_MM_PER_KN_M
+    assert np.asarray(m) == pytest.approx(expected, rel=REL_EXACT, abs=1e-12)
+    assert "[kN]" in fig.axes[1].get_xlabel()
 
 
 def test_plane_labels_show_value_and_utilization() -> None:
