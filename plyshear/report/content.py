@@ -17,6 +17,7 @@ from plyshear.codes.check import UNVERIFIED, CheckResult, load_level
 from plyshear.mechanics.capacity import CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.model.joint import Joint
+from plyshear.report.handcalc import LastPlane, hand_rows
 from plyshear.report.quantities import Display, display
 from plyshear.report.text import fmt
 
@@ -94,6 +95,7 @@ class ReportData:
         capacity: Its capacity answers, or None where they could not be found.
         capacity_note: Why the capacity is missing, or "".
         created: The report's date (ISO).
+        last_plane: What the last plane adds to the nonlinear ultimate, or None.
     """
 
     joint: Joint
@@ -102,6 +104,7 @@ class ReportData:
     capacity: CapacitySummary | None
     capacity_note: str
     created: str
+    last_plane: LastPlane | None = None
 
     @property
     def units(self) -> Display:
@@ -314,6 +317,8 @@ def sections(data: ReportData) -> list[Section]:
             "shears with their utilization), bending moment and bearing pressure.",
             landscape=True)]),
         Section("Results", result_rows(data)),
+        Section("Hand methods beside the model", [hand_table(data), Para(
+            "Ratio = model / hand method: above 1 the hand method understates the demand.")]),
         Section(f"Design check: {res.edition}, {method_name(res)}; loads: {res.loads}",
                 [check_rows(data), *check_verdict(data)]),
         Section("Capacity and plane efficiency", capacity_blocks(data)),
@@ -338,6 +343,8 @@ def capacity_blocks(data: ReportData) -> list[Block]:
     f, lf = u.factor("force"), u.label("force")
     k, basis = cd.factor(joint)
     a = joint.analysis
+    answer = [Para(last_plane_line(data), "Does the last plane pay?")] \
+        if data.last_plane is not None else []
     rows = []
     for name, label in cd.ANSWERS:
         ans = cap.answers[name]
@@ -356,6 +363,7 @@ def capacity_blocks(data: ReportData) -> list[Block]:
     strengths.append(["bolt plastic moment (shank) fyb d³/6",
                       f"{fmt(s.shank_moment / u.factor('moment'))} {u.label('moment')}", ""])
     return [
+        *answer,
         Para(f"Bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; nominal "
              f"strengths; design = nominal × {k:.3g} ({basis}). {cap.planes} planes between "
              f"members; one plane's rupture strength 0.62 fub A = "
@@ -374,3 +382,32 @@ def capacity_blocks(data: ReportData) -> list[Block]:
         Graphic("capacity", lambda: diagrams.capacity_figure(cap, joint),
                 "Load against slip and the plane shears against load."),
     ]
+
+
+def hand_table(data: ReportData) -> Table:
+    """The hand methods against the model's worst plane and largest moment."""
+    u = data.units
+    rows = []
+    for r in hand_rows(data.solution):
+        k, unit = u.factor(r.dimension), u.label(r.dimension)
+        rows.append([r.method, "-" if r.hand is None else fmt(r.hand / k), fmt(r.model / k),
+                     unit, "-" if r.ratio is None else f"{r.ratio:.2f}", r.note])
+    return Table(["hand method", "hand", "model", "unit", "ratio", "how"], rows, "lrrlrl",
+                 "worst plane shear and largest bolt moment")
+
+
+def last_plane_line(data: ReportData) -> str:
+    """The one-line answer: whether the joint's last plane pays, in force and per cent."""
+    lp, u = data.last_plane, data.units
+    assert lp is not None
+    f, lf = u.factor("force"), u.label("force")
+    if lp.gain is None or lp.one_fewer is None:
+        return f"not answered: {lp.why_not}."
+    pct = 100.0 * lp.gain / lp.one_fewer
+    share = 100.0 * lp.gain / lp.plane_strength
+    word = "pays" if lp.pays else "does NOT pay"
+    return (f"plane {lp.planes} {word}: it adds {fmt(lp.gain / f)} {lf} ({pct:+.1f} %) to the "
+            f"nonlinear ultimate, {fmt(lp.with_all / f)} {lf} with {lp.planes} planes against "
+            f"{fmt(lp.one_fewer / f)} {lf} with the stack rebuilt with {lp.planes - 1} (each "
+            f"member keeping its total thickness): {share:.0f} % of one plane's rupture "
+            f"strength, {fmt(lp.plane_strength / f)} {lf}.")

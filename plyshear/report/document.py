@@ -46,13 +46,16 @@ def build(joint: Joint) -> ReportData:
     """Solve, check and (where it converges) find the capacity of ``joint``."""
     sol = solve(joint)
     res = check(joint, sol)
+    from plyshear.report.handcalc import last_plane
+
     try:
         cap: CapacitySummary | None = summarize(sol)
         note = ""
     except CapacityError as exc:
         cap, note = None, f"capacity not available: {exc}"
     created = _created()
-    return ReportData(joint, sol, res, cap, note, created)
+    last = last_plane(cap) if cap is not None else None
+    return ReportData(joint, sol, res, cap, note, created, last)
 
 
 def _created() -> str:
