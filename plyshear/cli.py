@@ -170,6 +170,34 @@ def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
     return path, fmt
 
 
+def _export_target(output: str | None, force: bool) -> Path | None:
+    """Check an export's name (.csv or .xlsx), its extra and no overwrite, before the work."""
+    if output is None:
+        return None
+    from plyshear.report.export import FORMATS
+
+    path = Path(output)
+    if path.suffix.lower() not in FORMATS:
+        fail(f"{output}: -o needs a .csv or .xlsx file name")
+    if path.suffix.lower() == ".xlsx":
+        from plyshear.report.extras import require
+
+        _extra(lambda: require("openpyxl", "xlsx"))
+    if path.exists() and not force:
+        fail(f"{path}: exists; use --force to replace it")
+    return path
+
+
+def _write_export(data: dict[str, Any], path: Path | None, force: bool) -> None:
+    """Write the JSON result's tables to ``path`` (CSV or XLSX), atomically."""
+    if path is None:
+        return
+    from plyshear.report.export import export
+
+    write_atomic(path, export(data, path.suffix.lower()), force)
+    click.echo(f"results written to {path}", err=True)
+
+
 def _write_figure(fig: Any, target: tuple[Path, str], force: bool) -> None:
     """Render a figure in the target's format and write it atomically."""
     from plyshear.report import diagrams
@@ -200,12 +228,18 @@ def main() -> None:
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
-def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="Write the results: .csv (one row per plane, ply, member) or .xlsx (a "
+                   "sheet each; the 'xlsx' extra).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
+def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None,
+              force: bool) -> None:
     """Solve the shear in every plane of MODEL (a TOML model file)."""
     target = _plot_target(plot, force)
+    out_path = _export_target(output, force)
     joint = _load(model)
     sol = _solve(joint)
+    _write_export(sol.to_dict(diagram=False), out_path, force)
     if as_json:
         click.echo(json.dumps(sol.to_dict(), indent=2))
     else:
@@ -225,28 +259,24 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool) -> None:
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its check.")
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="Write the results with the check: .csv (one row per plane, ply, member, "
+                   "check item) or .xlsx (a sheet each; the 'xlsx' extra).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
 def check_cmd(model: str, standard: str | None, method: str | None, as_json: bool,
-              plot: str | None, force: bool) -> None:
+              plot: str | None, output: str | None, force: bool) -> None:
     """Check every plane, ply and the bolt of MODEL against a design standard.
 
     Exit code 0 when every item passes, 1 when one fails, 2 on bad input.
     """
-    import plyshear
-
     target = _plot_target(plot, force)
+    out_path = _export_target(output, force)
     joint = _load(model)
     sol = _solve(joint)
-    if method is not None and (standard or joint.check.standard) != "aisc360-22":
-        fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
-    try:
-        result = plyshear.check(joint, sol, standard, method)
-    except ValueError as exc:
-        fail(f"{model}: check: {exc}")
+    result = _run_check(model, joint, sol, standard, method)
+    data = _check_dict(sol, result) if as_json or out_path is not None else {}
+    _write_export(data, out_path, force)
     if as_json:
-        data = sol.to_dict()
-        data["check"] = result.to_dict()
-        data["warnings"] = data["warnings"] + list(result.warnings)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import check_text
@@ -255,6 +285,27 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     if target is not None:
         _write_plot(sol, target, force)
     sys.exit(0 if result.passes else 1)
+
+
+def _run_check(model: str, joint: Any, sol: Any, standard: str | None,
+               method: str | None) -> Any:
+    """The check of a solved joint; bad options end in the one-line error."""
+    import plyshear
+
+    if method is not None and (standard or joint.check.standard) != "aisc360-22":
+        fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
+    try:
+        return plyshear.check(joint, sol, standard, method)
+    except ValueError as exc:
+        fail(f"{model}: check: {exc}")
+
+
+def _check_dict(sol: Any, result: Any) -> dict[str, Any]:
+    """The JSON result with its check section and the check's warnings."""
+    data = sol.to_dict()
+    data["check"] = result.to_dict()
+    data["warnings"] = data["warnings"] + list(result.warnings)
+    return data
 
 
 def _summarize(joint: Any) -> Any:
@@ -287,8 +338,8 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
                    "(about 0.2 s each).")
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
 @click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="With --scatter: write every sample to a .csv or .jsonl file as it "
-                   "finishes.")
+              help="Write the results with the capacity answers to .csv or .xlsx; with "
+                   "--scatter: every sample to a .csv or .jsonl file as it finishes.")
 @click.option("--resume", is_flag=True,
               help="With --scatter -o: continue the run that wrote the file.")
 def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
@@ -305,9 +356,10 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     draws their histograms. With -o the samples are written as they finish; Ctrl-C
     keeps them and --resume continues.
     """
-    if scatter is None and (output is not None or resume):
-        fail(f"{model}: -o and --resume apply to --scatter only")
-    out_path = _sweep_output(output, force, resume)
+    if scatter is None and resume:
+        fail(f"{model}: --resume applies to --scatter only")
+    export_path = _export_target(output, force) if scatter is None else None
+    out_path = _sweep_output(output, force, resume) if scatter is not None else None
     target = _plot_target(plot, force)
     joint = _load(model)
     _echo_sanity(joint)
@@ -316,11 +368,13 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         return
     summary = _summarize(joint)
     result = _check_quietly(joint, summary.solution)
-    if as_json:
+    if as_json or export_path is not None:
         from plyshear.report.capacity_data import capacity_dict
 
         data = summary.solution.to_dict(diagram=False)
         data["capacity"] = capacity_dict(summary, joint, result)
+        _write_export(data, export_path, force)
+    if as_json:
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import capacity_text
