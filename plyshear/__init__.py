@@ -90,6 +90,7 @@ def solve(joint: Joint) -> Solution:
     """
     from plyshear.mechanics.solve import solve as _solve
 
+    _notebook()
     return _solve(joint)
 
 
@@ -108,6 +109,7 @@ def check(joint: Joint, solution: Solution, standard: str | None = None,
     """
     from plyshear.codes.check import check as _check
 
+    _notebook()
     return _check(joint, solution, standard, method)
 
 
@@ -128,4 +130,10 @@ def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
     """
     from plyshear.mechanics.capacity import summarize
 
+    _notebook()
     return summarize(joint_or_solution)
+
+
+def _notebook() -> None:
+    """Give the results ``_repr_html_`` and ``to_frame()`` (cheap: nothing heavy is loaded)."""
+    import plyshear.report.notebook  # noqa: F401
