@@ -251,7 +251,7 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None,
 
 
 @main.command("check")
-@click.argument("model", type=click.Path(dir_okay=False))
+@click.argument("models", nargs=-1, required=True, type=click.Path(dir_okay=False))
 @click.option("--standard", type=click.Choice(["aisc360-22", "en1993-1-8"]), default=None,
               help="Design standard (default: the model's [check] standard).")
 @click.option("--method", type=click.Choice(["lrfd", "asd"]), default=None,
@@ -263,12 +263,24 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None,
               help="Write the results with the check: .csv (one row per plane, ply, member, "
                    "check item) or .xlsx (a sheet each; the 'xlsx' extra).")
 @click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
-def check_cmd(model: str, standard: str | None, method: str | None, as_json: bool,
-              plot: str | None, output: str | None, force: bool) -> None:
-    """Check every plane, ply and the bolt of MODEL against a design standard.
+@click.option("--details", is_flag=True,
+              help="With several models: each one's check table after the summary.")
+def check_cmd(models: tuple[str, ...], standard: str | None, method: str | None,
+              as_json: bool, plot: str | None, output: str | None, force: bool,
+              details: bool) -> None:
+    """Check every plane, ply and the bolt of MODELS against a design standard.
 
-    Exit code 0 when every item passes, 1 when one fails, 2 on bad input.
+    With one model: its check table. With several (models/*.toml): one summary row
+    per file (title, governing item, utilization, verdict), every file checked
+    whatever the others do, then each one's table with --details.
+    Exit code 0 when every item passes, 1 when one fails, 2 on bad input (with
+    several files: 2 if any is refused, else 1 if any fails, else 0).
     """
+    if len(models) > 1:
+        if plot is not None or output is not None:
+            fail("check: --plot and -o apply to one model; give one file")
+        sys.exit(_check_many(models, standard, method, as_json, details))
+    model = models[0]
     target = _plot_target(plot, force)
     out_path = _export_target(output, force)
     joint = _load(model)
@@ -285,6 +297,67 @@ def check_cmd(model: str, standard: str | None, method: str | None, as_json: boo
     if target is not None:
         _write_plot(sol, target, force)
     sys.exit(0 if result.passes else 1)
+
+
+def _check_file(model: str, standard: str | None, method: str | None
+                ) -> tuple[dict[str, Any], Any, Any]:
+    """Load, solve and check one file; a refusal is a row with its error, never an exit."""
+    import plyshear
+    from plyshear.mechanics.solve import SolveError
+    from plyshear.model.modelfile import ModelError
+
+    row: dict[str, Any] = {"file": model, "title": "", "governing": None,
+                           "utilization": None, "passes": None, "error": None}
+    try:
+        joint = plyshear.load_model(model)
+        row["title"] = joint.title
+        sol = plyshear.solve(joint)
+        if method is not None and (standard or joint.check.standard) != "aisc360-22":
+            raise ValueError("--method applies to AISC 360 only (EN uses partial factors)")
+        result = plyshear.check(joint, sol, standard, method)
+    except ModelError as exc:
+        row["error"] = one_line(str(exc))
+        return row, None, None
+    except (SolveError, ValueError) as exc:
+        row["error"] = one_line(f"{model}: {exc}")
+        return row, None, None
+    gov = result.governing
+    row.update(passes=result.passes,
+               governing=None if gov is None else f"{gov.what}, {gov.place(result.units)}",
+               utilization=None if gov is None else gov.utilization)
+    return row, result, sol
+
+
+def _check_many(models: tuple[str, ...], standard: str | None, method: str | None,
+                as_json: bool, details: bool) -> int:
+    """Check every file; print the summary (and the details); return the exit code."""
+    from plyshear.report.text import check_text, table
+
+    done = [_check_file(m, standard, method) for m in models]
+    rows = [r for r, _, _ in done]
+    for r in rows:
+        if r["error"] is not None:
+            click.echo(f"error: {r['error']}", err=True)
+    if as_json:
+        click.echo(json.dumps({"files": rows}, indent=2))
+    else:
+        cells = [[r["file"], r["title"], r["governing"] or "-",
+                  "-" if r["utilization"] is None else f"{r['utilization']:.3f}",
+                  _verdict(r)] for r in rows]
+        click.echo(table(["file", "title", "governing", "util.", "verdict"], cells, "lllrl"))
+        if details:
+            for (r, result, sol) in done:
+                if result is not None:
+                    click.echo(f"\n== {r['file']}\n{check_text(result, sol)}")
+    if any(r["error"] is not None for r in rows):
+        return EXIT_BAD_INPUT
+    return EXIT_FAILS if any(r["passes"] is False for r in rows) else 0
+
+
+def _verdict(row: dict[str, Any]) -> str:
+    if row["error"] is not None:
+        return "REFUSED (bad input)"
+    return "passes" if row["passes"] else "FAILS"
 
 
 def _run_check(model: str, joint: Any, sol: Any, standard: str | None,
