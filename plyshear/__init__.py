@@ -14,12 +14,12 @@ Imports are lazy so that ``plyshear --help`` starts without loading scipy.
 
 from __future__ import annotations
 
-import os
-from typing import TYPE_CHECKING, Any
+import os as _os
+import typing as _typing
 
 __version__ = "0.1.0"
 
-if TYPE_CHECKING:
+if _typing.TYPE_CHECKING:
     from plyshear.codes.check import CheckResult
     from plyshear.mechanics.capacity import CapacitySummary
     from plyshear.mechanics.results import Solution
@@ -46,7 +46,7 @@ _LAZY = {
 }
 
 
-def __getattr__(name: str) -> Any:
+def __getattr__(name: str) -> _typing.Any:
     if name in _LAZY:
         import importlib
 
@@ -55,7 +55,7 @@ def __getattr__(name: str) -> Any:
     raise AttributeError(f"module 'plyshear' has no attribute {name!r}")
 
 
-def load_model(path: str | os.PathLike[str]) -> Joint:
+def load_model(path: str | _os.PathLike[str]) -> Joint:
     """Read, validate and load-path-check a model file.
 
     Args:
@@ -137,3 +137,7 @@ def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
 def _notebook() -> None:
     """Give the results ``_repr_html_`` and ``to_frame()`` (cheap: nothing heavy is loaded)."""
     import plyshear.report.notebook  # noqa: F401
+
+
+# Keep the namespace to the API: the future import's name is not part of it.
+del annotations

@@ -992,10 +992,17 @@ def validate_cmd(model: str) -> None:
 
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
-def demo_cmd(as_json: bool) -> None:
+@click.option("--copy", "copy_to", type=click.Path(file_okay=False), default=None,
+              metavar="DIR", help="Copy the example model files shipped with plyshear into "
+                                  "DIR (made if missing) instead of solving.")
+@click.option("--force", is_flag=True, help="With --copy: replace files of the same name.")
+def demo_cmd(as_json: bool, copy_to: str | None, force: bool) -> None:
     """Solve a packaged example: a three-leg fork pinned to a two-plate lug."""
     from importlib import resources
 
+    if copy_to is not None:
+        _copy_examples(Path(copy_to), force)
+        return
     ref = resources.files("plyshear") / "models" / DEMO_MODEL
     with resources.as_file(ref) as path:
         joint = _load(str(path))
@@ -1007,8 +1014,28 @@ def demo_cmd(as_json: bool) -> None:
     from plyshear.report.text import solution_text
 
     click.echo(solution_text(sol))
-    click.echo(f"\nThe model file is {DEMO_MODEL} among the examples shipped with plyshear "
-               "(models/ in the source tree); try `plyshear solve models/<file>.toml`.")
+    click.echo(f"\nThe model file is {DEMO_MODEL}, one of the examples shipped with plyshear. "
+               "Copy them out with `plyshear demo --copy examples`, then try `plyshear solve "
+               f"examples/{DEMO_MODEL}`.")
+
+
+def _copy_examples(target: Path, force: bool) -> None:
+    """Write every packaged example into ``target``; refuse to replace one without --force."""
+    from importlib import resources
+
+    files = sorted((f for f in (resources.files("plyshear") / "models").iterdir()
+                    if f.name.endswith(".toml")), key=lambda f: f.name)
+    clash = [f.name for f in files if (target / f.name).exists()]
+    if clash and not force:
+        fail(f"{target}: {', '.join(clash)} exist(s); use --force to replace")
+    try:
+        target.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        fail(f"{target}: cannot make the folder ({exc.strerror or exc})")
+    for f in files:
+        write_atomic(target / f.name, f.read_bytes(), force)
+    click.echo(f"{len(files)} example models copied to {target}: "
+               + ", ".join(f.name for f in files))
 
 
 DEMO_MODEL = "fork-four-planes.toml"
