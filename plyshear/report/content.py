@@ -160,10 +160,23 @@ def loads_text(data: ReportData) -> list[str]:
 
 
 def equal_split(data: ReportData) -> str:
-    """The hand-method contrast line (total / planes against the worst plane)."""
-    from plyshear.report.text import equal_split_line
+    """The hand-method contrast line (total / planes against the worst plane), report units."""
+    from plyshear.report.handcalc import equal_split as _equal
+    from plyshear.report.handcalc import member_planes, total_load
 
-    return equal_split_line(data.solution)
+    sol, u = data.solution, data.units
+    f, lf = u.factor("force"), u.label("force")
+    equal = _equal(data.joint)
+    if equal is None:
+        return "Equal split: not applicable (no load or no plane between members)."
+    nb = len(sol.bolts)
+    k, worst = max(((k, p) for k, b in enumerate(sol.bolts) for p in b.planes),
+                   key=lambda kp: kp[1].shear)
+    where = f"bolt {k + 1} plane {worst.index}" if nb > 1 else f"plane {worst.index}"
+    per = f"{member_planes(data.joint)} planes" + (f" x {nb} bolts" if nb > 1 else "")
+    return (f"Worst {where}: {fmt(worst.shear / f)} {lf} = {worst.shear / equal:.2f} x the "
+            f"equal split {fmt(total_load(data.joint) / f)} {lf} / {per} = "
+            f"{fmt(equal / f)} {lf}.")
 
 
 def model_rows(data: ReportData) -> list[Table]:
