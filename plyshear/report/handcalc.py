@@ -177,8 +177,10 @@ def last_plane(summary: CapacitySummary) -> LastPlane:
     from plyshear.mechanics.studies import rebuild
 
     joint = summary.solution.joint
-    n = summary.planes
+    n = member_planes(joint)  # per bolt (the summary counts every bolt's planes)
     base = LastPlane(n, summary.nonlinear.load, None, summary.plane_strength)
+    if len(joint.stations) > 1:
+        return _replace(base, "the planes study rebuilds single bolts, not bolt rows")
     if n < 3:
         return _replace(base, "two planes are the fewest the planes study rebuilds")
     try:

@@ -88,3 +88,21 @@ def test_last_plane_of_a_two_plane_joint_is_not_answered() -> None:
     lp = handcalc.last_plane(summary)
     assert lp.gain is None
     assert "two planes" in lp.why_not
+
+
+def test_last_plane_of_a_bolt_row_is_not_answered() -> None:
+    joint = plyshear.load_model(MODELS / "splice-six-bolts.toml")
+    sol = plyshear.solve(joint)
+
+    class _Summary:  # the fields last_plane reads, without the row's capacity run
+        solution = sol
+        planes = 12
+        plane_strength = 1.0
+
+        class nonlinear:  # noqa: N801
+            load = 1.0
+
+    lp = handcalc.last_plane(_Summary())  # type: ignore[arg-type]
+    assert lp.gain is None
+    assert "bolt rows" in lp.why_not
+    assert lp.planes == 2  # per bolt: cover / chord / cover
