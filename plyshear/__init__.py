@@ -14,12 +14,12 @@ Imports are lazy so that ``plyshear --help`` starts without loading scipy.
 
 from __future__ import annotations
 
-import os
-from typing import TYPE_CHECKING, Any
+import os as _os
+import typing as _typing
 
 __version__ = "0.1.0"
 
-if TYPE_CHECKING:
+if _typing.TYPE_CHECKING:
     from plyshear.codes.check import CheckResult
     from plyshear.mechanics.capacity import CapacitySummary
     from plyshear.mechanics.results import Solution
@@ -50,7 +50,7 @@ _LAZY = {
 }
 
 
-def __getattr__(name: str) -> Any:
+def __getattr__(name: str) -> _typing.Any:
     if name in _LAZY:
         import importlib
 
@@ -59,7 +59,7 @@ def __getattr__(name: str) -> Any:
     raise AttributeError(f"module 'plyshear' has no attribute {name!r}")
 
 
-def load_model(path: str | os.PathLike[str]) -> Joint:
+def load_model(path: str | _os.PathLike[str]) -> Joint:
     """Read, validate and load-path-check a model file.
 
     Args:
@@ -94,6 +94,7 @@ def solve(joint: Joint) -> Solution:
     """
     from plyshear.mechanics.solve import solve as _solve
 
+    _notebook()
     return _solve(joint)
 
 
@@ -125,6 +126,7 @@ def check(joint_or_solution: Joint | Solution, solution: Solution | None = None,
     if isinstance(joint_or_solution, Solution):
         if solution is not None:
             raise ValueError("give the solution once: check(sol) or check(joint, sol)")
+        _notebook()
         return _check(joint_or_solution, standard, method)
     if solution is None:
         raise ValueError("check needs the solution: check(sol) or check(joint, sol)")
@@ -135,6 +137,7 @@ def check(joint_or_solution: Joint | Solution, solution: Solution | None = None,
         if dataclasses.replace(joint, check=solution.joint.check) != solution.joint:
             raise ValueError("the solution is of another joint: solve this joint first")
         solution = dataclasses.replace(solution, joint=joint)
+    _notebook()
     return _check(solution, standard, method)
 
 
@@ -157,4 +160,14 @@ def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
     from plyshear.mechanics.capacity import summarize
 
     joint = joint_or_solution.joint if hasattr(joint_or_solution, "joint") else joint_or_solution
+    _notebook()
     return summarize(joint_or_solution, nominal_bearing(joint))
+
+
+def _notebook() -> None:
+    """Give the results ``_repr_html_`` and ``to_frame()`` (cheap: nothing heavy is loaded)."""
+    import plyshear.report.notebook  # noqa: F401
+
+
+# Keep the namespace to the API: the future import's name is not part of it.
+del annotations

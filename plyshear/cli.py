@@ -130,6 +130,16 @@ def _guard(func: Callable[[], Any]) -> Any:
         fail(str(exc))
 
 
+def _extra(func: Callable[[], Any]) -> Any:
+    """Run ``func``; a missing optional package ends in one line naming its extra."""
+    from plyshear.report.extras import MissingExtraError
+
+    try:
+        return func()
+    except MissingExtraError as exc:
+        fail(str(exc))
+
+
 def _load(path: str) -> Any:
     import plyshear
 
@@ -221,6 +231,34 @@ def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
     return path, fmt
 
 
+def _export_target(output: str | None, force: bool) -> Path | None:
+    """Check an export's name (.csv or .xlsx), its extra and no overwrite, before the work."""
+    if output is None:
+        return None
+    from plyshear.report.export import FORMATS
+
+    path = Path(output)
+    if path.suffix.lower() not in FORMATS:
+        fail(f"{output}: -o needs a .csv or .xlsx file name")
+    if path.suffix.lower() == ".xlsx":
+        from plyshear.report.extras import require
+
+        _extra(lambda: require("openpyxl", "xlsx"))
+    if path.exists() and not force:
+        fail(f"{path}: exists; use --force to replace it")
+    return path
+
+
+def _write_export(data: dict[str, Any], path: Path | None, force: bool) -> None:
+    """Write the JSON result's tables to ``path`` (CSV or XLSX), atomically."""
+    if path is None:
+        return
+    from plyshear.report.export import export
+
+    write_atomic(path, export(data, path.suffix.lower()), force)
+    click.echo(f"results written to {path}", err=True)
+
+
 def _write_figure(fig: Any, target: tuple[Path, str], force: bool) -> None:
     """Render a figure in the target's format and write it atomically."""
     from plyshear.report import diagrams
@@ -251,9 +289,12 @@ def main() -> None:
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="Write the results: .csv (one row per plane, ply, member) or .xlsx (a "
+                   "sheet each; the 'xlsx' extra).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
 @click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
-def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool,
+def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None, force: bool,
               combination: str | None) -> None:
     """Solve the shear in every plane of MODEL (a TOML model file).
 
@@ -262,11 +303,13 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     (the largest shear, moment and bearing with the combination that gives it).
     """
     target = _plot_target(plot, force)
+    out_path = _export_target(output, force)
     joint = _pick(_load(model), combination)
     if joint.has_cases and combination is None:
         _solve_all(joint, as_json, target, force)
         return
     sol = _solve(joint)
+    _write_export(sol.to_dict(diagram=False), out_path, force)
     if as_json:
         data = sol.to_dict()
         if combination is not None:
@@ -299,7 +342,7 @@ def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force
 
 
 @main.command("check")
-@click.argument("model", type=click.Path(dir_okay=False))
+@click.argument("models", nargs=-1, required=True, type=click.Path(dir_okay=False))
 @click.option("--standard", type=click.Choice(["aisc360-22", "en1993-1-8"]), default=None,
               help="Design standard (default: the model's [check] standard).")
 @click.option("--method", type=click.Choice(["lrfd", "asd"]), default=None,
@@ -307,35 +350,45 @@ def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its check.")
 @click.option("--plot", type=click.Path(dir_okay=False), default=None,
               help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("--force", is_flag=True, help="Replace an existing --plot file.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
+              help="Write the results with the check: .csv (one row per plane, ply, member, "
+                   "check item) or .xlsx (a sheet each; the 'xlsx' extra).")
+@click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
+@click.option("--details", is_flag=True,
+              help="With several models: each one's check table after the summary.")
 @click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
-def check_cmd(model: str, standard: str | None, method: str | None, as_json: bool,
-              plot: str | None, force: bool, combination: str | None) -> None:
-    """Check every plane, ply and the bolt of MODEL against a design standard.
+def check_cmd(models: tuple[str, ...], standard: str | None, method: str | None,
+              as_json: bool, plot: str | None, output: str | None, force: bool,
+              details: bool, combination: str | None) -> None:
+    """Check every plane, ply and the bolt of MODELS against a design standard.
 
-    With load cases, every combination is checked and the table shows each
-    item's governing combination; the verdict is over all combinations.
-    Exit code 0 when every item passes, 1 when one fails, 2 on bad input.
+    With one model: its check table. With several (models/*.toml): one summary row
+    per file (title, governing item, utilization, verdict), every file checked
+    whatever the others do, then each one's table with --details. With load cases,
+    every combination is checked and the table shows each item's governing
+    combination; the verdict is over all combinations.
+    Exit code 0 when every item passes, 1 when one fails, 2 on bad input (with
+    several files: 2 if any is refused, else 1 if any fails, else 0).
     """
-    import plyshear
-
+    if len(models) > 1:
+        if plot is not None or output is not None:
+            fail("check: --plot and -o apply to one model; give one file")
+        sys.exit(_check_many(models, standard, method, as_json, details))
+    model = models[0]
     target = _plot_target(plot, force)
+    out_path = _export_target(output, force)
     joint = _pick(_load(model), combination)
     if method is not None and (standard or joint.check.standard) != "aisc360-22":
         fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
     if joint.has_cases and combination is None:
         _check_all(joint, standard, method, as_json, target, force)
     sol = _solve(joint)
-    try:
-        result = plyshear.check(joint, sol, standard, method)
-    except ValueError as exc:
-        fail(f"{model}: check: {exc}")
+    result = _run_check(model, joint, sol, standard, method)
+    data = _check_dict(sol, result) if as_json or out_path is not None else {}
+    if combination is not None and data:
+        data["combination"] = data["check"]["combination"] = combination
+    _write_export(data, out_path, force)
     if as_json:
-        data = sol.to_dict()
-        data["check"] = result.to_dict()
-        if combination is not None:
-            data["combination"] = data["check"]["combination"] = combination
-        data["warnings"] = data["warnings"] + list(result.warnings)
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import check_text
@@ -377,6 +430,88 @@ def _check_all(joint: Any, standard: str | None, method: str | None, as_json: bo
         click.echo(f"plot: combination {gov} (the governing one)", err=True)
         _write_plot(combined.combinations[gov], target, force)
     sys.exit(0 if checks.to_dict()["passes"] else 1)
+
+
+def _check_file(model: str, standard: str | None, method: str | None
+                ) -> tuple[dict[str, Any], Any, Any]:
+    """Load, solve and check one file; a refusal is a row with its error, never an exit."""
+    import plyshear
+    from plyshear.mechanics.solve import SolveError
+    from plyshear.model.modelfile import ModelError
+
+    row: dict[str, Any] = {"file": model, "title": "", "governing": None,
+                           "utilization": None, "passes": None, "error": None}
+    try:
+        joint = plyshear.load_model(model)
+        row["title"] = joint.title
+        sol = plyshear.solve(joint)
+        if method is not None and (standard or joint.check.standard) != "aisc360-22":
+            raise ValueError("--method applies to AISC 360 only (EN uses partial factors)")
+        result = plyshear.check(joint, sol, standard, method)
+    except ModelError as exc:
+        row["error"] = one_line(str(exc))
+        return row, None, None
+    except (SolveError, ValueError) as exc:
+        row["error"] = one_line(f"{model}: {exc}")
+        return row, None, None
+    gov = result.governing
+    row.update(passes=result.passes,
+               governing=None if gov is None else f"{gov.what}, {gov.place(result.units)}",
+               utilization=None if gov is None else gov.utilization)
+    return row, result, sol
+
+
+def _check_many(models: tuple[str, ...], standard: str | None, method: str | None,
+                as_json: bool, details: bool) -> int:
+    """Check every file; print the summary (and the details); return the exit code."""
+    from plyshear.report.text import check_text, table
+
+    done = [_check_file(m, standard, method) for m in models]
+    rows = [r for r, _, _ in done]
+    for r in rows:
+        if r["error"] is not None:
+            click.echo(f"error: {r['error']}", err=True)
+    if as_json:
+        click.echo(json.dumps({"files": rows}, indent=2))
+    else:
+        cells = [[r["file"], r["title"], r["governing"] or "-",
+                  "-" if r["utilization"] is None else f"{r['utilization']:.3f}",
+                  _verdict(r)] for r in rows]
+        click.echo(table(["file", "title", "governing", "util.", "verdict"], cells, "lllrl"))
+        if details:
+            for (r, result, sol) in done:
+                if result is not None:
+                    click.echo(f"\n== {r['file']}\n{check_text(result, sol)}")
+    if any(r["error"] is not None for r in rows):
+        return EXIT_BAD_INPUT
+    return EXIT_FAILS if any(r["passes"] is False for r in rows) else 0
+
+
+def _verdict(row: dict[str, Any]) -> str:
+    if row["error"] is not None:
+        return "REFUSED (bad input)"
+    return "passes" if row["passes"] else "FAILS"
+
+
+def _run_check(model: str, joint: Any, sol: Any, standard: str | None,
+               method: str | None) -> Any:
+    """The check of a solved joint; bad options end in the one-line error."""
+    import plyshear
+
+    if method is not None and (standard or joint.check.standard) != "aisc360-22":
+        fail(f"{model}: --method applies to AISC 360 only (EN uses partial factors)")
+    try:
+        return plyshear.check(joint, sol, standard, method)
+    except ValueError as exc:
+        fail(f"{model}: check: {exc}")
+
+
+def _check_dict(sol: Any, result: Any) -> dict[str, Any]:
+    """The JSON result with its check section and the check's warnings."""
+    data = sol.to_dict()
+    data["check"] = result.to_dict()
+    data["warnings"] = data["warnings"] + list(result.warnings)
+    return data
 
 
 def _summarize(joint: Any) -> Any:
@@ -421,8 +556,8 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
                    "(about 0.2 s each).")
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
 @click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="With --scatter: write every sample to a .csv or .jsonl file as it "
-                   "finishes.")
+              help="Write the results with the capacity answers to .csv or .xlsx; with "
+                   "--scatter: every sample to a .csv or .jsonl file as it finishes.")
 @click.option("--resume", is_flag=True,
               help="With --scatter -o: continue the run that wrote the file.")
 @click.option("--combination", default=None, metavar="NAME",
@@ -443,9 +578,10 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
     draws their histograms. With -o the samples are written as they finish; Ctrl-C
     keeps them and --resume continues.
     """
-    if scatter is None and (output is not None or resume):
-        fail(f"{model}: -o and --resume apply to --scatter only")
-    out_path = _sweep_output(output, force, resume)
+    if scatter is None and resume:
+        fail(f"{model}: --resume applies to --scatter only")
+    export_path = _export_target(output, force) if scatter is None else None
+    out_path = _sweep_output(output, force, resume) if scatter is not None else None
     target = _plot_target(plot, force)
     joint = _pick(_load(model), combination)
     if joint.has_cases and combination is None:
@@ -457,13 +593,15 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         return
     summary = _summarize(joint)
     result = _check_quietly(joint, summary.solution)
-    if as_json:
+    if as_json or export_path is not None:
         from plyshear.report.capacity_data import capacity_dict
 
         data = summary.solution.to_dict(diagram=False)
         if joint.combination:
             data["combination"] = joint.combination
         data["capacity"] = capacity_dict(summary, joint, result)
+        _write_export(data, export_path, force)
+    if as_json:
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import capacity_text
@@ -966,12 +1104,25 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
 @click.option("--combination", default=None, metavar="NAME",
               help="Report one load combination (default, where the model has load cases: "
                    "the check's governing combination).")
-def report_cmd(model: str, output: str, force: bool, combination: str | None) -> None:
-    """Write the calculation report of MODEL: model, diagrams, check, capacity."""
+@click.option("--paper", type=click.Choice(["letter", "a4"]), default=None,
+              help="Paper of the PDF (default: US Letter for kip-in models, A4 otherwise).")
+def report_cmd(model: str, output: str, force: bool, combination: str | None,
+               paper: str | None) -> None:
+    """Write the calculation report of MODEL: model, loads, diagrams, check, capacity.
+
+    The PDF is typeset with a title block on every page (the model's project, job,
+    subject, prepared_by, checked_by, revision and date keys) and page numbers.
+    """
     path = Path(output)
     kind = path.suffix.lower()
     if kind not in (".html", ".htm", ".pdf"):
         fail(f"{output}: the report must be a .html or .pdf file")
+    if paper is not None and kind != ".pdf":
+        fail(f"{output}: --paper applies to a .pdf report only")
+    if kind == ".pdf":
+        from plyshear.report.extras import require
+
+        _extra(lambda: require("typst", "pdf"))
     if path.exists() and not force:
         fail(f"{output}: exists; use --force to replace it")
     joint = _pick(_load(model), combination)
@@ -984,7 +1135,8 @@ def report_cmd(model: str, output: str, force: bool, combination: str | None) ->
         data = _guard(lambda: document.build(sol))
     except ValueError as exc:
         fail(f"{model}: report: {exc}")
-    payload = document.to_pdf(data) if kind == ".pdf" else document.to_html(data).encode()
+    payload = document.to_pdf(data, paper) if kind == ".pdf" else \
+        document.to_html(data).encode()
     write_atomic(path, payload, force)
     click.echo(f"report written to {path}", err=True)
 
@@ -1017,10 +1169,17 @@ def validate_cmd(model: str) -> None:
 
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
-def demo_cmd(as_json: bool) -> None:
+@click.option("--copy", "copy_to", type=click.Path(file_okay=False), default=None,
+              metavar="DIR", help="Copy the example model files shipped with plyshear into "
+                                  "DIR (made if missing) instead of solving.")
+@click.option("--force", is_flag=True, help="With --copy: replace files of the same name.")
+def demo_cmd(as_json: bool, copy_to: str | None, force: bool) -> None:
     """Solve a packaged example: a three-leg fork pinned to a two-plate lug."""
     from importlib import resources
 
+    if copy_to is not None:
+        _copy_examples(Path(copy_to), force)
+        return
     ref = resources.files("plyshear") / "models" / DEMO_MODEL
     with resources.as_file(ref) as path:
         joint = _load(str(path))
@@ -1032,8 +1191,28 @@ def demo_cmd(as_json: bool) -> None:
     from plyshear.report.text import solution_text
 
     click.echo(solution_text(sol))
-    click.echo(f"\nThe model file is {DEMO_MODEL} among the examples shipped with plyshear "
-               "(models/ in the source tree); try `plyshear solve models/<file>.toml`.")
+    click.echo(f"\nThe model file is {DEMO_MODEL}, one of the examples shipped with plyshear. "
+               "Copy them out with `plyshear demo --copy examples`, then try `plyshear solve "
+               f"examples/{DEMO_MODEL}`.")
+
+
+def _copy_examples(target: Path, force: bool) -> None:
+    """Write every packaged example into ``target``; refuse to replace one without --force."""
+    from importlib import resources
+
+    files = sorted((f for f in (resources.files("plyshear") / "models").iterdir()
+                    if f.name.endswith(".toml")), key=lambda f: f.name)
+    clash = [f.name for f in files if (target / f.name).exists()]
+    if clash and not force:
+        fail(f"{target}: {', '.join(clash)} exist(s); use --force to replace")
+    try:
+        target.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        fail(f"{target}: cannot make the folder ({exc.strerror or exc})")
+    for f in files:
+        write_atomic(target / f.name, f.read_bytes(), force)
+    click.echo(f"{len(files)} example models copied to {target}: "
+               + ", ".join(f.name for f in files))
 
 
 DEMO_MODEL = "fork-four-planes.toml"

@@ -282,6 +282,31 @@ class Combination:
 
 
 @dataclass(frozen=True)
+class TitleBlock:
+    """The report's title block, from the model file's top-level keys (all free text).
+
+    Attributes:
+        job: Job number or name.
+        subject: What this calculation is of.
+        prepared_by: Who prepared it.
+        checked_by: Who checked it.
+        revision: Its revision.
+        date: Its date (a TOML date is kept as YYYY-MM-DD).
+    """
+
+    job: str = ""
+    subject: str = ""
+    prepared_by: str = ""
+    checked_by: str = ""
+    revision: str = ""
+    date: str = ""
+
+
+#: The title block's keys, top level in the model file (``project`` is a field of Joint).
+TITLE_BLOCK_KEYS = ("job", "subject", "prepared_by", "checked_by", "revision", "date")
+
+
+@dataclass(frozen=True)
 class Joint:
     """A bolt through a stack of plies, with its members and settings.
 
@@ -301,6 +326,7 @@ class Joint:
         combinations: Load combinations of the cases; the members' loads are
             those of the first unless :meth:`for_combination` chose another.
         combination: The name of the combination the members' loads are, or "".
+        title_block: The report's title block (job, subject, who, revision, date).
     """
 
     bolt: Bolt
@@ -316,6 +342,7 @@ class Joint:
     cases: tuple[LoadCase, ...] = ()
     combinations: tuple[Combination, ...] = ()
     combination: str = ""
+    title_block: TitleBlock = field(default_factory=TitleBlock)
 
     def ply_starts(self) -> np.ndarray:
         """Return z of the head-side face of every ply, mm."""

@@ -8,6 +8,7 @@ side) and what was expected, so the command line can print it as one line.
 from __future__ import annotations
 
 import dataclasses
+import datetime as dt
 import difflib
 import math
 import os
@@ -29,6 +30,7 @@ from plyshear.model.joint import (
     METHODS,
     STANDARDS,
     THREAD_MODES,
+    TITLE_BLOCK_KEYS,
     Analysis,
     Bolt,
     CheckSettings,
@@ -36,6 +38,7 @@ from plyshear.model.joint import (
     LoadCase,
     Member,
     Ply,
+    TitleBlock,
 )
 
 FORMAT_VERSION = 1
@@ -57,7 +60,7 @@ MIN_LENGTH = 1e-6
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
 TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
-            "pattern", "combination")
+            "pattern", "combination", *TITLE_BLOCK_KEYS)
 COMBINATION_KEYS = ("name", "factors", "level")
 #: Most load cases and combinations in one file.
 MAX_CASES = 200
@@ -310,6 +313,7 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     r.system = _units.SYSTEMS[units_name]
     title = r.text(data.get("title", ""), "title")
     project = r.text(data.get("project", ""), "project")
+    title_block = _title_block(r, data)
 
     if "bolt" not in data:
         raise r.fail("bolt", "missing; the joint needs a [bolt] table")
@@ -357,7 +361,18 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
                  analysis=analysis, check=check, source=path, project=project,
                  stations=stations, cases=cases, combinations=combos,
-                 combination=combos[0].name if combos else "")
+                 combination=combos[0].name if combos else "", title_block=title_block)
+
+
+def _title_block(r: _Reader, data: Mapping[str, Any]) -> TitleBlock:
+    """The title block's keys: strings, or (for ``date``) a TOML date."""
+    values = {}
+    for key in TITLE_BLOCK_KEYS:
+        value = data.get(key, "")
+        if key == "date" and isinstance(value, dt.date):
+            value = value.isoformat()
+        values[key] = r.text(value, key)
+    return TitleBlock(**values)
 
 
 def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:

@@ -19,12 +19,12 @@ from matplotlib.figure import Figure
 from matplotlib.patches import Rectangle
 from matplotlib.ticker import MaxNLocator
 
-from plyshear import units as _units
 from plyshear.mechanics.capacity import CapacitySummary
 from plyshear.mechanics.results import Solution, signed_resultant
 from plyshear.mechanics.strengths import pin_hole
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
 from plyshear.model.joint import Joint, Ply
+from plyshear.report.quantities import display
 from plyshear.report.text import fmt
 
 INK = "#1b1b1b"
@@ -80,7 +80,7 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
         The Axes.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     ln = u.factor("length")
     styles = member_styles(joint)
     d = joint.bolt.diameter / ln
@@ -95,8 +95,8 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
         ax.text(width / 2 + 0.3 * d, starts[j] + ply.thickness / ln / 2, label,
                 va="center", fontsize=7, color=INK)
     grip = joint.grip / ln
-    ax.add_patch(Rectangle((-d / 2, -0.1 * d), d, grip + 0.2 * d, facecolor="none",
-                           edgecolor=INK, linewidth=1.2, linestyle="-"))
+    _draw_bolt(joint, ax, d, ln)
+    _stack_legend(joint, ax, styles)
     if dimensions:
         x_dim = -width / 2 - 0.5 * d
         ends = starts + np.array([p.thickness / ln for p in joint.plies])
@@ -111,7 +111,7 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
                     ha="right", va="center", color=INK)
     ax.axvline(0.0, color=INK, linewidth=0.5, linestyle="-.")
     ax.set_xlim(-width / 2 - (2.0 if dimensions else 1.0) * d, width / 2 + 4 * d)
-    ax.set_ylim(grip + 0.3 * d, -0.3 * d)
+    ax.set_ylim(*stack_ylim(joint))
     ax.set_xticks([])
     ax.set_ylabel(f"z along bolt [{u.label('length')}]")
     ax.set_title("stack", fontsize=9)
@@ -120,10 +120,81 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
     return ax
 
 
+def stack_ylim(joint: Joint) -> tuple[float, float]:
+    """The z range of the stack's elevation (head to the bolt's end), report units, downwards."""
+    ln = display(joint.units).factor("length")
+    d, grip = joint.bolt.diameter / ln, joint.grip / ln
+    length = grip if joint.bolt.length is None else joint.bolt.length / ln
+    return max(grip, length) + 0.3 * d, -0.8 * d
+
+
+def _draw_bolt(joint: Joint, ax: Axes, d: float, ln: float) -> None:
+    """The bolt to its real length (under-head), its head, and where its thread starts.
+
+    Without a length in the model the bolt is drawn just past the grip, dashed.
+    """
+    b = joint.bolt
+    grip = joint.grip / ln
+    known = b.length is not None
+    length = b.length / ln if b.length is not None else grip + 0.2 * d
+    ax.add_patch(Rectangle((-d / 2, 0.0), d, length, facecolor="none", edgecolor=INK,
+                           linewidth=1.2, linestyle="-" if known else "--"))
+    ax.add_patch(Rectangle((-0.8 * d, -0.6 * d), 1.6 * d, 0.6 * d, facecolor="#ffffff",
+                           edgecolor=INK, linewidth=1.0))  # the head (or the pin's collar)
+    if known and b.thread_length:
+        start = length - b.thread_length / ln
+        ax.plot([-d / 2, d / 2], [start, start], color=INK, linewidth=1.0)
+        for x in (-0.4 * d, 0.4 * d):
+            ax.plot([x, x], [start, length], color=INK, linewidth=0.5, linestyle=":")
+        ax.text(0.0, start, "thread", fontsize=6, ha="center", va="bottom", color=INK,
+                bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.5})
+
+
+def _stack_legend(joint: Joint, ax: Axes, styles: dict[str | None, tuple[str, str]]) -> None:
+    """What each fill and hatching of the stack means: a member each, loose fillers/packs."""
+    from matplotlib.lines import Line2D
+
+    handles: list[Any] = [Rectangle((0, 0), 1, 1, facecolor=styles[m.name][0],
+                                    hatch=styles[m.name][1], edgecolor=INK, linewidth=0.6,
+                                    label=f"member {m.name}") for m in joint.members]
+    if any(p.member is None for p in joint.plies):
+        fill, hatch = styles[None]
+        handles.append(Rectangle((0, 0), 1, 1, facecolor=fill, hatch=hatch, edgecolor=INK,
+                                 linewidth=0.6, label="loose filler / pack (no member)"))
+    known = joint.bolt.length is not None
+    handles.append(Line2D([], [], color=INK, linewidth=1.2, linestyle="-" if known else "--",
+                          label="bolt to its length" if known else "bolt (length not given)"))
+    ax.legend(handles=handles, fontsize=6, frameon=False, loc="upper center",
+              bbox_to_anchor=(0.5, -0.02), ncol=1, handlelength=1.5)
+
+
+#: The sign rule printed on each diagram (the result records' own conventions).
+SIGN_RULES = {
+    "shear": "V: force on the head-side plies,\n+ along the load",
+    "moment": "M: dM/dz = V, 0 at a free head",
+    "pressure": "bearing of the bolt on each ply,\n+ along the load; dashed: strength",
+}
+
+
+def _sign_rule(ax: Axes, which: str) -> None:
+    ax.text(0.02, 0.01, SIGN_RULES[which], transform=ax.transAxes, fontsize=6, va="bottom",
+            ha="left", color="#444444",
+            bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.8, "pad": 0.5})
+
+
+def _components(ax: Axes, joint: Joint, arr: np.ndarray, z: np.ndarray, k: float) -> None:
+    """The x and y components of an inclined load's diagram, dashed and dotted."""
+    if np.allclose(arr[:, 1], 0.0) or np.allclose(arr[:, 0], 0.0):
+        return
+    ax.plot(arr[:, 0] / k, z, color=INK, linewidth=0.7, linestyle="--", label="x")
+    ax.plot(arr[:, 1] / k, z, color=INK, linewidth=0.7, linestyle=":", label="y")
+    ax.legend(fontsize=6, frameon=False, loc="lower right")
+
+
 def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -> Axes:
     ax = _new_axes(ax)
     joint = sol.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     b = sol.bolts[bolt]
     dim = {"shear": "force", "moment": "moment", "deflection": "length"}[which]
     arr = {"shear": b.V, "moment": b.M, "deflection": b.w}[which]
@@ -134,6 +205,8 @@ def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -
     ax.fill_betweenx(z, 0.0, values, color="#bbbbbb", alpha=0.5, linewidth=0)
     ax.axvline(0.0, color=INK, linewidth=0.6)
     if which != "deflection":
+        _components(ax, joint, arr, z, u.factor(dim))
+        _sign_rule(ax, which)
         for p in b.planes:
             ax.axhline(p.z / u.factor("length"), color="#888888", linewidth=0.5, linestyle=":")
     ax.set_ylim(z[-1] + 0.05 * (z[-1] - z[0]), z[0] - 0.05 * (z[-1] - z[0]))
@@ -159,14 +232,18 @@ def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0,
         The Axes; its first line holds (V, z) in the joint's units.
     """
     ax = _diagram(solution, "shear", ax, bolt, **kw)
-    u = _units.system(solution.joint.units)
+    u = display(solution.joint.units)
     for p in solution.bolts[bolt].planes:
         v = signed_resultant(_as_row(p.shear_xy), solution.joint.load_axis())[0]
         label = fmt(p.shear / u.factor("force"), 3)
         if utilization and p.index in utilization:
             label += f" ({utilization[p.index]:.2f})"
+        right = v >= 0.0  # the label sits outside the curve: right of a positive peak
         ax.annotate(label, (v / u.factor("force"), p.z / u.factor("length")), fontsize=7,
-                    xytext=(3, -3), textcoords="offset points", color=INK)
+                    xytext=(3 if right else -3, -3), textcoords="offset points", color=INK,
+                    ha="left" if right else "right", va="top",
+                    bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.85,
+                          "pad": 0.3})
     return ax
 
 
@@ -183,14 +260,18 @@ def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int 
                           **kw: Any) -> Axes:
     """Draw the bearing pressure on the bolt, q(z) / d (force per unit length over d).
 
+    The pressure is the bearing of the bolt on the plies (the ply-bearing table's
+    force, per unit length over d), signed along the load; each ply's bearing
+    strength is drawn dashed.
+
     Returns:
         The Axes; its first line holds (q/d, z) in stress units of the joint.
     """
     ax = _new_axes(ax)
     joint = solution.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     b = solution.bolts[bolt]
-    ends = b.q.reshape(-1, 2)  # element ends in z order: (ne * 2, comp)
+    ends = -b.q.reshape(-1, 2)  # element ends in z order: (ne * 2, comp); on the ply
     q = signed_resultant(ends, joint.load_axis()) / joint.bolt.diameter / u.factor("stress")
     z = np.stack([b.z[:-1], b.z[1:]], axis=1).ravel() / u.factor("length")
     ax.plot(q, z, color=INK, linewidth=1.2, **kw)
@@ -198,10 +279,25 @@ def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int 
     z = b.z / u.factor("length")
     ax.axvline(0.0, color=INK, linewidth=0.6)
     ax.set_ylim(z[-1] + 0.05 * (z[-1] - z[0]), z[0] - 0.05 * (z[-1] - z[0]))
+    _bearing_strengths(joint, ax, u.factor("length"), u.factor("stress"))
+    _sign_rule(ax, "pressure")
     ax.set_xlabel(f"bearing pressure q/d [{u.label('stress')}]")
     ax.set_ylabel(f"z along bolt [{u.label('length')}]")
     style_axes(ax)
     return ax
+
+
+def _bearing_strengths(joint: Joint, ax: Axes, ln: float, st: float) -> None:
+    """Each ply's bearing strength per unit length over d, dashed, on both sides of zero."""
+    from plyshear.mechanics.strengths import ply_bearing
+
+    strength, _ = ply_bearing(joint)
+    starts = joint.ply_starts()
+    for p, z0, qs in zip(joint.plies, starts, strength, strict=True):
+        level = qs / joint.bolt.diameter / st
+        for sign in (1.0, -1.0):
+            ax.plot([sign * level] * 2, [z0 / ln, (z0 + p.thickness) / ln], color=INK,
+                    linewidth=0.7, linestyle="--")
 
 
 def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0,
@@ -241,6 +337,7 @@ def solution_figure(solution: Solution, utilization: dict[int, float] | None = N
     for ax, title in zip(axs[1:], titles, strict=True):
         ax.set_ylabel("")
         ax.set_title(title, fontsize=9)
+    axs[0].set_ylim(*stack_ylim(solution.joint))  # shared: the whole bolt in every panel
     if solution.joint.title:
         fig.suptitle(solution.joint.title, fontsize=10)
     return fig
@@ -287,7 +384,7 @@ def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = Non
         The Axes; its first line holds (slip, load) in the joint's units.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     hist = summary.analysis.history
     slip = [s.slip / u.factor("length") for s in hist]
     load = [s.load / u.factor("force") for s in hist]
@@ -313,7 +410,7 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
         The Axes; line k holds (load, shear of plane k+1) in the joint's units.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f = u.factor("force")
     hist = summary.analysis.history
     load = np.array([s.load for s in hist]) / f
@@ -344,7 +441,7 @@ def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
         start of loading, then at capacity.
     """
     ax = _new_axes(ax)
-    u = _units.system(joint.units)
+    u = display(joint.units)
     x = np.asarray(joint.stations) / u.factor("length")
     hist = [s for s in summary.analysis.history if s.load > 0]
     for state, style, when in ((hist[0], ":", "service"), (hist[-1], "-", "capacity")):
@@ -380,7 +477,7 @@ def capacity_figure(summary: CapacitySummary, joint: Joint) -> Figure:
 
 def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
     """Capacity and plane efficiency against the number of planes (the study's chart)."""
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f = u.factor("force")
     n = [r.planes for r in rows]
     fig = Figure(figsize=(10, 4.2), layout="constrained")
@@ -419,7 +516,7 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
     histogram. Samples with no finite value (failed below the load, not
     converged) cannot be drawn; the panel's title counts them.
     """
-    u = _units.system(joint.units)
+    u = display(joint.units)
     f, lf = u.factor("force"), u.label("force")
     fig = Figure(figsize=(10, 4.0), layout="constrained")
     axs = fig.subplots(1, 2)
@@ -441,6 +538,7 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
         ax.set_xlabel(f"{label} [{lf}]")
         ax.set_ylabel("samples [-]")
         style_axes(ax)
+        ax.yaxis.set_major_locator(MaxNLocator(integer=True))
     fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "
                  f"({result.service_shear.size} samples)", fontsize=10)
     return fig
@@ -454,7 +552,7 @@ def plot_row(solution: Solution, ax: Axes | None = None) -> Axes:
     """
     ax = _new_axes(ax)
     joint = solution.joint
-    u = _units.system(joint.units)
+    u = display(joint.units)
     x = np.array([b.x for b in solution.bolts]) / u.factor("length")
     shear = np.array([[p.shear for p in b.planes] for b in solution.bolts]) / u.factor("force")
     for k in range(shear.shape[1]):

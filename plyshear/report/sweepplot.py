@@ -59,12 +59,12 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
     label = response.replace("_", " ") + ("" if dim == "ratio" else f" [{u.label(dim)}]")
     keep = [r for r in rows if not r.get("error") and r.get(response) is not None
             and all(r.get(k) == v for k, v in fixed.items())]
-    xs = _distinct(r[x] for r in keep)
+    xs = _distinct((r[x] for r in keep), key_dimension(x))
     numeric = all(isinstance(v, int | float) and not isinstance(v, bool) for v in xs)
     pos = {v: (v if numeric else i) for i, v in enumerate(xs)}
     fig = Figure(figsize=(7.0, 4.2), layout="constrained")
     ax = fig.subplots()
-    groups = _distinct(r[series] for r in keep) if series else [None]
+    groups = _distinct((r[series] for r in keep), key_dimension(series)) if series else [None]
     if series and len(groups) > MAX_LINES and numeric and \
             all(isinstance(v, int | float) for v in groups):
         import numpy as np
@@ -115,8 +115,17 @@ def key_label(key: str, units: str) -> str:
     return key if dim is None else f"{key} [{_units.system(units).label(dim)}]"
 
 
-def _distinct(values: Any) -> list[Any]:
-    """The distinct values in natural order: numbers by value, names like 8.8 and 10.9 too."""
+def key_dimension(key: str | None) -> str | None:
+    """The dimension of a varied key's values, or None (a name, a ratio)."""
+    return None if key is None else KEY_DIMENSIONS.get(key.rsplit(".", 1)[-1])
+
+
+def _distinct(values: Any, dimension: str | None = None) -> list[Any]:
+    """The distinct values in natural order: numbers by value, names like 8.8 and 10.9 too.
+
+    Values with a unit ("3/4 in", "1 in", "25 mm") sort by their quantity in the
+    key's ``dimension``, not as text.
+    """
     out: list[Any] = []
     for v in values:
         if v not in out:
@@ -126,6 +135,12 @@ def _distinct(values: Any) -> list[Any]:
         try:
             return (0, float(v), "")
         except (TypeError, ValueError):
-            return (1, 0.0, str(v))
+            pass
+        if dimension is not None and isinstance(v, str):
+            try:
+                return (0, _units.parse_quantity(v, dimension), "")
+            except ValueError:
+                pass
+        return (1, 0.0, str(v))
 
     return sorted(out, key=order)

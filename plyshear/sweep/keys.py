@@ -409,9 +409,18 @@ def apply(data: Mapping[str, Any], keys: Sequence[Key], values: Sequence[Any]) -
     """Return the parsed model file with ``values`` set at ``keys`` (None: unchanged).
 
     ``data`` is not changed: the tables and arrays along each key's path are
-    copied (the rest is shared, and the loader only reads it).
+    copied (the rest is shared, and the loader only reads it). A case that sets
+    ``bolt.diameter`` drops the file's ``bolt.stress_area`` (it belongs to the
+    file's diameter), so the loader finds the new diameter's, unless the case
+    sets ``bolt.stress_area`` too.
     """
     out = dict(data)
+    given = {tuple(k.path): v for k, v in zip(keys, values, strict=True) if v is not None}
+    bolt = out.get("bolt")
+    if isinstance(bolt, Mapping) and "stress_area" in bolt and ("bolt", "stress_area") not in \
+            given and given.get(("bolt", "diameter"), bolt.get("diameter")) != \
+            bolt.get("diameter"):
+        out["bolt"] = {k: v for k, v in bolt.items() if k != "stress_area"}
     for key, value in zip(keys, values, strict=True):
         if value is None:
             continue
