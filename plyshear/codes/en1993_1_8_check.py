@@ -160,7 +160,7 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
                      note=rule + tail)
 
 
-def _figure_3_11(joint: Joint, bolt: BoltResult) -> float | None:
+def figure_3_11(joint: Joint, bolt: BoltResult) -> float | None:
     """The moment of Figure 3.11 for a clevis (cheek, lug, cheek), or None for other stacks.
 
     a: the cheeks' mean thickness, b: the lug's, c: the mean gap between them; F_Ed
@@ -191,7 +191,7 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     vrd = np.array([by_section[bool(t)][1] for t in threads])
     informative = not pin
     tail = "" if pin else " (the pin rule applied to a bolt: outside the standard's text)"
-    figure = _figure_3_11(joint, bolt) if pin else None
+    figure = figure_3_11(joint, bolt) if pin else None
     if figure is not None and figure > m.max() > 0:
         # 3.13.2 takes the bearing as uniform (Figure 3.11): never below that moment
         m = m * (figure / m.max())
@@ -240,4 +240,4 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
 ITEMS = common.StandardItems(standard="en1993-1-8", edition=en.STANDARD, notes=_notes, bolt=_bolt,
                       long_joint=_long_joint, method="partial-factors")
 
-__all__ = ["ITEMS", "plane_resistance"]
+__all__ = ["ITEMS", "figure_3_11", "plane_resistance"]

@@ -30,8 +30,9 @@ from plyshear.codes import aisc360 as aisc
 from plyshear.codes import en1993_1_8 as en
 from plyshear.codes.clause import Clause, cited
 from plyshear.codes.common import load_level, resultants
+from plyshear.codes.en1993_1_8_check import figure_3_11
 from plyshear.codes.result import CheckItem, CheckResult
-from plyshear.mechanics.results import Solution
+from plyshear.mechanics.results import BoltResult, Solution
 from plyshear.mechanics.strengths import LUG_NET_TENSION, LUG_SHEAR_OUT, pin_hole, unit_form
 from plyshear.model.joint import Joint, Ply
 from plyshear.units import length_str
@@ -79,7 +80,7 @@ def extend(joint: Joint, solution: Solution, result: CheckResult, method: str) -
             elif not service:
                 per += en_items(joint, ply, pb.force)
         if result.standard == "en1993-1-8" and joint.check.replaceable:
-            per.append(en_service_bending(joint, bolt.z, resultants(bolt.M)))
+            per.append(en_service_bending(joint, bolt, resultants(bolt.M)))
         out += [dataclasses.replace(i, bolt=k, row=count) for i in per]
     return dataclasses.replace(result, items=result.items + tuple(out),
                                notes=tuple(dict.fromkeys(result.notes
@@ -119,10 +120,10 @@ def _hole_source(joint: Joint, result: CheckResult) -> str:
 
 def _item(joint: Joint, ply: Ply, what: str, where: str, demand: float, capacity: float,
           dimension: str, clauses: tuple[Clause, ...], **kw: object) -> CheckItem:
-    """A ply's item; a detail after the ply's name (", width") goes into what it checks."""
+    """A ply's item; the rule after the ply's name (``"ply X, width"``) is its detail."""
     detail = where.split(", ", 1)[1] if ", " in where else ""
-    return CheckItem(f"{what} ({detail})" if detail else what, demand, capacity, dimension,
-                     clauses, part="ply", ply=joint.plies.index(ply), ply_name=ply.name,
+    return CheckItem(what, demand, capacity, dimension, clauses, part="ply",
+                     ply=joint.plies.index(ply), ply_name=ply.name, detail=detail,
                      **kw)  # type: ignore[arg-type]
 
 
@@ -227,13 +228,20 @@ def en_service_items(joint: Joint, ply: Ply, force: float) -> list[CheckItem]:
     ]
 
 
-def en_service_bending(joint: Joint, z: np.ndarray, moment: np.ndarray) -> CheckItem:
-    """EN 1993-1-8 Table 3.10: a replaceable pin's bending at serviceability."""
+def en_service_bending(joint: Joint, bolt: BoltResult, moment: np.ndarray) -> CheckItem:
+    """EN 1993-1-8 Table 3.10: a replaceable pin's bending at serviceability.
+
+    As for the strength item, never below the moment of Figure 3.11 (3.13.2 takes
+    the bearing as uniform) where the stack is a clevis.
+    """
     i = int(np.argmax(moment))
-    return CheckItem("pin bending (serviceability)", float(moment[i]),
+    demand, note = float(moment[i]), "0.8 Wel fyp / gM6,ser of the shank"
+    figure = figure_3_11(joint, bolt)
+    if figure is not None and figure > demand:
+        demand, note = figure, note + "; the Figure 3.11 moment (uniform bearing) governs"
+    return CheckItem("pin bending (serviceability)", demand,
                      en.M_Rd_ser_pin(joint.bolt.diameter, joint.bolt.fyb), "moment",
-                     (cited(en.M_Rd_ser_pin),), part="bolt", z=float(z[i]),
-                     note="0.8 Wel fyp / gM6,ser of the shank")
+                     (cited(en.M_Rd_ser_pin),), part="bolt", z=float(bolt.z[i]), note=note)
 
 
 __all__ = ["LUG_NET_TENSION", "LUG_SHEAR_OUT", "applies", "extend", "service_only"]

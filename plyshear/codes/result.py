@@ -41,6 +41,7 @@ class CheckItem:
         informative: True when the item lies outside the standard's text.
         note: A short remark shown beside the item.
         z: Position along the bolt, mm, for items on the bolt's diagram.
+        detail: Which rule of the ply, shown after its name (``"width"``), or "".
     """
 
     what: str
@@ -57,12 +58,13 @@ class CheckItem:
     informative: bool = False
     note: str = ""
     z: float | None = None
+    detail: str = ""
 
     @property
     def where(self) -> str:
         """The place as shown: ``"plane 2"``, ``"ply outer"``, ``"bolt 3, plane 1"``."""
         if self.part == "ply":
-            body = f"ply {self.ply_name}"
+            body = f"ply {self.ply_name}" + (f", {self.detail}" if self.detail else "")
         elif self.part == "plane":
             body = f"plane {self.plane}"
         else:
