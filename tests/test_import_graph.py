@@ -21,7 +21,7 @@ LAYERS = {
     "plyshear.model": 1,
     "plyshear.mechanics": 2,
     "plyshear.codes": 3,
-    "plyshear.sweep": 4, "plyshear.report": 4,
+    "plyshear.sweep": 4, "plyshear.report": 4, "plyshear.verify": 4,
     "plyshear.cli": 5,
 }
 

@@ -18,6 +18,12 @@ from typing import TYPE_CHECKING, Any
 from plyshear.model import combinations as gen
 from plyshear.model.joint import CheckSettings, Combination, LoadCase, Member
 
+#: What a model's loads are: the level a check takes them at.
+LOAD_LEVELS = ("factored", "service")
+#: Most load cases and combinations in one file.
+MAX_CASES = 200
+MAX_COMBINATIONS = 2000
+
 if TYPE_CHECKING:
     from plyshear.model.modelfile import _Reader
 
@@ -45,8 +51,6 @@ def read(r: _Reader, data: Mapping[str, Any], check_raw: Mapping[str, Any],
         ModelError: For an unknown case, a factor that is not a finite number, a
             level the method contradicts, cases with no combination, and so on.
     """
-    from plyshear.model.modelfile import MAX_CASES
-
     table_combos = data.get("combination")
     generator = check_raw.get("combinations")
     if not case_loads:
@@ -89,8 +93,6 @@ def read(r: _Reader, data: Mapping[str, Any], check_raw: Mapping[str, Any],
 def _tables(r: _Reader, raw: Any, cases: tuple[LoadCase, ...], check: CheckSettings
             ) -> list[Combination]:
     """The ``[[combination]]`` tables."""
-    from plyshear.model.modelfile import LOAD_LEVELS, MAX_COMBINATIONS
-
     if not isinstance(raw, list):
         raise r.fail("combination", "must be an array of tables [[combination]]")
     if len(raw) > MAX_COMBINATIONS:

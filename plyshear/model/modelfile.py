@@ -40,6 +40,7 @@ from plyshear.model.joint import (
     Ply,
     TitleBlock,
 )
+from plyshear.model.loadcases import LOAD_LEVELS, MAX_CASES
 
 FORMAT_VERSION = 1
 MAX_FILE_BYTES = 4_000_000
@@ -62,9 +63,6 @@ SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
             "pattern", "combination", *TITLE_BLOCK_KEYS)
 COMBINATION_KEYS = ("name", "factors", "level")
-#: Most load cases and combinations in one file.
-MAX_CASES = 200
-MAX_COMBINATIONS = 2000
 PATTERN_KEYS = ("positions", "count", "pitch")
 MAX_STATIONS = 500
 BOLT_KEYS = (
@@ -82,7 +80,6 @@ CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fill
               "slip_critical", "slip_class", "joint_length", "loads", "allow_unloaded",
               "pin_interaction", "replaceable", "combinations", "category")
 #: What the file's loads are: design (factored) or service level.
-LOAD_LEVELS = ("factored", "service")
 #: EN 1993-1-8 Table 3.10 pin bending with shear: the maxima wherever they occur, or
 #: the moment and the shear of one section.
 PIN_INTERACTIONS = ("max-max", "same-section")

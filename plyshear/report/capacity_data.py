@@ -16,7 +16,7 @@ from plyshear.codes.resistance import design_factor
 from plyshear.codes.result import CheckResult
 from plyshear.mechanics.capacity import Answer, CapacitySummary, governing_lugs, lug_rules
 from plyshear.model.joint import Joint
-from plyshear.report.text import fmt
+from plyshear.report.numbers import fmt
 
 #: The answers in the order they are reported, with their labels.
 ANSWERS = (

@@ -21,6 +21,15 @@ from plyshear.report.handcalc import LastPlane, hand_rows
 from plyshear.report.quantities import Display, display
 from plyshear.report.text import fmt
 
+#: The caution printed on every report (the terminal's is shorter).
+CAUTION_LONG = (
+    "This calculation was prepared with plyshear. Its results support, and never replace, "
+    "the judgement of a licensed professional engineer (the engineer of record) and the "
+    "requirements of the governing local code and its national annex. Every input and "
+    "result must be checked before use."
+)
+
+
 
 @dataclass(frozen=True)
 class Table:

@@ -24,6 +24,7 @@ from plyshear.mechanics.capacity import CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
 from plyshear.report import diagrams
 from plyshear.report.content import (
+    CAUTION_LONG,
     Block,
     Graphic,
     Items,
@@ -35,12 +36,6 @@ from plyshear.report.text import CAUTION
 
 __all__ = ["CAUTION_LONG", "ReportData", "build", "to_html", "to_pdf"]
 
-CAUTION_LONG = (
-    "This calculation was prepared with plyshear. Its results support, and never replace, "
-    "the judgement of a licensed professional engineer (the engineer of record) and the "
-    "requirements of the governing local code and its national annex. Every input and "
-    "result must be checked before use."
-)
 
 
 def build(sol: Solution) -> ReportData:

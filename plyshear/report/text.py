@@ -13,20 +13,12 @@ from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
 from plyshear.model.joint import Joint
+from plyshear.report.numbers import fmt
 
 CAUTION = (
     "Caution: plyshear supports, and never replaces, the judgement of a licensed "
     "engineer and the governing local code. Check every input and result."
 )
-
-
-def fmt(value: float, digits: int = 4) -> str:
-    """Format a number with ``digits`` significant figures, without ``-0``."""
-    if value == 0 or abs(value) < 1e-12:
-        return "0"
-    if 10**digits <= abs(value) < 1e10:
-        return f"{value:.0f}"
-    return f"{value:.{digits}g}"
 
 
 def table(headers: Sequence[str], rows: Sequence[Sequence[str]],

@@ -122,7 +122,7 @@ def _block(block: Block, files: dict[str, bytes]) -> str:
 
 def markup(data: ReportData, paper: str | None = None) -> tuple[str, dict[str, bytes]]:
     """The report as Typst markup, and the figure files it refers to (name → SVG bytes)."""
-    from plyshear.report.document import CAUTION_LONG
+    from plyshear.report.content import CAUTION_LONG
     from plyshear.report.text import CAUTION
 
     joint = data.joint

@@ -13,12 +13,12 @@ FORK = MODELS / "fork-four-planes.toml"
 
 
 @pytest.fixture
-def solves(monkeypatch) -> list[int]:
-    calls: list[int] = []
+def solves(monkeypatch) -> list:
+    calls: list = []
     real = solve_module.solve
 
     def counted(joint):
-        calls.append(1)
+        calls.append(joint.plies)
         return real(joint)
 
     monkeypatch.setattr(solve_module, "solve", counted)
@@ -32,4 +32,6 @@ def solves(monkeypatch) -> list[int]:
 def test_a_command_solves_the_joint_once(tmp_path, solves, args) -> None:
     result = CliRunner().invoke(main, [a.format(tmp=tmp_path) for a in args])
     assert result.exit_code in (0, 1), result.output  # 1: a check that fails
-    assert len(solves) == 1
+    # the model's own stack once (the report's "does the last plane pay?" solves a
+    # rebuilt stack of its own)
+    assert solves.count(solves[0]) == 1

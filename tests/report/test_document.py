@@ -300,7 +300,7 @@ def test_report_needs_html_or_pdf(tmp_path) -> None:
     assert ".html or .pdf" in result.output
 
 
-class _Tables(HTMLParser):
+class _AllTables(HTMLParser):
     """Collect every table as rows of cell texts (header row first)."""
 
     def __init__(self) -> None:
@@ -335,7 +335,7 @@ ABS_3_DECIMALS = 5e-4  # the report prints utilizations to three decimals
 
 def test_bolt_row_report_shows_every_bolts_plane_utilizations(tmp_path) -> None:
     path = MODELS / "splice-six-bolts.toml"
-    tables = _Tables()
+    tables = _AllTables()
     tables.feed(_report(tmp_path, path, ".html").read_text(encoding="utf-8"))
     (planes,) = [t for t in tables.tables if t and t[0][:2] == ["bolt", "plane"]]
     header, rows = planes[0], planes[1:]

@@ -28,7 +28,7 @@ def test_solution_renders_its_plane_shears_and_the_figure(demo) -> None:
     _, sol, _ = demo
     html = sol._repr_html_()
     assert "<svg" in html
-    for plane in sol.planes:
+    for plane in sol.first_bolt_planes:
         assert f">{fmt(plane.shear / N_PER_KN)}<" in html  # the demo is in kN
 
 
