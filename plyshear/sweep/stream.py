@@ -348,13 +348,16 @@ class Stream:
         _sync_folder(self.path)
 
     def _without_redone(self, records: list[str]) -> list[str]:
-        """Drop the fault rows of cases that a later run wrote again."""
+        """Drop the fault rows of cases that a later run wrote again (keep the last fault)."""
         if self.redo is None:
             return records
         parsed = [self._parse(r) for r in records]
-        again = Counter(str(p.get(self.key_col)) for p in parsed if not self.redo(p))
-        return [r for r, p in zip(records, parsed, strict=True)
-                if not (self.redo(p) and again[str(p.get(self.key_col))] > 0)]
+        keys = [str(p.get(self.key_col)) for p in parsed]
+        faults = [self.redo(p) for p in parsed]
+        solved = {k for k, f in zip(keys, faults, strict=True) if not f}
+        last = {k: i for i, (k, f) in enumerate(zip(keys, faults, strict=True)) if f}
+        return [r for i, (r, k, f) in enumerate(zip(records, keys, faults, strict=True))
+                if not f or (k not in solved and last[k] == i)]
 
     def close(self) -> None:
         """Close (and unlock) the partial file; the files stay as they are."""

@@ -164,3 +164,22 @@ def test_an_ill_conditioned_case_says_not_verified(write_model, tmp_path, monkey
         assert row["passes"] == "false"
         assert row["governing"].startswith("NOT VERIFIED")
         assert "condition estimate" in row["governing"]
+
+
+def test_a_case_that_faults_again_keeps_one_fault_row(tmp_path) -> None:
+    from plyshear.sweep import stream as ss
+
+    out = tmp_path / "out.csv"
+    cols = ["case", "case_key", "error"]
+    fault = {"case": 2, "case_key": "b", "error": sr.FAULT_MARK + "died twice"}
+    first = ss.Stream(out, cols, redo=sr.is_fault)
+    first.open()
+    first.append([{"case": 1, "case_key": "a", "error": ""}, fault])
+    first.close()
+    again = ss.Stream(out, cols, resume=True, redo=sr.is_fault)
+    again.open()
+    assert again.take_done("a")
+    assert not again.take_done("b")  # a fault is not done
+    again.append([fault])  # its worker died twice again
+    again.finish()
+    assert [r["case"] for r in _rows(out)] == ["1", "2"]  # one row a case
