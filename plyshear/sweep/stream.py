@@ -165,7 +165,7 @@ class Stream:
         except OSError as exc:
             with contextlib.suppress(OSError):
                 tmp.unlink()
-            self.close()
+            self.discard()  # nothing ran: what this run created goes
             raise OutputError(f"{self.record_path}: cannot write ({exc.strerror or exc})") \
                 from None
 
