@@ -46,6 +46,13 @@ def fail(message: str, code: int = EXIT_BAD_INPUT) -> NoReturn:
     sys.exit(code)
 
 
+def fail_resumable(message: str, code: int = EXIT_FAULT) -> NoReturn:
+    """Print one error line, then the command that resumes the run on its own (uncut) line."""
+    click.echo(f"error: {one_line(message)}", err=True)
+    click.echo(f"resume with: {_resume_command()}", err=True)
+    sys.exit(code)
+
+
 def write_atomic(path: Path, data: bytes, force: bool) -> None:
     """Write ``data`` to ``path`` through a temporary file renamed into place.
 
@@ -619,7 +626,9 @@ def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
     from plyshear.sweep.stream import OutputError
 
     cols = _scatter_columns(joint)
-    stream = _open_stream(out_path, cols, force, resume)
+    record = {"model file content": _content_hash(joint.source), "seed": seed,
+              "samples": samples}
+    stream = _open_stream(out_path, cols, force, resume, record, what="scatter")
     result, stopped, done = _scatter_run(joint, samples, seed, stream)
     if stopped is not None:
         _scatter_stopped(joint, result, samples, stream, stopped, done)
@@ -696,7 +705,7 @@ def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any,
             fail(f"{joint.source}: {exc}")
         except OutputError as exc:
             stream.close()
-            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+            fail_resumable(str(exc))
     return result, stop.signum, done
 
 
@@ -732,9 +741,11 @@ def _scatter_stopped(joint: Any, result: Any, samples: int, stream: Any, signum:
         kept = "shown above; run with -o FILE to keep samples and --resume"
     else:
         stream.close()
-        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+        kept = f"kept in {stream.partial}"
     name = "terminated" if signum == 15 else "interrupted"
     click.echo(f"{name}: {done} of {samples} samples done, {kept}", err=True)
+    if stream is not None:
+        click.echo(f"resume with: {_resume_command()}", err=True)
     sys.exit(EXIT_SIGNAL.get(signum, 128 + signum))
 
 
@@ -891,7 +902,9 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
                          no_check, len(joint.plies) - 1)
     options = sr.Options(capacity=capacity, check=not no_check)
     cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
-    stream = _open_stream(out_path, cols, force, resume)
+    record = {"model file content": _content_hash(model), "capacity": capacity,
+              "check": not no_check}
+    stream = _open_stream(out_path, cols, force, resume, record, redo=sr.is_fault)
     rows, outcome = _sweep_run(model, data, keys, cases, options, stream, quiet, workers,
                                scheduler, worker_timeout, chunk or sr.chunk_size(options))
     if outcome.stopped is not None or outcome.fault:
@@ -949,13 +962,26 @@ def _sweep_cases(model: str, varies: tuple[str, ...], cases_file: str | None
     return data, keys, cases
 
 
-def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool) -> Any:
+def _content_hash(path: str) -> str:
+    """The SHA-256 of a model file's bytes (what an output records it was made from)."""
+    import hashlib
+
+    try:
+        return hashlib.sha256(Path(path).read_bytes()).hexdigest()
+    except OSError as exc:
+        fail(f"{path}: cannot read the file ({exc.strerror or exc})")
+
+
+def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool,
+                 record: dict[str, Any], redo: Callable[[dict[str, Any]], bool] | None = None,
+                 what: str = "sweep") -> Any:
     """Reserve the output (exclusively) and open its partial file, before any case runs."""
     if path is None:
         return None
     from plyshear.sweep.stream import OutputError, Stream
 
-    stream = Stream(path, cols, force=force, resume=resume)
+    stream = Stream(path, cols, force=force, resume=resume, record=record, redo=redo,
+                    what=what)
     try:
         stream.open()
     except OutputError as exc:
@@ -994,7 +1020,7 @@ def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], o
             fail(f"{model}: sweep: {exc}")
         except OutputError as exc:
             stream.close()
-            fail(f"{exc}; resume with: {_resume_command()}", EXIT_FAULT)
+            fail_resumable(str(exc))
     rows.sort(key=lambda r: r["case"])
     return rows, outcome
 
@@ -1016,19 +1042,23 @@ def _sweep_stopped(model: str, joint: Any, rows: list[dict[str, Any]], cols: lis
     """Report a stopped or unfinished run: what is kept, how to go on; exit."""
     from plyshear.sweep import output as so
 
-    done = outcome.done + outcome.skipped
+    done = outcome.done - outcome.lost + outcome.skipped  # a fault row is not done
     if stream is None:
         if rows:
             click.echo(so.text(rows, cols, key_texts, joint.units))
         kept = "shown above; run with -o FILE to keep rows and --resume"
     else:
         stream.close()
-        kept = f"kept in {stream.partial}; resume with: {_resume_command()}"
+        kept = f"kept in {stream.partial}"
     if outcome.fault:
-        fail(f"{model}: sweep: {outcome.fault}; {done} of {total} cases done, {kept}",
-             EXIT_FAULT)
+        message = f"{model}: sweep: {outcome.fault}; {done} of {total} cases done, {kept}"
+        if stream is None:
+            fail(message, EXIT_FAULT)
+        fail_resumable(message)
     name = "terminated" if outcome.stopped == 15 else "interrupted"
     click.echo(f"{name}: {done} of {total} cases done, {kept}", err=True)
+    if stream is not None:
+        click.echo(f"resume with: {_resume_command()}", err=True)
     sys.exit(EXIT_SIGNAL.get(outcome.stopped, 128 + outcome.stopped))
 
 

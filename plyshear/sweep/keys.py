@@ -310,7 +310,12 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
     try:
         text = _read_cases_text(path)
         reader = csv.reader(io.StringIO(text, newline=""))
-        rows = [(reader.line_num, r) for r in reader if r]  # [] is a blank line
+        rows = []
+        for r in reader:
+            if r:  # [] is a blank line
+                rows.append((reader.line_num, r))
+            if len(rows) > MAX_CASES + 1:  # the header and one case too many: stop here
+                raise SweepError(f"{name}: more than {MAX_CASES} cases")
     except OSError as exc:
         raise SweepError(f"{name}: cannot read the file ({exc.strerror or exc})") from None
     except UnicodeDecodeError as exc:
@@ -335,8 +340,6 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
             raise SweepError(f"{name}: line {line}: {exc}") from None
     if not cases:
         raise SweepError(f"{name}: no cases below the header")
-    if len(cases) > MAX_CASES:
-        raise SweepError(f"{name}: {len(cases)} cases (at most {MAX_CASES})")
     return keys, cases
 
 

@@ -140,6 +140,16 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
     return rows
 
 
+#: How the error of a row whose case could not run (its worker died twice) begins:
+#: a fault, not the case's own error; ``--resume`` runs it again.
+FAULT_MARK = "fault, not run: "
+
+
+def is_fault(row: Mapping[str, Any]) -> bool:
+    """True if the row is a fault (its case never ran), not a result."""
+    return str(row.get("error") or "").startswith(FAULT_MARK)
+
+
 #: Longest error text in a row (as the command line's error lines).
 MAX_ERROR_CHARS = 300
 
@@ -187,6 +197,11 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
             if gov is not None:
                 out["utilization"] = _finite(gov.utilization)
                 out["governing"] = f"{gov.what}, {gov.place(joint.units)}"
+            if res.unverified:  # it fails for this, not for its governing item
+                from plyshear.codes.check import UNVERIFIED
+
+                out["governing"] = f"{UNVERIFIED} ({res.unverified})" + (
+                    f"; largest: {out['governing']}" if gov is not None else "")
             out["passes"] = res.passes
             # items outside the standard's text (a bolt's bending): shown, never deciding
             info = [i.utilization for i in res.items if i.informative]
@@ -369,7 +384,8 @@ def _fault_rows(job: tuple[Any, ...], cause: str) -> list[dict[str, Any]]:
     names = [k.text for k in keys]
     rows = []
     for n, values in zip(numbers, cases, strict=True):
-        row = {"case": n, "case_key": case_key(names, values), "error": _error_text(cause, source)}
+        row = {"case": n, "case_key": case_key(names, values),
+               "error": _error_text(FAULT_MARK + cause, source)}
         row.update(zip(names, values, strict=True))
         rows.append(row)
     return rows

@@ -11,6 +11,13 @@ A run that is stopped or killed leaves ``OUTPUT`` (empty) and ``OUTPUT.partial``
 ``--resume`` reads the rows the partial (or a complete ``OUTPUT``) holds, skips
 their cases by their keys, and appends the rest. A killed write can leave a last
 row cut short: it is dropped on resume.
+
+What made the rows (the model file's content hash and the options that change a
+row: the sweep's ``--capacity`` and check, the scatter's seed and sample count) is
+recorded beside the output in ``OUTPUT.run.json``; ``--resume`` refuses, in one
+line naming what differs, an output whose record does not match this run. Rows
+whose chunk could not run (a worker died twice) are faults, not results: a
+resume runs their cases again and the sorted output keeps the new rows.
 """
 
 from __future__ import annotations
@@ -22,7 +29,7 @@ import hashlib
 import json
 import os
 from collections import Counter
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -34,6 +41,8 @@ except ImportError:  # pragma: no cover - not POSIX: no lock, the O_EXCL reserva
     fcntl = None  # type: ignore[assignment]
 
 PARTIAL = ".partial"
+#: The record of what made an output, beside it.
+RECORD = ".run.json"
 FORMATS = {".csv": "csv", ".jsonl": "jsonl", ".ndjson": "jsonl"}
 
 
@@ -69,12 +78,23 @@ class Stream:
         key_col: The column holding each row's case key.
         force: Replace an existing output when the run completes.
         resume: Continue the rows of an earlier run.
+        record: What made the rows (label → value, JSON-able), written beside the
+            output and checked on resume; None: not recorded, not checked.
+        redo: Given a row, True if it is a fault to run again on resume.
+        what: The kind of run, for messages ("sweep", "scatter").
     """
 
     def __init__(self, path: Path, cols: Sequence[str], key_col: str = "case_key",
-                 force: bool = False, resume: bool = False) -> None:
+                 force: bool = False, resume: bool = False,
+                 record: dict[str, Any] | None = None,
+                 redo: Callable[[dict[str, Any]], bool] | None = None,
+                 what: str = "sweep") -> None:
         self.path = path
         self.partial = path.with_name(path.name + PARTIAL)
+        self.record_path = path.with_name(path.name + RECORD)
+        self.record = record
+        self.redo = redo
+        self.what = what
         self.cols = list(cols)
         self.key_col = key_col
         self.fmt = FORMATS[path.suffix.lower()]
@@ -101,8 +121,53 @@ class Stream:
         if not folder.is_dir():
             raise OutputError(f"{self.path}: folder {folder} does not exist")
         complete = self._complete_rows() if self.resume else None
+        earlier = self.resume and (complete is not None or self._partial_has_rows())
+        if earlier:
+            self._check_record()
         self._reserve()
         self._open_partial(complete)
+        if not earlier:
+            self._write_record()
+
+    def _partial_has_rows(self) -> bool:
+        try:
+            return self.partial.stat().st_size > len(self._header())
+        except OSError:
+            return False
+
+    def _check_record(self) -> None:
+        """Refuse to resume rows that another model file or other options made."""
+        if self.record is None:
+            return
+        try:
+            earlier = json.loads(self.record_path.read_text(encoding="utf-8")).get("run")
+        except (OSError, ValueError, AttributeError):
+            earlier = None
+        if not isinstance(earlier, dict):
+            raise OutputError(f"{self.path}: no record of the run that wrote it "
+                              f"({self.record_path.name} is missing or unreadable); "
+                              "use --force to start again")
+        changed = [k for k in self.record if earlier.get(k) != self.record[k]]
+        changed += [k for k in earlier if k not in self.record]
+        if changed:
+            raise OutputError(f"{self.path}: written by a {self.what} with a different "
+                              f"{', '.join(changed)}; resume with the same, or use --force")
+
+    def _write_record(self) -> None:
+        if self.record is None:
+            return
+        tmp = self.record_path.with_name(f".{self.record_path.name}{PARTIAL}")
+        text = json.dumps({"format": 1, "output": self.path.name, "run": self.record},
+                          indent=2) + "\n"
+        try:
+            tmp.write_text(text, encoding="utf-8")
+            os.replace(tmp, self.record_path)
+        except OSError as exc:
+            with contextlib.suppress(OSError):
+                tmp.unlink()
+            self.discard()  # nothing ran: what this run created goes
+            raise OutputError(f"{self.record_path}: cannot write ({exc.strerror or exc})") \
+                from None
 
     def _complete_rows(self) -> list[str] | None:
         """The records of a complete output to resume from (None: no such output)."""
@@ -119,7 +184,8 @@ class Stream:
         except FileExistsError:
             if not (self.force or self.resume):
                 raise OutputError(f"{self.path}: exists; use --force to replace it, or "
-                                  "--resume to continue the sweep that wrote it") from None
+                                  f"--resume to continue the {self.what} that wrote it"
+                                  ) from None
             return
         except OSError as exc:
             raise OutputError(f"{self.path}: cannot create the file "
@@ -194,7 +260,7 @@ class Stream:
                                   "resume with the same model, keys and options, or use "
                                   "--force")
             key = row.get(self.key_col)
-            if key:
+            if key and not (self.redo is not None and self.redo(row)):
                 self.done[str(key)] += 1
                 self.rows_written += 1
 
@@ -260,7 +326,8 @@ class Stream:
             self.close()
             return
         size = os.fstat(self._fd).st_size
-        records = self._records(os.pread(self._fd, size, 0), self.partial)
+        records = self._without_redone(self._records(os.pread(self._fd, size, 0),
+                                                     self.partial))
         records.sort(key=lambda r: _number(self._parse(r).get(case_col)))
         tmp = self.path.with_name(f".{self.path.name}.sorted{PARTIAL}")
         try:
@@ -280,6 +347,18 @@ class Stream:
         self.close()
         _sync_folder(self.path)
 
+    def _without_redone(self, records: list[str]) -> list[str]:
+        """Drop the fault rows of cases that a later run wrote again (keep the last fault)."""
+        if self.redo is None:
+            return records
+        parsed = [self._parse(r) for r in records]
+        keys = [str(p.get(self.key_col)) for p in parsed]
+        faults = [self.redo(p) for p in parsed]
+        solved = {k for k, f in zip(keys, faults, strict=True) if not f}
+        last = {k: i for i, (k, f) in enumerate(zip(keys, faults, strict=True)) if f}
+        return [r for i, (r, k, f) in enumerate(zip(records, keys, faults, strict=True))
+                if not f or (k not in solved and last[k] == i)]
+
     def close(self) -> None:
         """Close (and unlock) the partial file; the files stay as they are."""
         if self._fd is not None:
@@ -292,6 +371,9 @@ class Stream:
         if self.rows_written == 0 and not self.resume:
             with contextlib.suppress(OSError):
                 self.partial.unlink()
+            if self._reserved and self.record is not None:
+                with contextlib.suppress(OSError):
+                    self.record_path.unlink()
             self._unreserve()
         self.close()
 

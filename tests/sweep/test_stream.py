@@ -118,7 +118,8 @@ def test_a_full_disk_is_one_line_and_keeps_the_rows_written(write_model, tmp_pat
                                   "--quiet", "-o", str(out)])
     assert r.exit_code == 3  # the run could not finish
     lines = r.stderr.strip().splitlines()
-    assert len(lines) == 1
+    assert len(lines) == 2  # the error, then the resume command on its own line
+    assert lines[1].startswith("resume with: ")
     assert "the disk is full" in lines[0]
     assert "100 rows written so far are kept" in lines[0]
     with (tmp_path / "out.csv.partial").open(encoding="utf-8", newline="") as fh:
@@ -167,7 +168,8 @@ def test_a_cluster_without_workers_ends_in_one_line(write_model, tmp_path) -> No
         assert time.monotonic() - t0 < 15.0  # the timeout, the client's start and close
     assert r.exit_code == 3, r.output  # could not finish
     lines = r.stderr.strip().splitlines()
-    assert len(lines) == 1
+    assert len(lines) == 2  # the error, then the resume command on its own line
+    assert lines[1].startswith("resume with: ")
     assert "no Dask worker for 1 s" in lines[0]
     assert "0 of 2 cases done" in lines[0]
     assert (tmp_path / "out.csv.partial").exists()  # kept for --resume
