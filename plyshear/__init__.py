@@ -98,8 +98,12 @@ def solve(joint: Joint) -> Solution:
     return _solve(joint)
 
 
-def check(joint_or_solution: Joint | Solution, solution: Solution | None = None,
-          standard: str | None = None, method: str | None = None) -> CheckResult:
+def check(
+    joint_or_solution: Joint | Solution,
+    solution: Solution | None = None,
+    standard: str | None = None,
+    method: str | None = None,
+) -> CheckResult:
     """Check a solved joint against a design standard.
 
     ``plyshear.check(sol)`` and ``plyshear.check(joint, sol)`` are the same check:

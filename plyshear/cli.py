@@ -36,8 +36,8 @@ FIGURE_FORMATS = {".png": "png", ".svg": "svg", ".pdf": "pdf"}
 
 def one_line(text: str, most: int = MAX_ERROR_LINE) -> str:
     """Escape what would break or hide a line (separators, controls); cut it at ``most``."""
-    line = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text[:4 * most])
-    return line if len(line) <= most else line[:most - 25] + f"... ({len(text)} characters)"
+    line = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text[: 4 * most])
+    return line if len(line) <= most else line[: most - 25] + f"... ({len(text)} characters)"
 
 
 def fail(message: str, code: int = EXIT_BAD_INPUT) -> NoReturn:
@@ -86,8 +86,7 @@ def write_atomic(path: Path, data: bytes, force: bool) -> None:
         os.replace(tmp, path)
     except OSError as exc:
         Path(tmp).unlink(missing_ok=True)
-        fail(f"{path}: cannot write ({exc.strerror or exc}); nothing was replaced",
-             EXIT_FAULT)
+        fail(f"{path}: cannot write ({exc.strerror or exc}); nothing was replaced", EXIT_FAULT)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)
         raise
@@ -176,8 +175,10 @@ def _pick(joint: Any, combination: str | None) -> Any:
     if combination is None:
         return joint
     if not joint.has_cases:
-        fail(f"{joint.source}: --combination: the model has no load combinations "
-             "(its loads are one case)")
+        fail(
+            f"{joint.source}: --combination: the model has no load combinations "
+            "(its loads are one case)"
+        )
     try:
         return joint.for_combination(combination)
     except KeyError as exc:
@@ -195,8 +196,9 @@ def _solve_combined(joint: Any) -> Any:
         fail(f"{joint.source}: {exc}")
 
 
-def _check_combined(joint: Any, combined: Any, standard: str | None = None,
-                    method: str | None = None) -> Any:
+def _check_combined(
+    joint: Any, combined: Any, standard: str | None = None, method: str | None = None
+) -> Any:
     """The check of every combination (one line on a level the method does not take)."""
     from plyshear.codes.combinations import check_combinations
 
@@ -216,13 +218,14 @@ def _governing_joint(joint: Any, what: str) -> Any:
         why = "the check's governing one"
     except ValueError:
         name, why = joint.combination, "the first (the check cannot run)"
-    click.echo(f"{what}: combination {name} ({why}; --combination NAME for another)",
-               err=True)
+    click.echo(f"{what}: combination {name} ({why}; --combination NAME for another)", err=True)
     return joint.for_combination(name)
 
 
-COMBINATION_HELP = ("Use one load combination of the model (default: every combination, "
-                    "where the model has load cases).")
+COMBINATION_HELP = (
+    "Use one load combination of the model (default: every combination, "
+    "where the model has load cases)."
+)
 
 
 def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
@@ -294,15 +297,30 @@ def main() -> None:
 @main.command("solve")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
-@click.option("--plot", type=click.Path(dir_okay=False), default=None,
-              help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="Write the results: .csv (one row per plane, ply, member) or .xlsx (a "
-                   "sheet each; the 'xlsx' extra).")
+@click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).",
+)
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the results: .csv (one row per plane, ply, member) or .xlsx (a "
+    "sheet each; the 'xlsx' extra).",
+)
 @click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
 @click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
-def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None, force: bool,
-              combination: str | None) -> None:
+def solve_cmd(
+    model: str,
+    as_json: bool,
+    plot: str | None,
+    output: str | None,
+    force: bool,
+    combination: str | None,
+) -> None:
     """Solve the shear in every plane of MODEL (a TOML model file).
 
     With load cases, every case is solved once and every combination by
@@ -330,8 +348,7 @@ def solve_cmd(model: str, as_json: bool, plot: str | None, output: str | None, f
         _write_plot(sol, target, force)
 
 
-def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force: bool
-               ) -> None:
+def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force: bool) -> None:
     """``solve`` of a joint with load cases: every combination and the envelope."""
     from plyshear.mechanics.combine import combined_dict
 
@@ -343,30 +360,57 @@ def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force
 
         click.echo(solve_text(combined))
     if target is not None:
-        click.echo(f"plot: combination {joint.combination} (--combination NAME for another)",
-                   err=True)
+        click.echo(
+            f"plot: combination {joint.combination} (--combination NAME for another)", err=True
+        )
         _write_plot(combined.combinations[joint.combination], target, force)
 
 
 @main.command("check")
 @click.argument("models", nargs=-1, required=True, type=click.Path(dir_okay=False))
-@click.option("--standard", type=click.Choice(["aisc360-22", "en1993-1-8"]), default=None,
-              help="Design standard (default: the model's [check] standard).")
-@click.option("--method", type=click.Choice(["lrfd", "asd"]), default=None,
-              help="AISC method (default: the model's [check] method).")
+@click.option(
+    "--standard",
+    type=click.Choice(["aisc360-22", "en1993-1-8"]),
+    default=None,
+    help="Design standard (default: the model's [check] standard).",
+)
+@click.option(
+    "--method",
+    type=click.Choice(["lrfd", "asd"]),
+    default=None,
+    help="AISC method (default: the model's [check] method).",
+)
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its check.")
-@click.option("--plot", type=click.Path(dir_okay=False), default=None,
-              help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).")
-@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="Write the results with the check: .csv (one row per plane, ply, member, "
-                   "check item) or .xlsx (a sheet each; the 'xlsx' extra).")
+@click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).",
+)
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the results with the check: .csv (one row per plane, ply, member, "
+    "check item) or .xlsx (a sheet each; the 'xlsx' extra).",
+)
 @click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
-@click.option("--details", is_flag=True,
-              help="With several models: each one's check table after the summary.")
+@click.option(
+    "--details", is_flag=True, help="With several models: each one's check table after the summary."
+)
 @click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
-def check_cmd(models: tuple[str, ...], standard: str | None, method: str | None,
-              as_json: bool, plot: str | None, output: str | None, force: bool,
-              details: bool, combination: str | None) -> None:
+def check_cmd(
+    models: tuple[str, ...],
+    standard: str | None,
+    method: str | None,
+    as_json: bool,
+    plot: str | None,
+    output: str | None,
+    force: bool,
+    details: bool,
+    combination: str | None,
+) -> None:
     """Check every plane, ply and the bolt of MODELS against a design standard.
 
     With one model: its check table. With several (models/*.toml): one summary row
@@ -413,8 +457,14 @@ def _factors_text(joint: Any, name: str) -> str:
     return " + ".join(f"{v:g} {k}" for k, v in combo.factors) + f" ({combo.level})"
 
 
-def _check_all(joint: Any, standard: str | None, method: str | None, as_json: bool,
-               target: tuple[Path, str] | None, force: bool) -> NoReturn:
+def _check_all(
+    joint: Any,
+    standard: str | None,
+    method: str | None,
+    as_json: bool,
+    target: tuple[Path, str] | None,
+    force: bool,
+) -> NoReturn:
     """``check`` of a joint with load cases: every combination, the governing lines."""
     combined = _solve_combined(joint)
     checks = _check_combined(joint, combined, standard, method)
@@ -425,8 +475,10 @@ def _check_all(joint: Any, standard: str | None, method: str | None, as_json: bo
         data = combined_dict(combined, gov)
         data["check"] = checks.to_dict()
         for entry in data["combinations"]:
-            entry["check"] = {**checks.results[entry["name"]].to_dict(),
-                              "combination": entry["name"]}
+            entry["check"] = {
+                **checks.results[entry["name"]].to_dict(),
+                "combination": entry["name"],
+            }
         data["warnings"] = data["warnings"] + list(data["check"]["warnings"])
         click.echo(json.dumps(data, indent=2))
     else:
@@ -439,15 +491,22 @@ def _check_all(joint: Any, standard: str | None, method: str | None, as_json: bo
     sys.exit(0 if checks.to_dict()["passes"] else 1)
 
 
-def _check_file(model: str, standard: str | None, method: str | None
-                ) -> tuple[dict[str, Any], Any, Any]:
+def _check_file(
+    model: str, standard: str | None, method: str | None
+) -> tuple[dict[str, Any], Any, Any]:
     """Load, solve and check one file; a refusal is a row with its error, never an exit."""
     import plyshear
     from plyshear.mechanics.solve import SolveError
     from plyshear.model.modelfile import ModelError
 
-    row: dict[str, Any] = {"file": model, "title": "", "governing": None,
-                           "utilization": None, "passes": None, "error": None}
+    row: dict[str, Any] = {
+        "file": model,
+        "title": "",
+        "governing": None,
+        "utilization": None,
+        "passes": None,
+        "error": None,
+    }
     try:
         joint = plyshear.load_model(model)
         row["title"] = joint.title
@@ -462,14 +521,17 @@ def _check_file(model: str, standard: str | None, method: str | None
         row["error"] = one_line(f"{model}: {exc}")
         return row, None, None
     gov = result.governing
-    row.update(passes=result.passes,
-               governing=None if gov is None else f"{gov.what}, {gov.place(result.units)}",
-               utilization=None if gov is None else gov.utilization)
+    row.update(
+        passes=result.passes,
+        governing=None if gov is None else f"{gov.what}, {gov.place(result.units)}",
+        utilization=None if gov is None else gov.utilization,
+    )
     return row, result, sol
 
 
-def _check_many(models: tuple[str, ...], standard: str | None, method: str | None,
-                as_json: bool, details: bool) -> int:
+def _check_many(
+    models: tuple[str, ...], standard: str | None, method: str | None, as_json: bool, details: bool
+) -> int:
     """Check every file; print the summary (and the details); return the exit code."""
     from plyshear.report.text import check_text, table
 
@@ -481,12 +543,19 @@ def _check_many(models: tuple[str, ...], standard: str | None, method: str | Non
     if as_json:
         click.echo(json.dumps({"files": rows}, indent=2))
     else:
-        cells = [[r["file"], r["title"], r["governing"] or "-",
-                  "-" if r["utilization"] is None else f"{r['utilization']:.3f}",
-                  _verdict(r)] for r in rows]
+        cells = [
+            [
+                r["file"],
+                r["title"],
+                r["governing"] or "-",
+                "-" if r["utilization"] is None else f"{r['utilization']:.3f}",
+                _verdict(r),
+            ]
+            for r in rows
+        ]
         click.echo(table(["file", "title", "governing", "util.", "verdict"], cells, "lllrl"))
         if details:
-            for (r, result, sol) in done:
+            for r, result, sol in done:
                 if result is not None:
                     click.echo(f"\n== {r['file']}\n{check_text(result, sol)}")
     if any(r["error"] is not None for r in rows):
@@ -500,8 +569,7 @@ def _verdict(row: dict[str, Any]) -> str:
     return "passes" if row["passes"] else "FAILS"
 
 
-def _run_check(model: str, joint: Any, sol: Any, standard: str | None,
-               method: str | None) -> Any:
+def _run_check(model: str, joint: Any, sol: Any, standard: str | None, method: str | None) -> Any:
     """The check of a solved joint; bad options end in the one-line error."""
     import plyshear
 
@@ -555,24 +623,50 @@ def _check_quietly(joint: Any, sol: Any) -> Any:
 @main.command("capacity")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its capacity.")
-@click.option("--plot", type=click.Path(dir_okay=False), default=None,
-              help="Write the load-slip curve and plane shears against load.")
+@click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the load-slip curve and plane shears against load.",
+)
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
-@click.option("--scatter", type=click.IntRange(min=1, max=100000), default=None,
-              help="Monte Carlo of hole positions within the clearance: number of samples "
-                   "(about 0.2 s each).")
+@click.option(
+    "--scatter",
+    type=click.IntRange(min=1, max=100000),
+    default=None,
+    help="Monte Carlo of hole positions within the clearance: number of samples "
+    "(about 0.2 s each).",
+)
 @click.option("--seed", type=int, default=0, show_default=True, help="Seed for --scatter.")
-@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="Write the results with the capacity answers to .csv or .xlsx; with "
-                   "--scatter: every sample to a .csv or .jsonl file as it finishes.")
-@click.option("--resume", is_flag=True,
-              help="With --scatter -o: continue the run that wrote the file.")
-@click.option("--combination", default=None, metavar="NAME",
-              help="Use one load combination as the load pattern (default, where the model "
-                   "has load cases: the check's governing combination).")
-def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
-                 scatter: int | None, seed: int, output: str | None, resume: bool,
-                 combination: str | None) -> None:
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the results with the capacity answers to .csv or .xlsx; with "
+    "--scatter: every sample to a .csv or .jsonl file as it finishes.",
+)
+@click.option(
+    "--resume", is_flag=True, help="With --scatter -o: continue the run that wrote the file."
+)
+@click.option(
+    "--combination",
+    default=None,
+    metavar="NAME",
+    help="Use one load combination as the load pattern (default, where the model "
+    "has load cases: the check's governing combination).",
+)
+def capacity_cmd(
+    model: str,
+    as_json: bool,
+    plot: str | None,
+    force: bool,
+    scatter: int | None,
+    seed: int,
+    output: str | None,
+    resume: bool,
+    combination: str | None,
+) -> None:
     """Find the ultimate capacity of MODEL: elastic, nonlinear, collapse, shear-only.
 
     Nominal strengths, each with its design value under the model's standard
@@ -620,14 +714,20 @@ def capacity_cmd(model: str, as_json: bool, plot: str | None, force: bool,
         _write_figure(diagrams.capacity_figure(summary, joint), target, force)
 
 
-def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
-             target: tuple[Path, str] | None, force: bool, out_path: Path | None,
-             resume: bool) -> None:
+def _scatter(
+    joint: Any,
+    samples: int,
+    seed: int,
+    as_json: bool,
+    target: tuple[Path, str] | None,
+    force: bool,
+    out_path: Path | None,
+    resume: bool,
+) -> None:
     from plyshear.sweep.stream import OutputError
 
     cols = _scatter_columns(joint)
-    record = {"model file content": _content_hash(joint.source), "seed": seed,
-              "samples": samples}
+    record = {"model file content": _content_hash(joint.source), "seed": seed, "samples": samples}
     stream = _open_stream(out_path, cols, force, resume, record, what="scatter")
     result, stopped, done = _scatter_run(joint, samples, seed, stream)
     if stopped is not None:
@@ -652,8 +752,14 @@ def _scatter(joint: Any, samples: int, seed: int, as_json: bool,
 
 
 def _scatter_columns(joint: Any) -> list[str]:
-    return ["sample", "case_key", "status", "worst_plane_shear", "capacity",
-            *(f"hole_offset_{j}" for j in range(1, len(joint.plies) + 1))]
+    return [
+        "sample",
+        "case_key",
+        "status",
+        "worst_plane_shear",
+        "capacity",
+        *(f"hole_offset_{j}" for j in range(1, len(joint.plies) + 1)),
+    ]
 
 
 def _sample_key(seed: int, index: int) -> str:
@@ -673,8 +779,11 @@ def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any,
     u = units.system(joint.units)
     f, ln = u.factor("force"), u.factor("length")
     done = 0
-    with Stopper() as stop, click.progressbar(length=samples, label=f"{samples} samples",
-                                              file=sys.stderr) as bar:
+    with (
+        Stopper() as stop,
+        click.progressbar(length=samples, label=f"{samples} samples", file=sys.stderr) as bar,
+    ):
+
         def skip(index: int) -> bool:
             nonlocal done
             taken = stream is not None and stream.take_done(_sample_key(seed, index))
@@ -686,19 +795,35 @@ def _scatter_run(joint: Any, samples: int, seed: int, stream: Any) -> tuple[Any,
         def on_sample(s: Any) -> None:
             nonlocal done
             if stream is not None:
-                stream.append([{"sample": s.index, "case_key": _sample_key(seed, s.index),
-                                "status": s.status, "worst_plane_shear": s.service_shear / f,
-                                "capacity": s.capacity / f,
-                                **{f"hole_offset_{j}": o / ln
-                                   for j, o in enumerate(s.offsets, start=1)}}])
+                stream.append(
+                    [
+                        {
+                            "sample": s.index,
+                            "case_key": _sample_key(seed, s.index),
+                            "status": s.status,
+                            "worst_plane_shear": s.service_shear / f,
+                            "capacity": s.capacity / f,
+                            **{
+                                f"hole_offset_{j}": o / ln for j, o in enumerate(s.offsets, start=1)
+                            },
+                        }
+                    ]
+                )
             done += 1
             bar.update(1)
 
         try:
-            result = _guard(lambda: hole_scatter(joint, samples, seed, skip=skip,
-                                                 on_sample=on_sample,
-                                                 stop=lambda: stop.stopped,
-                                                 bearing=nominal_bearing(joint)))
+            result = _guard(
+                lambda: hole_scatter(
+                    joint,
+                    samples,
+                    seed,
+                    skip=skip,
+                    on_sample=on_sample,
+                    stop=lambda: stop.stopped,
+                    bearing=nominal_bearing(joint),
+                )
+            )
         except ValueError as exc:
             if stream is not None:
                 stream.discard()
@@ -723,15 +848,20 @@ def _scatter_read(joint: Any, path: str) -> Any:
     for row in read_table(path):
         status = str(row.get("status") or "")
         shear = (row.get("worst_plane_shear") or 0.0) * f if status == studies.OK else math.inf
-        cap = -math.inf if status.startswith(studies.NOT_CONVERGED) else \
-            (row.get("capacity") or 0.0) * f
+        cap = (
+            -math.inf
+            if status.startswith(studies.NOT_CONVERGED)
+            else (row.get("capacity") or 0.0) * f
+        )
         samples.append(studies.Sample(int(row["sample"]), (), shear, cap, status))
-    return studies.ScatterResult.of(samples, studies.service_load(joint), hole_clearance(joint),
-                                    max(1, len(joint.plies) - 1))
+    return studies.ScatterResult.of(
+        samples, studies.service_load(joint), hole_clearance(joint), max(1, len(joint.plies) - 1)
+    )
 
 
-def _scatter_stopped(joint: Any, result: Any, samples: int, stream: Any, signum: int,
-                     done: int) -> NoReturn:
+def _scatter_stopped(
+    joint: Any, result: Any, samples: int, stream: Any, signum: int, done: int
+) -> NoReturn:
     """Report an interrupted scatter: what is kept, how to go on; exit 130 or 143."""
     if stream is None:
         from plyshear.report.text import scatter_text
@@ -759,34 +889,68 @@ def scatter_dict(result: Any, joint: Any, samples: int, seed: int) -> dict[str, 
     f = u.factor("force")
 
     def pct(values: Any) -> dict[str, float | None]:
-        return {f"p{q}": (v / f if math.isfinite(v) else None) for q, v in zip(
-            (5, 50, 95), result.percentiles(values), strict=True)}
+        return {
+            f"p{q}": (v / f if math.isfinite(v) else None)
+            for q, v in zip((5, 50, 95), result.percentiles(values), strict=True)
+        }
 
-    return {"format": 1, "units": u.labels(), "scatter": {
-        "samples": samples, "seed": seed, "failed": result.failed,
-        "not_converged": result.failed, "below_load": result.below_load,
-        "clearance": result.clearance / u.factor("length"),
-        "service_load": result.service_load / f,
-        "worst_plane_shear": pct(result.service_shear),
-        "capacity": pct(result.capacity),
-    }}
+    return {
+        "format": 1,
+        "units": u.labels(),
+        "scatter": {
+            "samples": samples,
+            "seed": seed,
+            "failed": result.failed,
+            "not_converged": result.failed,
+            "below_load": result.below_load,
+            "clearance": result.clearance / u.factor("length"),
+            "service_load": result.service_load / f,
+            "worst_plane_shear": pct(result.service_shear),
+            "capacity": pct(result.capacity),
+        },
+    }
 
 
 @main.command("planes")
 @click.argument("model", type=click.Path(dir_okay=False))
-@click.option("--max", "max_planes", type=click.IntRange(min=2, max=40), required=True,
-              help="Largest number of shear planes to try (from 2).")
-@click.option("--keep", type=click.Choice(["total", "ply"]), default="total", show_default=True,
-              help="total: each member keeps its total thickness; ply: each ply keeps its own.")
+@click.option(
+    "--max",
+    "max_planes",
+    type=click.IntRange(min=2, max=40),
+    required=True,
+    help="Largest number of shear planes to try (from 2).",
+)
+@click.option(
+    "--keep",
+    type=click.Choice(["total", "ply"]),
+    default="total",
+    show_default=True,
+    help="total: each member keeps its total thickness; ply: each ply keeps its own.",
+)
 @click.option("--json", "as_json", is_flag=True, help="Print the study as JSON.")
-@click.option("--plot", type=click.Path(dir_okay=False), default=None,
-              help="Write capacity and efficiency against the number of planes.")
+@click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write capacity and efficiency against the number of planes.",
+)
 @click.option("--force", is_flag=True, help="Replace an existing --plot file.")
-@click.option("--combination", default=None, metavar="NAME",
-              help="Use one load combination as the load pattern (default, where the model "
-                   "has load cases: the check's governing combination).")
-def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str | None,
-               force: bool, combination: str | None) -> None:
+@click.option(
+    "--combination",
+    default=None,
+    metavar="NAME",
+    help="Use one load combination as the load pattern (default, where the model "
+    "has load cases: the check's governing combination).",
+)
+def planes_cmd(
+    model: str,
+    max_planes: int,
+    keep: str,
+    as_json: bool,
+    plot: str | None,
+    force: bool,
+    combination: str | None,
+) -> None:
     """Does an extra plane pay? Rebuild MODEL with 2 … --max planes and compare.
 
     The stack must have two members; their plies alternate (A B A B ...).
@@ -814,9 +978,14 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
             entry = {"planes": r.planes, **capacity_dict(r.summary, r.joint)}
             entry.pop("curve")
             variants.append(entry)
-        data = {"format": 1, "units": units.system(joint.units).labels(), "keep": keep,
-                "planes": variants, "gains": plane_gains(rows, joint),
-                "lugs": lug_lines(rows)}
+        data = {
+            "format": 1,
+            "units": units.system(joint.units).labels(),
+            "keep": keep,
+            "planes": variants,
+            "gains": plane_gains(rows, joint),
+            "lugs": lug_lines(rows),
+        }
         click.echo(json.dumps(data, indent=2))
     else:
         from plyshear.report.text import planes_text
@@ -830,51 +999,112 @@ def planes_cmd(model: str, max_planes: int, keep: str, as_json: bool, plot: str 
 
 @main.command("sweep")
 @click.argument("model", type=click.Path(dir_okay=False))
-@click.option("--vary", "varies", multiple=True, metavar="KEY=VALUES",
-              help="A model-file key and its values: bolt.diameter=16,20,24, "
-                   "ply[2].thickness=8:20:2 (ends included), bolt.grade=8.8,10.9. "
-                   "Repeat for a full factorial.")
-@click.option("--cases", "cases_file", type=click.Path(dir_okay=False), default=None,
-              help="A CSV of cases: a header of keys, one case a row (crossed with --vary).")
-@click.option("-o", "--output", type=click.Path(dir_okay=False), default=None,
-              help="Write every case to a .csv or .jsonl file (else a table is printed).")
-@click.option("--capacity", type=click.Choice(["none", "elastic", "full"]), default="elastic",
-              show_default=True,
-              help="elastic: the linear solution scaled to its first failure; full: also "
-                   "the nonlinear and plastic capacities (about 0.1 s a case).")
+@click.option(
+    "--vary",
+    "varies",
+    multiple=True,
+    metavar="KEY=VALUES",
+    help="A model-file key and its values: bolt.diameter=16,20,24, "
+    "ply[2].thickness=8:20:2 (ends included), bolt.grade=8.8,10.9. "
+    "Repeat for a full factorial.",
+)
+@click.option(
+    "--cases",
+    "cases_file",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="A CSV of cases: a header of keys, one case a row (crossed with --vary).",
+)
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write every case to a .csv or .jsonl file (else a table is printed).",
+)
+@click.option(
+    "--capacity",
+    type=click.Choice(["none", "elastic", "full"]),
+    default="elastic",
+    show_default=True,
+    help="elastic: the linear solution scaled to its first failure; full: also "
+    "the nonlinear and plastic capacities (about 0.1 s a case).",
+)
 @click.option("--no-check", is_flag=True, help="Skip the design check (solve only).")
-@click.option("--plot", type=click.Path(dir_okay=False), default=None,
-              help="Write a chart of --response against the varied keys (.png, .svg, .pdf).")
-@click.option("--response", default="utilization", show_default=True,
-              help="The plotted column: utilization, max_shear, max_moment, "
-                   "capacity_elastic, capacity_nonlinear, capacity_collapse, capacity_plastic, "
-                   "shear_plane_N.")
-@click.option("--x", "x_key", default=None, help="Key on the chart's x axis (default: the "
-              "first varied).")
-@click.option("--series", default=None, help="Key drawn as one line per value (default: the "
-              "second varied).")
-@click.option("--workers", type=click.IntRange(min=1, max=256), default=None,
-              help="Local worker processes (default: one per core).")
-@click.option("--scheduler", default=None, metavar="ADDRESS",
-              help="Run on a Dask distributed cluster (tcp://host:8786); needs the "
-                   "'dask' extra.")
+@click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write a chart of --response against the varied keys (.png, .svg, .pdf).",
+)
+@click.option(
+    "--response",
+    default="utilization",
+    show_default=True,
+    help="The plotted column: utilization, max_shear, max_moment, "
+    "capacity_elastic, capacity_nonlinear, capacity_collapse, capacity_plastic, "
+    "shear_plane_N.",
+)
+@click.option(
+    "--x", "x_key", default=None, help="Key on the chart's x axis (default: the first varied)."
+)
+@click.option(
+    "--series", default=None, help="Key drawn as one line per value (default: the second varied)."
+)
+@click.option(
+    "--workers",
+    type=click.IntRange(min=1, max=256),
+    default=None,
+    help="Local worker processes (default: one per core).",
+)
+@click.option(
+    "--scheduler",
+    default=None,
+    metavar="ADDRESS",
+    help="Run on a Dask distributed cluster (tcp://host:8786); needs the 'dask' extra.",
+)
 @click.option("--force", is_flag=True, help="Replace an existing -o or --plot file.")
-@click.option("--resume", is_flag=True,
-              help="Continue the sweep that wrote -o (its .partial file, or a complete "
-                   "output): skip the cases it holds, run the rest.")
-@click.option("--worker-timeout", type=click.FloatRange(min=0.1), default=60.0,
-              show_default=True, help="With --scheduler: seconds without any Dask worker "
-                                      "before the run ends.")
-@click.option("--chunk", type=click.IntRange(min=1, max=100000), default=None,
-              help="Cases per chunk (default 250; 10 with --capacity full): the unit of "
-                   "progress, of a retry after a worker's death and of what an interrupt "
-                   "loses.")
+@click.option(
+    "--resume",
+    is_flag=True,
+    help="Continue the sweep that wrote -o (its .partial file, or a complete "
+    "output): skip the cases it holds, run the rest.",
+)
+@click.option(
+    "--worker-timeout",
+    type=click.FloatRange(min=0.1),
+    default=60.0,
+    show_default=True,
+    help="With --scheduler: seconds without any Dask worker before the run ends.",
+)
+@click.option(
+    "--chunk",
+    type=click.IntRange(min=1, max=100000),
+    default=None,
+    help="Cases per chunk (default 250; 10 with --capacity full): the unit of "
+    "progress, of a retry after a worker's death and of what an interrupt "
+    "loses.",
+)
 @click.option("--quiet", is_flag=True, help="No progress bar.")
-def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
-              output: str | None, capacity: str, no_check: bool, plot: str | None,
-              response: str, x_key: str | None, series: str | None, workers: int | None,
-              scheduler: str | None, force: bool, resume: bool, worker_timeout: float,
-              chunk: int | None, quiet: bool) -> None:
+def sweep_cmd(
+    model: str,
+    varies: tuple[str, ...],
+    cases_file: str | None,
+    output: str | None,
+    capacity: str,
+    no_check: bool,
+    plot: str | None,
+    response: str,
+    x_key: str | None,
+    series: str | None,
+    workers: int | None,
+    scheduler: str | None,
+    force: bool,
+    resume: bool,
+    worker_timeout: float,
+    chunk: int | None,
+    quiet: bool,
+) -> None:
     """Solve, check and rate MODEL for every combination of the --vary values.
 
     Every case goes through the model file's own validation; a case that fails it
@@ -893,20 +1123,46 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
     target = _plot_target(plot, force)
     joint = _load(model)
     if joint.has_cases:
-        fail(f"{model}: sweep: a model with load cases is not swept yet; give plain loads "
-             "(e.g. one combination's) in a copy of the file")
+        fail(
+            f"{model}: sweep: a model with load cases is not swept yet; give plain loads "
+            "(e.g. one combination's) in a copy of the file"
+        )
     _echo_sanity(joint)
     data, keys, cases = _sweep_cases(model, varies, cases_file)
     key_texts = [k.text for k in keys]
-    chart = _sweep_chart(model, target, response, x_key, series, keys, cases, capacity,
-                         no_check, len(joint.plies) - 1)
+    chart = _sweep_chart(
+        model,
+        target,
+        response,
+        x_key,
+        series,
+        keys,
+        cases,
+        capacity,
+        no_check,
+        len(joint.plies) - 1,
+    )
     options = sr.Options(capacity=capacity, check=not no_check)
     cols = sr.columns(keys, len(joint.plies) - 1, options, len(joint.stations))
-    record = {"model file content": _content_hash(model), "capacity": capacity,
-              "check": not no_check}
+    record = {
+        "model file content": _content_hash(model),
+        "capacity": capacity,
+        "check": not no_check,
+    }
     stream = _open_stream(out_path, cols, force, resume, record, redo=sr.is_fault)
-    rows, outcome = _sweep_run(model, data, keys, cases, options, stream, quiet, workers,
-                               scheduler, worker_timeout, chunk or sr.chunk_size(options))
+    rows, outcome = _sweep_run(
+        model,
+        data,
+        keys,
+        cases,
+        options,
+        stream,
+        quiet,
+        workers,
+        scheduler,
+        worker_timeout,
+        chunk or sr.chunk_size(options),
+    )
     if outcome.stopped is not None or outcome.fault:
         _sweep_stopped(model, joint, rows, cols, key_texts, len(cases), stream, outcome)
     if stream is not None:
@@ -924,8 +1180,9 @@ def sweep_cmd(model: str, varies: tuple[str, ...], cases_file: str | None,
 
         x, ser, fixed = chart
         fixed_at = {k: cases[0][key_texts.index(k)] for k in fixed}
-        fig = sweep_figure(rows, x, ser, fixed_at, response, joint.units,
-                           f"variants of {Path(model).name}")
+        fig = sweep_figure(
+            rows, x, ser, fixed_at, response, joint.units, f"variants of {Path(model).name}"
+        )
         _write_figure(fig, target, force)
     sys.exit(_sweep_exit(rows, outcome))
 
@@ -946,8 +1203,9 @@ def _sweep_output(output: str | None, force: bool, resume: bool) -> Path | None:
     return path
 
 
-def _sweep_cases(model: str, varies: tuple[str, ...], cases_file: str | None
-                 ) -> tuple[dict[str, Any], list[Any], list[list[Any]]]:
+def _sweep_cases(
+    model: str, varies: tuple[str, ...], cases_file: str | None
+) -> tuple[dict[str, Any], list[Any], list[list[Any]]]:
     """The parsed model file, the varied keys and the cases (counted before expanded)."""
     from plyshear.model import modelfile
     from plyshear.sweep import keys as sk
@@ -972,16 +1230,21 @@ def _content_hash(path: str) -> str:
         fail(f"{path}: cannot read the file ({exc.strerror or exc})")
 
 
-def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool,
-                 record: dict[str, Any], redo: Callable[[dict[str, Any]], bool] | None = None,
-                 what: str = "sweep") -> Any:
+def _open_stream(
+    path: Path | None,
+    cols: list[str],
+    force: bool,
+    resume: bool,
+    record: dict[str, Any],
+    redo: Callable[[dict[str, Any]], bool] | None = None,
+    what: str = "sweep",
+) -> Any:
     """Reserve the output (exclusively) and open its partial file, before any case runs."""
     if path is None:
         return None
     from plyshear.sweep.stream import OutputError, Stream
 
-    stream = Stream(path, cols, force=force, resume=resume, record=record, redo=redo,
-                    what=what)
+    stream = Stream(path, cols, force=force, resume=resume, record=record, redo=redo, what=what)
     try:
         stream.open()
     except OutputError as exc:
@@ -989,9 +1252,19 @@ def _open_stream(path: Path | None, cols: list[str], force: bool, resume: bool,
     return stream
 
 
-def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], options: Any,
-               stream: Any, quiet: bool, workers: int | None, scheduler: str | None,
-               worker_timeout: float, chunk: int) -> tuple[list[dict[str, Any]], Any]:
+def _sweep_run(
+    model: str,
+    data: Any,
+    keys: list[Any],
+    cases: list[list[Any]],
+    options: Any,
+    stream: Any,
+    quiet: bool,
+    workers: int | None,
+    scheduler: str | None,
+    worker_timeout: float,
+    chunk: int,
+) -> tuple[list[dict[str, Any]], Any]:
     """Run the cases, appending each finished chunk to the output; keep the rows."""
     from plyshear.sweep import run as sr
     from plyshear.sweep.pool import Stopper
@@ -999,8 +1272,13 @@ def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], o
 
     rows: list[dict[str, Any]] = []
     show = not quiet and len(cases) > chunk
-    with Stopper() as stop, click.progressbar(length=len(cases), label=f"{len(cases)} cases",
-                                              file=sys.stderr, hidden=not show) as bar:
+    with (
+        Stopper() as stop,
+        click.progressbar(
+            length=len(cases), label=f"{len(cases)} cases", file=sys.stderr, hidden=not show
+        ) as bar,
+    ):
+
         def sink(part: list[dict[str, Any]]) -> None:
             if stream is not None:
                 stream.append(part)
@@ -1009,11 +1287,20 @@ def _sweep_run(model: str, data: Any, keys: list[Any], cases: list[list[Any]], o
             bar.update(len(part))
 
         try:
-            outcome = sr.run_stream(data, str(model), keys, cases, options, sink,
-                                    skip=stream.take_done if stream is not None else None,
-                                    workers=workers, scheduler=scheduler, stopper=stop,
-                                    chunk=chunk,
-                                    worker_timeout=worker_timeout)
+            outcome = sr.run_stream(
+                data,
+                str(model),
+                keys,
+                cases,
+                options,
+                sink,
+                skip=stream.take_done if stream is not None else None,
+                workers=workers,
+                scheduler=scheduler,
+                stopper=stop,
+                chunk=chunk,
+                worker_timeout=worker_timeout,
+            )
         except RuntimeError as exc:
             if stream is not None:
                 stream.discard()
@@ -1037,8 +1324,16 @@ def _resume_command() -> str:
     return shlex.join(["plyshear", *args])
 
 
-def _sweep_stopped(model: str, joint: Any, rows: list[dict[str, Any]], cols: list[str],
-                   key_texts: list[str], total: int, stream: Any, outcome: Any) -> NoReturn:
+def _sweep_stopped(
+    model: str,
+    joint: Any,
+    rows: list[dict[str, Any]],
+    cols: list[str],
+    key_texts: list[str],
+    total: int,
+    stream: Any,
+    outcome: Any,
+) -> NoReturn:
     """Report a stopped or unfinished run: what is kept, how to go on; exit."""
     from plyshear.sweep import output as so
 
@@ -1062,8 +1357,14 @@ def _sweep_stopped(model: str, joint: Any, rows: list[dict[str, Any]], cols: lis
     sys.exit(EXIT_SIGNAL.get(outcome.stopped, 128 + outcome.stopped))
 
 
-def _sweep_print(rows: list[dict[str, Any]], cols: list[str], key_texts: list[str],
-                 units: str, stream: Any, outcome: Any) -> None:
+def _sweep_print(
+    rows: list[dict[str, Any]],
+    cols: list[str],
+    key_texts: list[str],
+    units: str,
+    stream: Any,
+    outcome: Any,
+) -> None:
     from plyshear.sweep import output as so
 
     if stream is None:
@@ -1074,9 +1375,12 @@ def _sweep_print(rows: list[dict[str, Any]], cols: list[str], key_texts: list[st
         click.echo(so.summary(rows))
         click.echo(so.units_line(units))
     if outcome.deaths:
-        click.echo(f"warning: {outcome.deaths} worker process(es) died; their chunks were "
-                   f"run again ({outcome.lost} cases lost after a second death are error "
-                   "rows)", err=True)
+        click.echo(
+            f"warning: {outcome.deaths} worker process(es) died; their chunks were "
+            f"run again ({outcome.lost} cases lost after a second death are error "
+            "rows)",
+            err=True,
+        )
 
 
 def _sweep_exit(rows: list[dict[str, Any]], outcome: Any) -> int:
@@ -1088,9 +1392,18 @@ def _sweep_exit(rows: list[dict[str, Any]], outcome: Any) -> int:
     return 0
 
 
-def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
-                 series: str | None, keys: list[Any], cases: list[list[Any]], capacity: str,
-                 no_check: bool, planes: int) -> tuple[str, str | None, list[str]] | None:
+def _sweep_chart(
+    model: str,
+    target: Any,
+    response: str,
+    x_key: str | None,
+    series: str | None,
+    keys: list[Any],
+    cases: list[list[Any]],
+    capacity: str,
+    no_check: bool,
+    planes: int,
+) -> tuple[str, str | None, list[str]] | None:
     """Check the chart's options before the long part; return (x, series, other keys)."""
     if target is None:
         return None
@@ -1098,17 +1411,21 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
 
     where = f"{model}: sweep: --response {response}"
     if response_dimension(response) is None:
-        fail(f"{model}: sweep: --response {response!r} cannot be plotted; use utilization, "
-             "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_collapse, "
-             "capacity_plastic, "
-             "efficiency_nonlinear or shear_plane_N")
+        fail(
+            f"{model}: sweep: --response {response!r} cannot be plotted; use utilization, "
+            "max_shear, max_moment, capacity_elastic, capacity_nonlinear, capacity_collapse, "
+            "capacity_plastic, "
+            "efficiency_nonlinear or shear_plane_N"
+        )
     if response == "utilization" and no_check:
         fail(f"{where} needs the check (drop --no-check)")
     if response == "capacity_elastic" and capacity == "none":
         fail(f"{where} needs --capacity elastic or full")
-    if response in ("capacity_nonlinear", "capacity_collapse", "capacity_plastic",
-                    "efficiency_nonlinear") and \
-            capacity != "full":
+    if (
+        response
+        in ("capacity_nonlinear", "capacity_collapse", "capacity_plastic", "efficiency_nonlinear")
+        and capacity != "full"
+    ):
         fail(f"{where} needs --capacity full")
     if response.startswith("shear_plane_") and not 1 <= int(response[12:]) <= planes:
         fail(f"{where}: the model has planes 1 to {planes}")
@@ -1121,23 +1438,36 @@ def _sweep_chart(model: str, target: Any, response: str, x_key: str | None,
     ser = series if series is not None and series != x else (rest[0] if rest else None)
     for k in (x, ser):
         if k is not None and any(isinstance(c[texts.index(k)], list | dict) for c in cases):
-            fail(f"{model}: sweep: {k} has array values; plot against another key (--x, "
-                 "--series)")
+            fail(f"{model}: sweep: {k} has array values; plot against another key (--x, --series)")
     return x, ser, [k for k in rest if k != ser]
 
 
 @main.command("report")
 @click.argument("model", type=click.Path(dir_okay=False))
-@click.option("-o", "--output", type=click.Path(dir_okay=False), required=True,
-              help="The report file: .html (self-contained) or .pdf.")
+@click.option(
+    "-o",
+    "--output",
+    type=click.Path(dir_okay=False),
+    required=True,
+    help="The report file: .html (self-contained) or .pdf.",
+)
 @click.option("--force", is_flag=True, help="Replace an existing report.")
-@click.option("--combination", default=None, metavar="NAME",
-              help="Report one load combination (default, where the model has load cases: "
-                   "the check's governing combination).")
-@click.option("--paper", type=click.Choice(["letter", "a4"]), default=None,
-              help="Paper of the PDF (default: US Letter for kip-in models, A4 otherwise).")
-def report_cmd(model: str, output: str, force: bool, combination: str | None,
-               paper: str | None) -> None:
+@click.option(
+    "--combination",
+    default=None,
+    metavar="NAME",
+    help="Report one load combination (default, where the model has load cases: "
+    "the check's governing combination).",
+)
+@click.option(
+    "--paper",
+    type=click.Choice(["letter", "a4"]),
+    default=None,
+    help="Paper of the PDF (default: US Letter for kip-in models, A4 otherwise).",
+)
+def report_cmd(
+    model: str, output: str, force: bool, combination: str | None, paper: str | None
+) -> None:
     """Write the calculation report of MODEL: model, loads, diagrams, check, capacity.
 
     The PDF is typeset with a title block on every page (the model's project, job,
@@ -1165,8 +1495,7 @@ def report_cmd(model: str, output: str, force: bool, combination: str | None,
         data = _guard(lambda: document.build(sol))
     except ValueError as exc:
         fail(f"{model}: report: {exc}")
-    payload = document.to_pdf(data, paper) if kind == ".pdf" else \
-        document.to_html(data).encode()
+    payload = document.to_pdf(data, paper) if kind == ".pdf" else document.to_html(data).encode()
     write_atomic(path, payload, force)
     click.echo(f"report written to {path}", err=True)
 
@@ -1184,8 +1513,10 @@ def validate_cmd(model: str) -> None:
     planes = len(joint.plies) - 1
     bolts = len(joint.stations)
     row = f", {bolts} bolts" if bolts > 1 else ""
-    click.echo(f"ok: {model}: {len(joint.plies)} plies, {planes} planes{row}, "
-               f"units {joint.units}, check {joint.check.standard}")
+    click.echo(
+        f"ok: {model}: {len(joint.plies)} plies, {planes} planes{row}, "
+        f"units {joint.units}, check {joint.check.standard}"
+    )
     if joint.has_cases:
         from plyshear.report.combinations_text import loads_text
 
@@ -1199,9 +1530,15 @@ def validate_cmd(model: str) -> None:
 
 @main.command("demo")
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
-@click.option("--copy", "copy_to", type=click.Path(file_okay=False), default=None,
-              metavar="DIR", help="Copy the example model files shipped with plyshear into "
-                                  "DIR (made if missing) instead of solving.")
+@click.option(
+    "--copy",
+    "copy_to",
+    type=click.Path(file_okay=False),
+    default=None,
+    metavar="DIR",
+    help="Copy the example model files shipped with plyshear into "
+    "DIR (made if missing) instead of solving.",
+)
 @click.option("--force", is_flag=True, help="With --copy: replace files of the same name.")
 def demo_cmd(as_json: bool, copy_to: str | None, force: bool) -> None:
     """Solve a packaged example: a three-leg fork pinned to a two-plate lug."""
@@ -1221,17 +1558,21 @@ def demo_cmd(as_json: bool, copy_to: str | None, force: bool) -> None:
     from plyshear.report.text import solution_text
 
     click.echo(solution_text(sol))
-    click.echo(f"\nThe model file is {DEMO_MODEL}, one of the examples shipped with plyshear. "
-               "Copy them out with `plyshear demo --copy examples`, then try `plyshear solve "
-               f"examples/{DEMO_MODEL}`.")
+    click.echo(
+        f"\nThe model file is {DEMO_MODEL}, one of the examples shipped with plyshear. "
+        "Copy them out with `plyshear demo --copy examples`, then try `plyshear solve "
+        f"examples/{DEMO_MODEL}`."
+    )
 
 
 def _copy_examples(target: Path, force: bool) -> None:
     """Write every packaged example into ``target``; refuse to replace one without --force."""
     from importlib import resources
 
-    files = sorted((f for f in (resources.files("plyshear") / "models").iterdir()
-                    if f.name.endswith(".toml")), key=lambda f: f.name)
+    files = sorted(
+        (f for f in (resources.files("plyshear") / "models").iterdir() if f.name.endswith(".toml")),
+        key=lambda f: f.name,
+    )
     clash = [f.name for f in files if (target / f.name).exists()]
     if clash and not force:
         fail(f"{target}: {', '.join(clash)} exist(s); use --force to replace")
@@ -1241,8 +1582,9 @@ def _copy_examples(target: Path, force: bool) -> None:
         fail(f"{target}: cannot make the folder ({exc.strerror or exc})")
     for f in files:
         write_atomic(target / f.name, f.read_bytes(), force)
-    click.echo(f"{len(files)} example models copied to {target}: "
-               + ", ".join(f.name for f in files))
+    click.echo(
+        f"{len(files)} example models copied to {target}: " + ", ".join(f.name for f in files)
+    )
 
 
 DEMO_MODEL = "fork-four-planes.toml"

@@ -107,9 +107,7 @@ class UnitSystem:
 SYSTEMS: dict[str, UnitSystem] = {
     "N-mm": UnitSystem("N-mm", 1.0, 1.0, "N", "mm", "MPa", 1.0),
     "kN-mm": UnitSystem("kN-mm", 1000.0, 1.0, "kN", "mm", "MPa", 1.0),
-    "kip-in": UnitSystem(
-        "kip-in", N_PER_KIP, MM_PER_IN, "kip", "in", "ksi", MPA_PER_KSI
-    ),
+    "kip-in": UnitSystem("kip-in", N_PER_KIP, MM_PER_IN, "kip", "in", "ksi", MPA_PER_KSI),
 }
 
 
@@ -126,8 +124,10 @@ def system(name: str) -> UnitSystem:
 
 
 #: The number of a quantity: a decimal (or a fraction such as 3/4), at the start.
-_NUMBER = re.compile(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d{1,3})?)"
-                     r"(?:\s*/\s*(\d+(?:\.\d*)?|\.\d+))?")
+_NUMBER = re.compile(
+    r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d{1,3})?)"
+    r"(?:\s*/\s*(\d+(?:\.\d*)?|\.\d+))?"
+)
 #: One unit factor: a name, then an optional integer exponent of at most two digits
 #: written ``**N`` or ``^N`` (e.g. ``mm``, ``in**2``, ``mm^-1``).
 _FACTOR = re.compile(r"\s*([A-Za-zµ°][A-Za-z_µ°]{0,31})(?:\s*(?:\*\*|\^)\s*([-+]?\d{1,2}))?")
@@ -199,9 +199,11 @@ def parse_quantity(text: str, dimension: str) -> float:
     parsed = _grammar(text) if len(text) <= MAX_QUANTITY_CHARS else None
     if parsed is None:
         shown = text if len(text) <= MAX_QUANTITY_CHARS else text[:MAX_QUANTITY_CHARS] + "..."
-        raise ValueError(f"cannot read '{shown}' as a quantity: write a number and a unit, "
-                         "e.g. '12 mm', '3/4 in', '250 kN', 'N/mm^2' (exponents: integers "
-                         "of at most two digits)")
+        raise ValueError(
+            f"cannot read '{shown}' as a quantity: write a number and a unit, "
+            "e.g. '12 mm', '3/4 in', '250 kN', 'N/mm^2' (exponents: integers "
+            "of at most two digits)"
+        )
     ureg = _registry()
     number, factors = parsed
     try:

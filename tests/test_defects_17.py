@@ -39,14 +39,16 @@ def test_demo_copies_the_examples_and_says_how(tmp_path) -> None:
 def test_sweep_legend_sorts_inch_sizes_by_value() -> None:
     from plyshear.report.sweepplot import sweep_figure
 
-    rows = [{"case": i, "ply[1].thickness": t, "bolt.diameter": d, "utilization": 0.5}
-            for i, (d, t) in enumerate(((d, t) for d in ("1 in", "3/4 in", "7/8 in")
-                                        for t in (0.5, 0.75)), start=1)]
+    rows = [
+        {"case": i, "ply[1].thickness": t, "bolt.diameter": d, "utilization": 0.5}
+        for i, (d, t) in enumerate(
+            ((d, t) for d in ("1 in", "3/4 in", "7/8 in") for t in (0.5, 0.75)), start=1
+        )
+    ]
     fig = sweep_figure(rows, "ply[1].thickness", "bolt.diameter", {}, "utilization", "kip-in")
     labels = [t.get_text() for t in fig.axes[0].get_legend().get_texts()]
     # 3/4 in < 7/8 in < 1 in by value (19.05, 22.225, 25.4 mm)
-    assert labels == ["bolt.diameter = 3/4 in", "bolt.diameter = 7/8 in",
-                      "bolt.diameter = 1 in"]
+    assert labels == ["bolt.diameter = 3/4 in", "bolt.diameter = 7/8 in", "bolt.diameter = 1 in"]
 
 
 def test_a_swept_diameter_gets_its_own_stress_area() -> None:
@@ -67,7 +69,10 @@ def test_a_swept_diameter_gets_its_own_stress_area() -> None:
 def test_package_namespace_is_the_api() -> None:
     public = {n for n in vars(plyshear) if not n.startswith("_")}
     assert public == {"capacity", "check", "load_model", "solve"} | {
-        n for n in public if n in ("codes", "mechanics", "model", "report", "units", "sweep",
-                                   "errors", "verify", "cli")}  # subpackages once imported
+        n
+        for n in public
+        if n
+        in ("codes", "mechanics", "model", "report", "units", "sweep", "errors", "verify", "cli")
+    }  # subpackages once imported
     for leaked in ("os", "Any", "annotations", "TYPE_CHECKING"):
         assert not hasattr(plyshear, leaked)

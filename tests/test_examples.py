@@ -30,8 +30,9 @@ def test_each_example_has_the_bolts_and_planes_its_file_declares() -> None:
     found = {}
     for path in EXAMPLES:
         raw = tomllib.loads(path.read_text(encoding="utf-8"))
-        bolts = raw.get("pattern", {}).get("count", len(raw.get("pattern", {}).get(
-            "positions", [0])))
+        bolts = raw.get("pattern", {}).get(
+            "count", len(raw.get("pattern", {}).get("positions", [0]))
+        )
         data = json.loads(CliRunner().invoke(main, ["solve", str(path), "--json"]).output)
         assert [len(b["planes"]) for b in data["bolts"]] == [len(raw["ply"]) - 1] * bolts
         found[path.stem] = bolts
@@ -53,7 +54,8 @@ def test_example_solves_and_json_keeps_the_contract(path: Path) -> None:
     assert len(bolt["planes"]) == len(bolt["plies"]) - 1
     for plane in bolt["planes"]:
         assert plane["shear"] == pytest.approx(
-            (plane["shear_xy"][0] ** 2 + plane["shear_xy"][1] ** 2) ** 0.5, rel=1e-12)
+            (plane["shear_xy"][0] ** 2 + plane["shear_xy"][1] ** 2) ** 0.5, rel=1e-12
+        )
     assert {"name", "reaction_xy", "displacement_xy"} <= set(data["members"][0])
     assert data["equilibrium_residual"] < RESIDUAL_MAX
     # statics: the reactions balance the applied loads (in the model's units)
@@ -96,12 +98,22 @@ def test_installed_console_script_runs() -> None:
     exe = Path(sys.executable).with_name("plyshear")
     if not exe.exists():
         pytest.skip("console script not installed next to this interpreter")
-    out = subprocess.run([str(exe), "solve", str(MODELS / "gusset-three-members.toml")],
-                         capture_output=True, text=True, timeout=120, check=False)
+    out = subprocess.run(
+        [str(exe), "solve", str(MODELS / "gusset-three-members.toml")],
+        capture_output=True,
+        text=True,
+        timeout=120,
+        check=False,
+    )
     assert out.returncode == 0, out.stderr
     assert "plane" in out.stdout
-    bad = subprocess.run([str(exe), "solve", "no-such-model.toml"], capture_output=True,
-                         text=True, timeout=120, check=False)
+    bad = subprocess.run(
+        [str(exe), "solve", "no-such-model.toml"],
+        capture_output=True,
+        text=True,
+        timeout=120,
+        check=False,
+    )
     assert bad.returncode == 2
     assert bad.stderr.startswith("error: no-such-model.toml: ")
     assert "Traceback" not in bad.stderr

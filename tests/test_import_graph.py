@@ -17,11 +17,14 @@ import plyshear
 ROOT = Path(plyshear.__file__).parent
 #: The layers from the bottom: a module imports its own layer and those below only.
 LAYERS = {
-    "plyshear.errors": 0, "plyshear.units": 0,
+    "plyshear.errors": 0,
+    "plyshear.units": 0,
     "plyshear.model": 1,
     "plyshear.mechanics": 2,
     "plyshear.codes": 3,
-    "plyshear.sweep": 4, "plyshear.report": 4, "plyshear.verify": 4,
+    "plyshear.sweep": 4,
+    "plyshear.report": 4,
+    "plyshear.verify": 4,
     "plyshear.cli": 5,
 }
 
@@ -37,7 +40,8 @@ FILES = {_module_name(p): p for p in ROOT.rglob("*.py")}
 def _is_type_checking(node: ast.If) -> bool:
     test = node.test
     return (isinstance(test, ast.Name) and test.id == "TYPE_CHECKING") or (
-        isinstance(test, ast.Attribute) and test.attr == "TYPE_CHECKING")
+        isinstance(test, ast.Attribute) and test.attr == "TYPE_CHECKING"
+    )
 
 
 def _imports(tree: ast.AST, module: str) -> set[str]:
@@ -51,8 +55,12 @@ def _imports(tree: ast.AST, module: str) -> set[str]:
             return
         if isinstance(node, ast.Import):
             found.update(a.name for a in node.names if a.name.startswith("plyshear"))
-        elif isinstance(node, ast.ImportFrom) and node.module and node.level == 0 \
-                and node.module.startswith("plyshear"):
+        elif (
+            isinstance(node, ast.ImportFrom)
+            and node.module
+            and node.level == 0
+            and node.module.startswith("plyshear")
+        ):
             for a in node.names:  # "from plyshear.codes import check" imports a module
                 sub = f"{node.module}.{a.name}"
                 found.add(sub if sub in FILES else node.module)

@@ -23,18 +23,26 @@ print(",".join(m for m in ("matplotlib", "click", "pint") if m in sys.modules))
 def test_core_imports_no_matplotlib_click_or_pint(model: str) -> None:
     from tests.conftest import MODELS
 
-    out = subprocess.run([sys.executable, "-c", PROBE, str(MODELS / model)],
-                         capture_output=True, text=True, check=True, timeout=120)
+    out = subprocess.run(
+        [sys.executable, "-c", PROBE, str(MODELS / model)],
+        capture_output=True,
+        text=True,
+        check=True,
+        timeout=120,
+    )
     assert out.stdout.strip() == ""
 
 
 def test_help_does_not_load_scipy_or_matplotlib() -> None:
-    code = ("import sys\nfrom plyshear.cli import main\n"
-            "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
-            "print('loaded:' + ','.join(m for m in ('scipy', 'matplotlib', 'pint') "
-            "if m in sys.modules))")
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True, timeout=120)
+    code = (
+        "import sys\nfrom plyshear.cli import main\n"
+        "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
+        "print('loaded:' + ','.join(m for m in ('scipy', 'matplotlib', 'pint') "
+        "if m in sys.modules))"
+    )
+    out = subprocess.run(
+        [sys.executable, "-c", code], capture_output=True, text=True, check=True, timeout=120
+    )
     assert out.stdout.strip().splitlines()[-1] == "loaded:"
 
 
@@ -43,11 +51,14 @@ def test_solve_command_loads_only_what_a_solve_uses() -> None:
     # (figures) and pint (strings with units) are imported where they are used
     from tests.conftest import MODELS
 
-    code = ("import sys\nfrom plyshear.cli import main\n"
-            f"try:\n    main(['solve', {str(MODELS / 'fork-four-planes.toml')!r}])\n"
-            "except SystemExit:\n    pass\n"
-            "print('loaded:' + ','.join(m for m in ('networkx', 'scipy.optimize', "
-            "'matplotlib', 'pint') if m in sys.modules))")
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True, timeout=120)
+    code = (
+        "import sys\nfrom plyshear.cli import main\n"
+        f"try:\n    main(['solve', {str(MODELS / 'fork-four-planes.toml')!r}])\n"
+        "except SystemExit:\n    pass\n"
+        "print('loaded:' + ','.join(m for m in ('networkx', 'scipy.optimize', "
+        "'matplotlib', 'pint') if m in sys.modules))"
+    )
+    out = subprocess.run(
+        [sys.executable, "-c", code], capture_output=True, text=True, check=True, timeout=120
+    )
     assert out.stdout.strip().splitlines()[-1] == "loaded:"

@@ -16,8 +16,15 @@ import plyshear
 
 ROOT = Path(plyshear.__file__).parent
 BLOCK = 6  # lines
-_SKIP = {tokenize.COMMENT, tokenize.NL, tokenize.NEWLINE, tokenize.INDENT, tokenize.DEDENT,
-         tokenize.ENCODING, tokenize.ENDMARKER}
+_SKIP = {
+    tokenize.COMMENT,
+    tokenize.NL,
+    tokenize.NEWLINE,
+    tokenize.INDENT,
+    tokenize.DEDENT,
+    tokenize.ENCODING,
+    tokenize.ENDMARKER,
+}
 #: Lines too common to mark a copy: closing brackets alone.
 _TRIVIAL = {")", "]", "}", "),", "],", "},", ") :", "] ,", ") ,"}
 
@@ -28,13 +35,15 @@ def code_lines(text: str) -> list[tuple[int, str]]:
     previous = tokenize.INDENT
     for tok in tokenize.generate_tokens(io.StringIO(text).readline):
         docstring = tok.type == tokenize.STRING and previous in (
-            tokenize.INDENT, tokenize.NEWLINE, tokenize.DEDENT)
+            tokenize.INDENT,
+            tokenize.NEWLINE,
+            tokenize.DEDENT,
+        )
         if tok.type not in _SKIP and not docstring:
             by_line[tok.start[0]].append(tok.string)
         if tok.type not in (tokenize.COMMENT, tokenize.NL):
             previous = tok.type
-    return [(n, " ".join(t)) for n, t in sorted(by_line.items())
-            if " ".join(t) not in _TRIVIAL]
+    return [(n, " ".join(t)) for n, t in sorted(by_line.items()) if " ".join(t) not in _TRIVIAL]
 
 
 def repeats(files: dict[str, str]) -> list[tuple[tuple[str, int], ...]]:
@@ -43,13 +52,14 @@ def repeats(files: dict[str, str]) -> list[tuple[tuple[str, int], ...]]:
     for name, text in files.items():
         lines = code_lines(text)
         for i in range(len(lines) - BLOCK + 1):
-            where[tuple(s for _, s in lines[i:i + BLOCK])].add((name, lines[i][0]))
+            where[tuple(s for _, s in lines[i : i + BLOCK])].add((name, lines[i][0]))
     return sorted(tuple(sorted(w)) for w in where.values() if len({n for n, _ in w}) > 1)
 
 
 def test_no_block_of_six_lines_repeats_between_files() -> None:
-    files = {str(p.relative_to(ROOT)): p.read_text(encoding="utf-8")
-             for p in sorted(ROOT.rglob("*.py"))}
+    files = {
+        str(p.relative_to(ROOT)): p.read_text(encoding="utf-8") for p in sorted(ROOT.rglob("*.py"))
+    }
     assert repeats(files) == []
 
 

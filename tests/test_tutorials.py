@@ -31,7 +31,7 @@ def _blocks(text: str) -> list[tuple[list[str], list[str]]]:
     for body in BLOCK.findall(text):
         lines = body.rstrip("\n").split("\n")
         assert lines[0].startswith("$ plyshear "), lines[0]
-        out.append((shlex.split(lines[0][len("$ plyshear "):]), lines[1:]))
+        out.append((shlex.split(lines[0][len("$ plyshear ") :]), lines[1:]))
     return out
 
 
@@ -50,7 +50,7 @@ def _contains_in_order(actual: list[str], chunks: list[list[str]]) -> bool:
     """Whether every chunk appears as consecutive lines of ``actual``, in order."""
     at = 0
     for chunk in chunks:
-        while at + len(chunk) <= len(actual) and actual[at:at + len(chunk)] != chunk:
+        while at + len(chunk) <= len(actual) and actual[at : at + len(chunk)] != chunk:
             at += 1
         if at + len(chunk) > len(actual):
             return False
@@ -84,7 +84,8 @@ def test_tutorial_reproduces_its_numbers(path: Path, monkeypatch: pytest.MonkeyP
         # the tutorial's own text: what the command printed when it was written
         assert _contains_in_order(actual, _chunks(expected)), (
             f"{path.name}: `plyshear {' '.join(args)}` no longer prints what the text shows:\n"
-            + "\n".join(actual))
+            + "\n".join(actual)
+        )
         printed.append("\n".join(actual))
     output = "\n".join(printed)
     numbers = set(re.findall(r"-?[0-9][0-9.]*", output))

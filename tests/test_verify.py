@@ -34,7 +34,8 @@ def test_every_group_has_cases() -> None:
 def test_document_is_current() -> None:
     committed = (ROOT / "docs" / "verification.md").read_text(encoding="utf-8")
     assert committed == verify.document(ROOT), (
-        "docs/verification.md is stale: run `python -m plyshear.verify`")
+        "docs/verification.md is stale: run `python -m plyshear.verify`"
+    )
 
 
 def test_document_lists_every_verification_module_on_disk() -> None:
@@ -46,8 +47,7 @@ def test_document_lists_every_verification_module_on_disk() -> None:
 
 
 def test_a_failing_case_is_marked(tmp_path: Path) -> None:
-    bad = verify.Case("mechanics", "x", "statics", "V [N]", reference=100.0, value=103.0,
-                      tol=0.01)
+    bad = verify.Case("mechanics", "x", "statics", "V [N]", reference=100.0, value=103.0, tol=0.01)
     assert not bad.passes
     assert "**NO**" in verify.render([bad], [])
 

@@ -34,21 +34,25 @@ def _notes(joint: Joint) -> list[str]:
     grade = catalog.fastener(joint.bolt.grade)
     group = _group(joint)
     if group is None:
-        return [f"grade {grade.key} is not an ASTM structural bolt: Table J3.2 "
-                "threaded-part strengths with Fu = fub are used"]
+        return [
+            f"grade {grade.key} is not an ASTM structural bolt: Table J3.2 "
+            "threaded-part strengths with Fu = fub are used"
+        ]
     return [f"bolt group: {aisc.EDITION_GROUP_NAMES.get(group, group)} (model key {grade.key})"]
 
 
 def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list[CheckItem]:
     group = _group(joint)
-    return (_shear(joint, bolt, method, group, notes) + _bearing(joint, bolt, method)
-            + _bolt_items(joint, bolt, method, group, notes))
+    return (
+        _shear(joint, bolt, method, group, notes)
+        + _bearing(joint, bolt, method)
+        + _bolt_items(joint, bolt, method, group, notes)
+    )
 
 
 def _long_joint(joint: Joint) -> tuple[float, str]:
     length = common.joint_length(joint)
-    return (aisc.long_joint_factor(length) if length > 0 else 1.0,
-            "AISC 360-22 J3.6 long-joint")
+    return (aisc.long_joint_factor(length) if length > 0 else 1.0, "AISC 360-22 J3.6 long-joint")
 
 
 def _avail(rn: float, method: str, phi: float = PHI_BOLT, omega: float = OMEGA_BOLT) -> float:
@@ -62,13 +66,17 @@ def _fnv(group: str | None, fub: float, threads: bool) -> tuple[float, Clause]:
     return aisc.F_nv(group, threads_excluded=not threads), cited(aisc.F_nv)
 
 
-def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
-           notes: list[str]) -> list[CheckItem]:
+def _shear(
+    joint: Joint, bolt: BoltResult, method: str, group: str | None, notes: list[str]
+) -> list[CheckItem]:
     b = joint.bolt
     ab = b.gross_area  # J3.6: nominal unthreaded body area, also through threads
     items = []
-    long_factor = aisc.long_joint_factor(common.joint_length(joint)) \
-        if common.joint_length(joint) > 0 else 1.0
+    long_factor = (
+        aisc.long_joint_factor(common.joint_length(joint))
+        if common.joint_length(joint) > 0
+        else 1.0
+    )
     grip_factor = aisc.A307_long_grip_factor(joint.grip, b.diameter) if group == "A307" else 1.0
     developed = joint.check.fillers == "developed"
     for p in bolt.planes:
@@ -86,18 +94,37 @@ def _shear(joint: Joint, bolt: BoltResult, method: str, group: str | None,
                 form = "us" if joint.units == "kip-in" else "si"
                 factor = aisc.filler_factor(t_pack, developed=developed, form=form)
             except ValueError as exc:
-                items.append(CheckItem("filler thickness", t_pack, aisc.FILLER_MAX,
-                                       "length", (cited(aisc.filler_factor),),
-                                       **common.at_plane(p), note=str(exc)))
+                items.append(
+                    CheckItem(
+                        "filler thickness",
+                        t_pack,
+                        aisc.FILLER_MAX,
+                        "length",
+                        (cited(aisc.filler_factor),),
+                        **common.at_plane(p),
+                        note=str(exc),
+                    )
+                )
                 factor = 1.0
             rn *= factor
             clauses.append(cited(aisc.filler_factor))
             note += f", filler {length_str(joint.units, t_pack)}: factor {factor:.3f}"
-        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, _avail(rn, method), "force",
-                               tuple(clauses), **common.at_plane(p), note=note))
+        items.append(
+            CheckItem(
+                f"{common.noun(joint)} shear",
+                p.shear,
+                _avail(rn, method),
+                "force",
+                tuple(clauses),
+                **common.at_plane(p),
+                note=note,
+            )
+        )
     if common.packs(joint) and not developed:
-        notes.append("fillers taken as not developed (J5.2); set [check] fillers = "
-                     "\"developed\" if they are extended and bolted or welded")
+        notes.append(
+            "fillers taken as not developed (J5.2); set [check] fillers = "
+            '"developed" if they are extended and bolted or welded'
+        )
     return items
 
 
@@ -116,25 +143,50 @@ def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
     for pb, ply, where in common.bearing_plies(joint, bolt):
         if pin:
             rn = aisc.R_n_pin_bearing(ply.thickness * b.diameter, ply.fy)
-            items.append(CheckItem("pin bearing", pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_pin_bearing),), **where))
+            items.append(
+                CheckItem(
+                    "pin bearing",
+                    pb.force,
+                    _avail(rn, method),
+                    "force",
+                    (cited(aisc.R_n_pin_bearing),),
+                    **where,
+                )
+            )
         else:
             rn = aisc.R_n_bearing(b.diameter, ply.thickness, ply.fu, deform, long_slot)
             note = "deformation at service considered" if deform else "deformation not considered"
-            items.append(CheckItem("bearing", pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_bearing),), **where, note=note))
+            items.append(
+                CheckItem(
+                    "bearing",
+                    pb.force,
+                    _avail(rn, method),
+                    "force",
+                    (cited(aisc.R_n_bearing),),
+                    **where,
+                    note=note,
+                )
+            )
         if ply.edge is not None:
             lc = aisc.l_c_edge(ply.edge, dh) if ply.edge > dh / 2 else 0.0
             rn = aisc.R_n_tearout(lc, ply.thickness, ply.fu, deform, long_slot) if lc > 0 else 0.0
-            items.append(CheckItem("tear-out", pb.force, _avail(rn, method), "force",
-                                   (cited(aisc.R_n_tearout), cited(aisc.l_c_edge)), **where,
-                                   note=f"lc = {length_str(joint.units, lc)}, hole "
-                                        f"{length_str(joint.units, dh)}"))
+            items.append(
+                CheckItem(
+                    "tear-out",
+                    pb.force,
+                    _avail(rn, method),
+                    "force",
+                    (cited(aisc.R_n_tearout), cited(aisc.l_c_edge)),
+                    **where,
+                    note=f"lc = {length_str(joint.units, lc)}, hole {length_str(joint.units, dh)}",
+                )
+            )
     return items
 
 
-def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
-                notes: list[str]) -> list[CheckItem]:
+def _bolt_items(
+    joint: Joint, bolt: BoltResult, method: str, group: str | None, notes: list[str]
+) -> list[CheckItem]:
     b = joint.bolt
     items = []
     # Bending: informative, the plastic moment of the section where M is largest.
@@ -142,12 +194,20 @@ def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
     i = int(m.argmax())
     threaded = bool(joint.bolt.threaded_along(bolt.z)[i])
     mp = aisc.M_p_circle(common.bolt_section_diameter(joint, threaded), b.fyb)
-    items.append(CheckItem(
-        f"{common.noun(joint)} bending", float(m[i]),
-        _avail(mp, method, PHI_FLEXURE, OMEGA_FLEXURE), "moment", (cited(aisc.M_p_circle),),
-        informative=True, z=float(bolt.z[i]),
-        note="outside the standard's text: plastic moment of the "
-             + ("threaded" if threaded else "shank") + " section, phi 0.90 / Omega 1.67"))
+    items.append(
+        CheckItem(
+            f"{common.noun(joint)} bending",
+            float(m[i]),
+            _avail(mp, method, PHI_FLEXURE, OMEGA_FLEXURE),
+            "moment",
+            (cited(aisc.M_p_circle),),
+            informative=True,
+            z=float(bolt.z[i]),
+            note="outside the standard's text: plastic moment of the "
+            + ("threaded" if threaded else "shank")
+            + " section, phi 0.90 / Omega 1.67",
+        )
+    )
     # Tension and combined tension and shear (J3.7).
     if b.tension > 0:
         fnt = aisc.F_nt(group) if group is not None else aisc.F_nt_threaded_part(b.fub)
@@ -155,27 +215,43 @@ def _bolt_items(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         fnv, _ = _fnv(group, b.fub, worst.threads)
         frv = worst.shear / b.gross_area
         fnt_p = aisc.F_nt_prime(fnt, fnv, frv, method, PHI_BOLT, OMEGA_BOLT)
-        items.append(CheckItem("bolt tension", b.tension,
-                               _avail(fnt * b.gross_area, method), "force",
-                               (cited(aisc.F_nt),)))
-        items.append(CheckItem("tension + shear", b.tension,
-                               _avail(fnt_p * b.gross_area, method), "force",
-                               (cited(aisc.F_nt_prime),), plane=worst.index,
-                               note=f"frv = {frv:.0f} MPa"))
+        items.append(
+            CheckItem(
+                "bolt tension",
+                b.tension,
+                _avail(fnt * b.gross_area, method),
+                "force",
+                (cited(aisc.F_nt),),
+            )
+        )
+        items.append(
+            CheckItem(
+                "tension + shear",
+                b.tension,
+                _avail(fnt_p * b.gross_area, method),
+                "force",
+                (cited(aisc.F_nt_prime),),
+                plane=worst.index,
+                note=f"frv = {frv:.0f} MPa",
+            )
+        )
     # Slip (J3.8).
     if joint.check.slip_critical or b.pretension > 0:
         items += _slip(joint, bolt, method, group, notes)
     return items
 
 
-def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
-          notes: list[str]) -> list[CheckItem]:
+def _slip(
+    joint: Joint, bolt: BoltResult, method: str, group: str | None, notes: list[str]
+) -> list[CheckItem]:
     b = joint.bolt
     tb = b.pretension
     if tb <= 0:
         if group not in ("A", "B"):
-            notes.append("slip not checked: no pretension given and Table J3.1 covers "
-                         "Group A and B bolts only")
+            notes.append(
+                "slip not checked: no pretension given and Table J3.1 covers "
+                "Group A and B bolts only"
+            )
             return []
         try:
             tb = aisc.T_b_min(b.diameter, group)
@@ -195,13 +271,21 @@ def _slip(joint: Joint, bolt: BoltResult, method: str, group: str | None,
         rn *= aisc.k_sc(b.tension, tb, 1, method)
         clauses.append(cited(aisc.k_sc))
     avail = _avail(rn, method, aisc.phi_slip(b.hole), aisc.omega_slip(b.hole))
-    return [CheckItem("slip", common.transferred_force(joint, bolt), avail, "force",
-                      tuple(clauses),
-                      note=f"Class {surface}, mu {MU[surface]}, Tb {force_str(joint.units, tb)}, "
-                           f"ns {ns}, hf {hf}")]
+    return [
+        CheckItem(
+            "slip",
+            common.transferred_force(joint, bolt),
+            avail,
+            "force",
+            tuple(clauses),
+            note=f"Class {surface}, mu {MU[surface]}, Tb {force_str(joint.units, tb)}, "
+            f"ns {ns}, hf {hf}",
+        )
+    ]
 
 
-ITEMS = common.StandardItems(standard="aisc360-22", edition=aisc.STANDARD, notes=_notes, bolt=_bolt,
-                      long_joint=_long_joint)
+ITEMS = common.StandardItems(
+    standard="aisc360-22", edition=aisc.STANDARD, notes=_notes, bolt=_bolt, long_joint=_long_joint
+)
 
 __all__ = ["ITEMS", "OMEGA_BOLT", "PHI_BOLT"]

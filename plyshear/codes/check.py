@@ -37,12 +37,14 @@ UNVERIFIED_CONDITION = 1e12
 #: unit system than a real design (common practice, no source).
 UTILIZATION_SUSPECT = 20.0
 #: What each standard asks of a bolt, by the model file's name of the standard.
-ITEMS: dict[str, StandardItems] = {s.standard: s for s in (aisc360_check.ITEMS,
-                                                           en1993_1_8_check.ITEMS)}
+ITEMS: dict[str, StandardItems] = {
+    s.standard: s for s in (aisc360_check.ITEMS, en1993_1_8_check.ITEMS)
+}
 
 
-def check(solution: Solution, standard: str | None = None,
-          method: str | None = None) -> CheckResult:
+def check(
+    solution: Solution, standard: str | None = None, method: str | None = None
+) -> CheckResult:
     """Check every plane, ply and bolt of a solved joint.
 
     Args:
@@ -72,14 +74,21 @@ def check(solution: Solution, standard: str | None = None,
     if standard != joint.check.standard and joint.check.slip_class is not None:
         # The classes share letters but not friction coefficients (AISC Class A is
         # mu 0.30, EN Class A is mu 0.5): never carry one across.
-        raise ValueError(f"check.slip_class '{joint.check.slip_class}' is a class of "
-                         f"{joint.check.standard}, not of {standard}; check with the "
-                         "model's standard or change [check]")
+        raise ValueError(
+            f"check.slip_class '{joint.check.slip_class}' is a class of "
+            f"{joint.check.standard}, not of {standard}; check with the "
+            "model's standard or change [check]"
+        )
     if service_only:  # a replaceable pin's service loads: the serviceability rules alone
         from plyshear.codes.en1993_1_8 import STANDARD as EDITION
 
-        result = CheckResult(standard=standard, method="partial-factors", edition=EDITION,
-                             items=(), units=joint.units)
+        result = CheckResult(
+            standard=standard,
+            method="partial-factors",
+            edition=EDITION,
+            items=(),
+            units=joint.units,
+        )
     else:
         result = run(ITEMS[standard], solution, method)
     result = pin_plates.extend(joint, solution, result, method)
@@ -87,10 +96,15 @@ def check(solution: Solution, standard: str | None = None,
     fitted = fitted_holes_note(joint)
     if fitted:
         notes.append(fitted)
-    return _trusted(dataclasses.replace(result, loads=load_level(joint, standard, method),
-                                        notes=tuple(dict.fromkeys(notes)),
-                                        warnings=tuple(check_warnings(joint, result))),
-                    solution)
+    return _trusted(
+        dataclasses.replace(
+            result,
+            loads=load_level(joint, standard, method),
+            notes=tuple(dict.fromkeys(notes)),
+            warnings=tuple(check_warnings(joint, result)),
+        ),
+        solution,
+    )
 
 
 def run(items: StandardItems, solution: Solution, method: str) -> CheckResult:
@@ -110,15 +124,21 @@ def run(items: StandardItems, solution: Solution, method: str) -> CheckResult:
     row = len(solution.bolts)
     found: list[CheckItem] = []
     for k, bolt in enumerate(solution.bolts):
-        found += [dataclasses.replace(i, bolt=k, row=row)
-                  for i in items.bolt(joint, bolt, method, notes)]
+        found += [
+            dataclasses.replace(i, bolt=k, row=row) for i in items.bolt(joint, bolt, method, notes)
+        ]
     factor, rule = items.long_joint(joint)
     note = row_note(solution, factor, rule)
     if note:
         notes.append(note)
-    return CheckResult(standard=items.standard, method=method, edition=items.edition,
-                       items=tuple(found), notes=tuple(dict.fromkeys(notes)),
-                       units=joint.units)
+    return CheckResult(
+        standard=items.standard,
+        method=method,
+        edition=items.edition,
+        items=tuple(found),
+        notes=tuple(dict.fromkeys(notes)),
+        units=joint.units,
+    )
 
 
 def require_load_level(joint: Joint, standard: str, method: str) -> None:
@@ -136,12 +156,16 @@ def require_load_level(joint: Joint, standard: str, method: str) -> None:
     if have == need:
         return
     name = {"aisc360-22": f"AISC 360-22 {method.upper()}", "en1993-1-8": "EN 1993-1-8"}.get(
-        standard, standard)
-    fix = ("check them by LRFD or EN 1993-1-8, or give service loads and [check] loads = "
-           "\"service\"" if have == "factored" else
-           "check them by ASD, or give factored loads and [check] loads = \"factored\"")
-    raise ValueError(f"the loads are declared {have} ([check] loads) but {name} takes {need} "
-                     f"loads: {fix}")
+        standard, standard
+    )
+    fix = (
+        'check them by LRFD or EN 1993-1-8, or give service loads and [check] loads = "service"'
+        if have == "factored"
+        else 'check them by ASD, or give factored loads and [check] loads = "factored"'
+    )
+    raise ValueError(
+        f"the loads are declared {have} ([check] loads) but {name} takes {need} loads: {fix}"
+    )
 
 
 def check_warnings(joint: Joint, result: CheckResult) -> list[str]:
@@ -154,19 +178,23 @@ def check_warnings(joint: Joint, result: CheckResult) -> list[str]:
     out = []
     for item in result.sorted_items():
         if item.informative and item.utilization > 1.0:
-            out.append(f"{item.what}, {item.place(result.units)}: utilization "
-                       f"{item.utilization:.3f} > 1.0 on an informative item (outside the "
-                       "standard's text, so it does not decide the verdict): the engineer "
-                       "must judge it")
+            out.append(
+                f"{item.what}, {item.place(result.units)}: utilization "
+                f"{item.utilization:.3f} > 1.0 on an informative item (outside the "
+                "standard's text, so it does not decide the verdict): the engineer "
+                "must judge it"
+            )
     worst = max(result.items, key=lambda i: i.utilization, default=None)
     if worst is not None and worst.utilization > UTILIZATION_SUSPECT:
         u = _units.system(joint.units)
         load = max(joint.members, key=lambda m: float(np.hypot(*m.load)))
         shown = ", ".join(f"{v / u.factor('force'):.6g}" for v in load.load)
-        out.append(f"utilization {worst.utilization:.6g} > {UTILIZATION_SUSPECT:g} "
-                   f"({worst.what} at {worst.place(result.units)}): a load or size in the "
-                   f"wrong units? The file's units = \"{joint.units}\" read member."
-                   f"{load.name}.load as [{shown}] {u.label('force')}")
+        out.append(
+            f"utilization {worst.utilization:.6g} > {UTILIZATION_SUSPECT:g} "
+            f"({worst.what} at {worst.place(result.units)}): a load or size in the "
+            f'wrong units? The file\'s units = "{joint.units}" read member.'
+            f"{load.name}.load as [{shown}] {u.label('force')}"
+        )
     return out
 
 
@@ -183,20 +211,25 @@ def fitted_holes_note(joint: Joint) -> str | None:
         return None
     size = "" if clearance is None else f" ({length_str(joint.units, clearance)} diametral)"
     model = joint.source if joint.source and " " not in joint.source else "MODEL"
-    return (f"the plane shears assume fitted holes (every ply bears from the first load); "
-            f"the holes have clearance{size}: study its effect on the split with "
-            f"`plyshear capacity {model} --scatter 200`")
+    return (
+        f"the plane shears assume fitted holes (every ply bears from the first load); "
+        f"the holes have clearance{size}: study its effect on the split with "
+        f"`plyshear capacity {model} --scatter 200`"
+    )
 
 
 def _trusted(result: CheckResult, solution: Solution) -> CheckResult:
     """Mark the check unverified when its solve is not trustworthy (it then fails)."""
     why = []
     if not solution.equilibrium_residual <= UNVERIFIED_RESIDUAL:
-        why.append(f"equilibrium residual {solution.equilibrium_residual:.1e} of the load "
-                   f"(above {UNVERIFIED_RESIDUAL:.0e})")
+        why.append(
+            f"equilibrium residual {solution.equilibrium_residual:.1e} of the load "
+            f"(above {UNVERIFIED_RESIDUAL:.0e})"
+        )
     if not solution.condition <= UNVERIFIED_CONDITION:
-        why.append(f"condition estimate {solution.condition:.1e} (above "
-                   f"{UNVERIFIED_CONDITION:.0e})")
+        why.append(
+            f"condition estimate {solution.condition:.1e} (above {UNVERIFIED_CONDITION:.0e})"
+        )
     return dataclasses.replace(result, unverified="; ".join(why)) if why else result
 
 

@@ -51,6 +51,7 @@ class CombinedCheck:
 
         A combination that is not verified (ill-conditioned) comes first.
         """
+
         def rank(name: str) -> tuple[bool, float]:
             res = self.results[name]
             gov = res.governing
@@ -88,9 +89,13 @@ class CombinedCheck:
         unverified = next((r.unverified for r in self.results.values() if r.unverified), "")
         warnings = dict.fromkeys(w for r in self.results.values() for w in r.warnings)
         notes = dict.fromkeys(n for r in self.results.values() for n in r.notes)
-        return dataclasses.replace(gov, items=tuple(line.item for line in self.lines()),
-                                   unverified=unverified, warnings=tuple(warnings),
-                                   notes=tuple(notes))
+        return dataclasses.replace(
+            gov,
+            items=tuple(line.item for line in self.lines()),
+            unverified=unverified,
+            warnings=tuple(warnings),
+            notes=tuple(notes),
+        )
 
     def to_dict(self) -> dict[str, Any]:
         """The ``check`` section: governing lines, each with its ``combination``."""
@@ -106,8 +111,12 @@ class CombinedCheck:
         return data
 
 
-def check_combinations(combined: Combined, standard: str | None = None,
-                       method: str | None = None, only: str | None = None) -> CombinedCheck:
+def check_combinations(
+    combined: Combined,
+    standard: str | None = None,
+    method: str | None = None,
+    only: str | None = None,
+) -> CombinedCheck:
     """Check every combination of a solved joint (or only one).
 
     Args:

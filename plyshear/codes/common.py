@@ -61,8 +61,11 @@ def at_ply(joint: Joint, j: int) -> dict[str, Any]:
 
 def bearing_plies(joint: Joint, bolt: BoltResult) -> list[tuple[PlyBearing, Ply, dict[str, Any]]]:
     """The plies a bolt bears on that are checked (not fillers), each with its place."""
-    return [(pb, joint.plies[pb.ply], at_ply(joint, pb.ply)) for pb in bolt.plies
-            if not joint.plies[pb.ply].is_filler]
+    return [
+        (pb, joint.plies[pb.ply], at_ply(joint, pb.ply))
+        for pb in bolt.plies
+        if not joint.plies[pb.ply].is_filler
+    ]
 
 
 def noun(joint: Joint) -> str:
@@ -163,12 +166,15 @@ def geometry_notes(joint: Joint) -> list[str]:
     """Notes on what the model file leaves to assumption."""
     notes = []
     if joint.bolt.threads_assumed:
-        notes.append("thread position unknown (no bolt.length): threads assumed in every "
-                     "plane, which is conservative")
+        notes.append(
+            "thread position unknown (no bolt.length): threads assumed in every "
+            "plane, which is conservative"
+        )
     for ply in joint.plies:
         if ply.edge is None and not ply.is_filler:
-            notes.append(f"ply {ply.name}: no edge distance given; tear-out and edge "
-                         "effects not checked")
+            notes.append(
+                f"ply {ply.name}: no edge distance given; tear-out and edge effects not checked"
+            )
     return notes
 
 
@@ -191,10 +197,12 @@ def row_note(solution: Solution, factor: float, rule: str) -> str | None:
     end = float(max(loads[0], loads[-1]))
     if mean <= 0.0 or end <= 0.0:
         return None  # nothing to share: no load reaches the row
-    return (f"bolt row of {len(loads)}, length {length_str(joint.units, joint.pattern_length)}: "
-            f"{rule} factor {factor:.3f} (the standard's allowance for uneven sharing); the "
-            f"model's end bolt carries {end / mean:.3f} x the mean bolt load "
-            f"(an equal share would need a factor of {mean / end:.3f})")
+    return (
+        f"bolt row of {len(loads)}, length {length_str(joint.units, joint.pattern_length)}: "
+        f"{rule} factor {factor:.3f} (the standard's allowance for uneven sharing); the "
+        f"model's end bolt carries {end / mean:.3f} x the mean bolt load "
+        f"(an equal share would need a factor of {mean / end:.3f})"
+    )
 
 
 def strength_level(standard: str, method: str) -> str:

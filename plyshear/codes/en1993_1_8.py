@@ -591,8 +591,7 @@ def M_Ed_clevis(F_Ed: float, a: float, b: float, c: float) -> float:
 
 
 @clause(STANDARD, "3.13.1, Table 3.9 (type A)")
-def a_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float,
-                    gamma_M0: float = 1.0) -> float:
+def a_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float, gamma_M0: float = 1.0) -> float:
     r"""Least distance a from the hole edge to the plate's end, along the force (type A).
 
     γM0 is a keyword (recommended 1.0; National Annex may differ).
@@ -615,8 +614,7 @@ def a_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float,
 
 
 @clause(STANDARD, "3.13.1, Table 3.9 (type A)")
-def c_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float,
-                    gamma_M0: float = 1.0) -> float:
+def c_min_pin_plate(F_Ed: float, t: float, f_y: float, d_0: float, gamma_M0: float = 1.0) -> float:
     r"""Least distance c from the hole edge to the plate's side, across the force (type A).
 
     γM0 is a keyword (recommended 1.0; National Annex may differ).

@@ -28,8 +28,10 @@ def _notes(joint: Joint) -> list[str]:
     grade = joint.bolt.grade
     if grade in en.BOLT_CLASSES:
         return []
-    return [f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
-            "alpha_v taken as for class 10.9 (0.5 through threads)"]
+    return [
+        f"grade {grade} is outside the classes of EN 1993-1-8 Table 3.1: "
+        "alpha_v taken as for class 10.9 (0.5 through threads)"
+    ]
 
 
 def _bolt(joint: Joint, bolt: BoltResult, method: str, notes: list[str]) -> list[CheckItem]:
@@ -78,8 +80,17 @@ def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
             frd *= beta_lf
             clauses.append(cited(en.beta_Lf))
             note += f", beta_Lf {beta_lf:.3f}"
-        items.append(CheckItem(f"{common.noun(joint)} shear", p.shear, frd, "force", tuple(clauses),
-                               **common.at_plane(p), note=note))
+        items.append(
+            CheckItem(
+                f"{common.noun(joint)} shear",
+                p.shear,
+                frd,
+                "force",
+                tuple(clauses),
+                **common.at_plane(p),
+                note=note,
+            )
+        )
     return items
 
 
@@ -95,8 +106,9 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
         if joint.check.connector == "pin":
             # Table 3.10: fy is the lower of the pin's and the plate's yield strength
             frd = en.F_b_Rd_pin(ply.thickness, b.diameter, min(ply.fy, b.fyb))
-            items.append(CheckItem("pin bearing", pb.force, frd, "force",
-                                   (cited(en.F_b_Rd_pin),), **where))
+            items.append(
+                CheckItem("pin bearing", pb.force, frd, "force", (cited(en.F_b_Rd_pin),), **where)
+            )
             continue
         e2 = ply.width / 2.0 if ply.width is not None else None
         k1_note = ""
@@ -109,28 +121,47 @@ def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
                 # no width: the edge distance across the load is unknown; the smallest
                 # the standard allows gives the smallest k1 (conservative)
                 k1 = en.k_1(en.e_min(d0), None, d0, edge_bolt=True)
-                k1_note = (f" (no width given: k1 from the minimum e2 = 1.2 d0 = "
-                           f"{length_str(joint.units, en.e_min(d0))}, Table 3.3; conservative)")
+                k1_note = (
+                    f" (no width given: k1 from the minimum e2 = 1.2 d0 = "
+                    f"{length_str(joint.units, en.e_min(d0))}, Table 3.3; conservative)"
+                )
             else:
                 k1 = en.k_1(e2, None, d0, edge_bolt=True)
         except ValueError as exc:
-            items.append(CheckItem("edge distance", en.e_min(d0),
-                                   min(v for v in (ply.edge, e2) if v is not None), "length",
-                                   (cited(en.e_min),), **where, note=str(exc)))
+            items.append(
+                CheckItem(
+                    "edge distance",
+                    en.e_min(d0),
+                    min(v for v in (ply.edge, e2) if v is not None),
+                    "length",
+                    (cited(en.e_min),),
+                    **where,
+                    note=str(exc),
+                )
+            )
             continue
         factor = en.bearing_hole_factor(b.hole)
         frd = en.F_b_Rd(k1, ab, ply.fu, b.diameter, ply.thickness) * factor
         clauses = [cited(en.alpha_b), cited(en.k_1), cited(en.F_b_Rd)]
         if factor < 1.0:
             clauses.append(cited(en.bearing_hole_factor))
-        items.append(CheckItem("bearing", pb.force, frd, "force", tuple(clauses), **where,
-                               note=f"k1 {k1:.2f}, alpha_b {ab:.2f}, "
-                                    f"d0 {length_str(joint.units, d0)}{k1_note}"))
+        items.append(
+            CheckItem(
+                "bearing",
+                pb.force,
+                frd,
+                "force",
+                tuple(clauses),
+                **where,
+                note=f"k1 {k1:.2f}, alpha_b {ab:.2f}, d0 {length_str(joint.units, d0)}{k1_note}",
+            )
+        )
     return items
 
 
-def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...],
-                   informative: bool, tail: str) -> CheckItem:
+def _bending_shear(
+    joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...], informative: bool, tail: str
+) -> CheckItem:
     """Table 3.10 bending with shear, by the model's ``[check] pin_interaction`` rule.
 
     "max-max" (the default, conservative): the largest M/M_Rd along the bolt with
@@ -144,20 +175,31 @@ def _bending_shear(joint: Joint, bolt: BoltResult, arrays: tuple[np.ndarray, ...
         # then the clause's own value there
         k = int(np.argmax((m / mrd) ** 2 + (v / vrd) ** 2))
         value = en.pin_interaction(float(m[k]), float(mrd[k]), float(v[k]), float(vrd[k]))
-        rule = ("(M/MRd)^2 + (Fv/FvRd)^2 with M and Fv of the same section ([check] "
-                "pin_interaction = \"same-section\")")
+        rule = (
+            "(M/MRd)^2 + (Fv/FvRd)^2 with M and Fv of the same section ([check] "
+            'pin_interaction = "same-section")'
+        )
         z = float(zs[k])
     else:
         i, j = int(np.argmax(m / mrd)), int(np.argmax(v / vrd))
         value = en.pin_interaction(float(m[i]), float(mrd[i]), float(v[j]), float(vrd[j]))
-        rule = (f"(M/MRd)^2 + (Fv/FvRd)^2 with the largest M (z = "
-                f"{length_str(joint.units, float(zs[i]))}) and the largest Fv (z = "
-                f"{length_str(joint.units, float(zs[j]))}), conservative; [check] "
-                f"pin_interaction = \"same-section\" takes M and Fv of one section")
+        rule = (
+            f"(M/MRd)^2 + (Fv/FvRd)^2 with the largest M (z = "
+            f"{length_str(joint.units, float(zs[i]))}) and the largest Fv (z = "
+            f"{length_str(joint.units, float(zs[j]))}), conservative; [check] "
+            f'pin_interaction = "same-section" takes M and Fv of one section'
+        )
         z = float(zs[i])
-    return CheckItem("bending + shear", value, 1.0, "ratio",
-                     (cited(en.pin_interaction),), informative=informative, z=z,
-                     note=rule + tail)
+    return CheckItem(
+        "bending + shear",
+        value,
+        1.0,
+        "ratio",
+        (cited(en.pin_interaction),),
+        informative=informative,
+        z=z,
+        note=rule + tail,
+    )
 
 
 def figure_3_11(joint: Joint, bolt: BoltResult) -> float | None:
@@ -185,8 +227,13 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
     v = common.resultants(bolt.V)
     threads = joint.bolt.threaded_along(bolt.z)
     # two sections at most (shank, thread): each resistance once, then spread on the nodes
-    by_section = {t: (en.M_Rd_pin(common.bolt_section_diameter(joint, t), b.fyb),
-                      plane_resistance(joint, t)[0]) for t in {bool(t) for t in threads}}
+    by_section = {
+        t: (
+            en.M_Rd_pin(common.bolt_section_diameter(joint, t), b.fyb),
+            plane_resistance(joint, t)[0],
+        )
+        for t in {bool(t) for t in threads}
+    }
     mrd = np.array([by_section[bool(t)][0] for t in threads])
     vrd = np.array([by_section[bool(t)][1] for t in threads])
     informative = not pin
@@ -196,25 +243,42 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
         # 3.13.2 takes the bearing as uniform (Figure 3.11): never below that moment
         m = m * (figure / m.max())
         u = system(joint.units)
-        tail += (f"; the solved moments scaled to the Figure 3.11 moment "
-                 f"{figure / u.factor('moment'):.4g} {u.label('moment')} (uniform bearing, "
-                 "which governs)")
+        tail += (
+            f"; the solved moments scaled to the Figure 3.11 moment "
+            f"{figure / u.factor('moment'):.4g} {u.label('moment')} (uniform bearing, "
+            "which governs)"
+        )
     i = int(np.argmax(m / mrd))
-    items.append(CheckItem(f"{common.noun(joint)} bending", float(m[i]),
-                           float(mrd[i]), "moment", (cited(en.M_Rd_pin),),
-                           informative=informative, z=float(bolt.z[i]),
-                           note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail))
+    items.append(
+        CheckItem(
+            f"{common.noun(joint)} bending",
+            float(m[i]),
+            float(mrd[i]),
+            "moment",
+            (cited(en.M_Rd_pin),),
+            informative=informative,
+            z=float(bolt.z[i]),
+            note="M_Rd = 1.5 Wel fyp / gamma_M0" + tail,
+        )
+    )
     items.append(_bending_shear(joint, bolt, (m, mrd, v, vrd), informative, tail))
     # Tension and combined (Table 3.4).
     if b.tension > 0:
         ftrd = en.F_t_Rd(b.fub, b.stress_area)
-        items.append(CheckItem("bolt tension", b.tension, ftrd, "force",
-                               (cited(en.F_t_Rd),)))
+        items.append(CheckItem("bolt tension", b.tension, ftrd, "force", (cited(en.F_t_Rd),)))
         worst = max(bolt.planes, key=lambda p: p.shear / plane_resistance(joint, p.threads)[0])
         fvrd = plane_resistance(joint, worst.threads)[0]
         value = en.shear_tension_interaction(worst.shear, fvrd, b.tension, ftrd)
-        items.append(CheckItem("tension + shear", value, 1.0, "ratio",
-                               (cited(en.shear_tension_interaction),), plane=worst.index))
+        items.append(
+            CheckItem(
+                "tension + shear",
+                value,
+                1.0,
+                "ratio",
+                (cited(en.shear_tension_interaction),),
+                plane=worst.index,
+            )
+        )
     # Slip (3.9).
     if joint.check.slip_critical or b.pretension > 0:
         fpc = b.pretension if b.pretension > 0 else en.F_p_C(b.fub, b.stress_area)
@@ -229,15 +293,29 @@ def _bolt_items(joint: Joint, bolt: BoltResult, notes: list[str]) -> list[CheckI
             else:
                 frd = en.F_s_Rd(ks, n, mu, fpc)
                 clauses = (cited(en.F_s_Rd), cited(en.k_s), cited(en.mu_class))
-            items.append(CheckItem("slip", common.transferred_force(joint, bolt), frd, "force",
-                                   clauses, note=f"Class {surface}, mu {mu}, "
-                                   f"Fp,C {force_str(joint.units, fpc)}, n {n}, ks {ks}"))
+            items.append(
+                CheckItem(
+                    "slip",
+                    common.transferred_force(joint, bolt),
+                    frd,
+                    "force",
+                    clauses,
+                    note=f"Class {surface}, mu {mu}, "
+                    f"Fp,C {force_str(joint.units, fpc)}, n {n}, ks {ks}",
+                )
+            )
         if b.pretension <= 0:
             notes.append("slip: preload taken as Fp,C = 0.7 fub As (3.9.1(2))")
     return items
 
 
-ITEMS = common.StandardItems(standard="en1993-1-8", edition=en.STANDARD, notes=_notes, bolt=_bolt,
-                      long_joint=_long_joint, method="partial-factors")
+ITEMS = common.StandardItems(
+    standard="en1993-1-8",
+    edition=en.STANDARD,
+    notes=_notes,
+    bolt=_bolt,
+    long_joint=_long_joint,
+    method="partial-factors",
+)
 
 __all__ = ["ITEMS", "figure_3_11", "plane_resistance"]

@@ -60,12 +60,19 @@ def nominal_bearing(joint: Joint) -> list[tuple[float, str]]:
         try:
             if std == "en1993-1-8":
                 if pin:
-                    out.append((en.F_b_Rd_pin(1.0, b.diameter, min(p.fy, b.fyb), 1.0),
-                                "EN Table 3.10 1.5 fy d t"))
+                    out.append(
+                        (
+                            en.F_b_Rd_pin(1.0, b.diameter, min(p.fy, b.fyb), 1.0),
+                            "EN Table 3.10 1.5 fy d t",
+                        )
+                    )
                     continue
                 d0 = en_hole(joint)
-                ab = (en.alpha_b(p.edge, None, d0, b.fub, p.fu, end_bolt=True)
-                      if p.edge is not None else min(b.fub / p.fu, 1.0))
+                ab = (
+                    en.alpha_b(p.edge, None, d0, b.fub, p.fu, end_bolt=True)
+                    if p.edge is not None
+                    else min(b.fub / p.fu, 1.0)
+                )
                 e2 = p.width / 2.0 if p.width is not None else en.e_min(d0)
                 k1 = en.k_1(e2, None, d0, edge_bolt=True)
                 q = en.F_b_Rd(k1, ab, p.fu, b.diameter, 1.0, 1.0) * en.bearing_hole_factor(b.hole)

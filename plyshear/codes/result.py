@@ -92,8 +92,11 @@ class CheckItem:
 
     def place_dict(self) -> dict[str, Any]:
         """The item's place as the contract's typed keys: bolt and plane from 1, ply by name."""
-        return {"bolt": self.bolt + 1, "plane": self.plane,
-                "ply": self.ply_name if self.ply is not None else None}
+        return {
+            "bolt": self.bolt + 1,
+            "plane": self.plane,
+            "ply": self.ply_name if self.ply is not None else None,
+        }
 
 
 @dataclass(frozen=True)
@@ -142,9 +145,11 @@ class CheckResult:
 
     def plane_utilization(self) -> dict[tuple[int, int], float]:
         """The bolt-shear utilization of every plane of every bolt, by (bolt, plane)."""
-        return {(i.bolt, i.plane): i.utilization for i in self.items
-                if i.part == "plane" and i.plane is not None
-                and i.what in ("bolt shear", "pin shear")}
+        return {
+            (i.bolt, i.plane): i.utilization
+            for i in self.items
+            if i.part == "plane" and i.plane is not None and i.what in ("bolt shear", "pin shear")
+        }
 
     def to_dict(self) -> dict[str, Any]:
         """Return the contract's ``check`` section, in the joint's units."""
@@ -159,22 +164,32 @@ class CheckResult:
             "method": self.method,
             "edition": self.edition,
             "items": [
-                {"what": i.what, "where": i.place(self.units), **i.place_dict(),
-                 "demand": conv(i.demand, i.dimension),
-                 "capacity": conv(i.capacity, i.dimension),
-                 "utilization": _finite(i.utilization), "clause": i.clause,
-                 "unit": "" if i.dimension == "ratio" else u.label(i.dimension),
-                 "informative": i.informative, "note": i.note}
+                {
+                    "what": i.what,
+                    "where": i.place(self.units),
+                    **i.place_dict(),
+                    "demand": conv(i.demand, i.dimension),
+                    "capacity": conv(i.capacity, i.dimension),
+                    "utilization": _finite(i.utilization),
+                    "clause": i.clause,
+                    "unit": "" if i.dimension == "ratio" else u.label(i.dimension),
+                    "informative": i.informative,
+                    "note": i.note,
+                }
                 for i in self.sorted_items()
             ],
-            "governing": None if gov is None else {
-                "what": gov.what, "where": gov.place(self.units), **gov.place_dict(),
+            "governing": None
+            if gov is None
+            else {
+                "what": gov.what,
+                "where": gov.place(self.units),
+                **gov.place_dict(),
                 "utilization": _finite(gov.utilization),
-                "clause": gov.clause},
+                "clause": gov.clause,
+            },
             "passes": self.passes,
             "verified": not self.unverified,
-            **({"verdict": UNVERIFIED, "unverified": self.unverified} if self.unverified
-               else {}),
+            **({"verdict": UNVERIFIED, "unverified": self.unverified} if self.unverified else {}),
             "notes": list(self.notes),
             "loads": self.loads,
             "warnings": list(self.warnings),

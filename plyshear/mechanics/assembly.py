@@ -117,8 +117,9 @@ def _count(n: int, length: float, h_min: float) -> int:
     return max(1, min(n, int(length / h_min * (1 + 1e-9))))  # no ulp-sized jumps
 
 
-def _split(a: float, b: float, n: int, split: float | None, ply: int
-           ) -> list[tuple[float, float, int, int]]:
+def _split(
+    a: float, b: float, n: int, split: float | None, ply: int
+) -> list[tuple[float, float, int, int]]:
     """Cut [a, b] into n equal elements: one segment, or two at ``split`` if it is inside."""
     if split is not None and a + 1e-9 < split < b - 1e-9:
         frac = (split - a) / (b - a)
@@ -213,8 +214,10 @@ class Layout:
     @functools.cached_property
     def target_arrays(self) -> tuple[np.ndarray, np.ndarray]:
         """``target`` as arrays of kinds and indices, shape (S, plies) each."""
-        return (np.array([[t[0] for t in row] for row in self.target]),
-                np.array([[t[1] for t in row] for row in self.target]))
+        return (
+            np.array([[t[0] for t in row] for row in self.target]),
+            np.array([[t[1] for t in row] for row in self.target]),
+        )
 
     def station_slice(self, s: int) -> slice:
         """The element rows of station s."""
@@ -270,8 +273,7 @@ def section(joint: Joint, mesh: Mesh) -> tuple[np.ndarray, np.ndarray]:
 
 def ply_moduli(joint: Joint) -> np.ndarray:
     """Return the linear foundation modulus of every ply, MPa."""
-    return np.array([bearing.modulus(joint.analysis.bearing, joint.bolt, p)
-                     for p in joint.plies])
+    return np.array([bearing.modulus(joint.analysis.bearing, joint.bolt, p) for p in joint.plies])
 
 
 def entry_station(joint: Joint, member: str, stations: int) -> int:
@@ -302,8 +304,16 @@ def shape_key(joint: Joint, mesh: Mesh) -> tuple[object, ...]:
     """
     plies = tuple((p.member, p.link_stiffness is None, p.gap > 0) for p in joint.plies)
     members = tuple((m.name, m.support, m.enters) for m in joint.members)
-    return (plies, members, len(joint.stations), joint.bolt.ends, joint.analysis.beam,
-            mesh.ply.tobytes(), mesh.threaded.tobytes(), mesh.plane_nodes.tobytes())
+    return (
+        plies,
+        members,
+        len(joint.stations),
+        joint.bolt.ends,
+        joint.analysis.beam,
+        mesh.ply.tobytes(),
+        mesh.threaded.tobytes(),
+        mesh.plane_nodes.tobytes(),
+    )
 
 
 @dataclass(frozen=True)
@@ -369,19 +379,34 @@ def layout(joint: Joint, mesh: Mesh | None = None) -> Layout:
     mesh = mesh or build_mesh(joint)
     num = numbering(joint, mesh)
     ns = len(joint.stations)
-    springs = tuple(Spring(a, b, spring_stiffness(joint, ply, seg), ply, seg)
-                    for a, b, ply, seg in num.springs)
+    springs = tuple(
+        Spring(a, b, spring_stiffness(joint, ply, seg), ply, seg) for a, b, ply, seg in num.springs
+    )
     loads = np.zeros((num.nm, 2))
     for i, m in enumerate(joint.members):
         if num.member_dof[i] != FIXED:
             loads[num.member_dof[i]] = m.load
     EI, phi = section(joint, mesh)
     kel = np.tile(beam.stiffness(EI, phi, mesh.lengths), (ns, 1, 1))
-    return Layout(mesh=mesh, stations=np.asarray(joint.stations, dtype=float), na=num.na,
-                  nm=num.nm, bw=num.bw, bolt_dof=num.bolt_dof, edofs=num.edofs,
-                  target=num.target, el_ply=num.el_ply, tgt_kind=num.tgt_kind,
-                  tgt_idx=num.tgt_idx, member_dof=num.member_dof, springs=springs, loads=loads,
-                  kel=kel, phi=np.tile(phi, ns), numbering=num)
+    return Layout(
+        mesh=mesh,
+        stations=np.asarray(joint.stations, dtype=float),
+        na=num.na,
+        nm=num.nm,
+        bw=num.bw,
+        bolt_dof=num.bolt_dof,
+        edofs=num.edofs,
+        target=num.target,
+        el_ply=num.el_ply,
+        tgt_kind=num.tgt_kind,
+        tgt_idx=num.tgt_idx,
+        member_dof=num.member_dof,
+        springs=springs,
+        loads=loads,
+        kel=kel,
+        phi=np.tile(phi, ns),
+        numbering=num,
+    )
 
 
 def _number(joint: Joint, mesh: Mesh) -> Numbering:
@@ -446,27 +471,42 @@ def _number(joint: Joint, mesh: Mesh) -> Numbering:
             springs.append((target[s][j], target[s + 1][j], j, s))
 
     el_ply = np.tile(mesh.ply, ns)
-    edofs = np.concatenate([np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1)
-                            for s in range(ns)])
+    edofs = np.concatenate(
+        [np.concatenate([bolt_dof[s, :-1], bolt_dof[s, 1:]], axis=1) for s in range(ns)]
+    )
     station_of = np.repeat(np.arange(ns), ne)
     kinds = np.array([[t[0] for t in row] for row in target])  # (S, plies)
     indices = np.array([[t[1] if t[0] != "0" else FIXED for t in row] for row in target])
     in_ply = el_ply >= 0
     tgt_kind = np.where(in_ply, kinds[station_of, np.maximum(el_ply, 0)], "-")
     tgt_idx = np.where(in_ply, indices[station_of, np.maximum(el_ply, 0)], FIXED)
-    bw = max(_element_bandwidth(edofs), _own_bandwidth(edofs, tgt_kind, tgt_idx),
-             _spring_bandwidth(springs))
+    bw = max(
+        _element_bandwidth(edofs),
+        _own_bandwidth(edofs, tgt_kind, tgt_idx),
+        _spring_bandwidth(springs),
+    )
     if (bw + 1) * next_dof > MAX_BAND_ENTRIES:
-        raise ResourceError(joint.source or "<model>",
-                            f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
-                         "use fewer plies, bolts or elements_per_ply")
-    return Numbering(na=next_dof, nm=nm, bw=bw, bolt_dof=bolt_dof, edofs=edofs,
-                     target=tuple(tuple(t) for t in target), el_ply=el_ply, tgt_kind=tgt_kind,
-                     tgt_idx=tgt_idx, member_dof=member_dof, springs=tuple(springs))
+        raise ResourceError(
+            joint.source or "<model>",
+            f"the system is too large ({next_dof} unknowns with bandwidth {bw}); "
+            "use fewer plies, bolts or elements_per_ply",
+        )
+    return Numbering(
+        na=next_dof,
+        nm=nm,
+        bw=bw,
+        bolt_dof=bolt_dof,
+        edofs=edofs,
+        target=tuple(tuple(t) for t in target),
+        el_ply=el_ply,
+        tgt_kind=tgt_kind,
+        tgt_idx=tgt_idx,
+        member_dof=member_dof,
+        springs=tuple(springs),
+    )
 
 
-def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
-                                           tuple[int, int]]:
+def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray, tuple[int, int]]:
     """Where every element and spring stiffness goes in the assembled system.
 
     The source vector of a joint is the concatenation of ``kel + kbb``
@@ -508,8 +548,10 @@ def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
     # Bolt–ply coupling: to the ply's own DOF in A, or to a free member's in B.
     own = (kind == "a")[:, None] & (edofs >= 0)
     tgt = np.broadcast_to(idx[:, None], edofs.shape)
-    add(ab_at(np.minimum(edofs, tgt)[own], np.maximum(edofs, tgt)[own]),
-        (off_kbu + e[:, None] * 4 + np.arange(4)[None, :])[own])
+    add(
+        ab_at(np.minimum(edofs, tgt)[own], np.maximum(edofs, tgt)[own]),
+        (off_kbu + e[:, None] * 4 + np.arange(4)[None, :])[own],
+    )
     mem = (kind == "m")[:, None] & (edofs >= 0)
     add(n_ab + edofs[mem] * nm + tgt[mem], (off_kbu + e[:, None] * 4 + np.arange(4))[mem])
     # Ply–ply terms.
@@ -520,15 +562,22 @@ def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
         one = np.array([off_sp + s])
         ends = [end for end in (spring.a, spring.b) if end[0] != "0"]
         for k, i in ends:
-            add(ab_at(np.array([i]), np.array([i])) if k == "a"
-                else np.array([n_ab + n_b + i * nm + i]), one)
+            add(
+                ab_at(np.array([i]), np.array([i]))
+                if k == "a"
+                else np.array([n_ab + n_b + i * nm + i]),
+                one,
+            )
         if len(ends) == 2:
             (ka, ia), (kb, ib) = ends
             if ka == "a" and kb == "a":
                 add(ab_at(np.array([min(ia, ib)]), np.array([max(ia, ib)])), one, -1.0)
             elif ka == "m" and kb == "m":
-                add(np.array([n_ab + n_b + ia * nm + ib, n_ab + n_b + ib * nm + ia]),
-                    np.array([off_sp + s, off_sp + s]), -1.0)
+                add(
+                    np.array([n_ab + n_b + ia * nm + ib, n_ab + n_b + ib * nm + ia]),
+                    np.array([off_sp + s, off_sp + s]),
+                    -1.0,
+                )
             else:
                 a_i, m_i = (ia, ib) if ka == "a" else (ib, ia)
                 add(np.array([n_ab + a_i * nm + m_i]), one, -1.0)
@@ -536,8 +585,9 @@ def scatter_indices(lay: Layout) -> tuple[np.ndarray, np.ndarray, np.ndarray,
     return np.concatenate(dest), np.concatenate(src), np.concatenate(sign), shape
 
 
-def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
-            kuu: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def scatter(
+    lay: Layout, kbb: np.ndarray, kbu: np.ndarray, kuu: np.ndarray
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Assemble the beams, the given foundation matrices and the springs into (ab, B, C).
 
     Args:
@@ -550,13 +600,17 @@ def scatter(lay: Layout, kbb: np.ndarray, kbu: np.ndarray,
         The upper-banded block ``A``, the border ``B`` and the block ``C``.
     """
     dest, src, sign, (n_dest, _) = lay.scatter_map
-    source = np.concatenate([(lay.kel + kbb).ravel(), kbu.ravel(), kuu.ravel(),
-                             [sp.k for sp in lay.springs]])
+    source = np.concatenate(
+        [(lay.kel + kbb).ravel(), kbu.ravel(), kuu.ravel(), [sp.k for sp in lay.springs]]
+    )
     flat = np.bincount(dest, weights=sign * source[src], minlength=n_dest)
     bw, na, nm = lay.bw, lay.na, lay.nm
     n_ab = (bw + 1) * na
-    return (flat[:n_ab].reshape(bw + 1, na), flat[n_ab:n_ab + na * nm].reshape(na, nm),
-            flat[n_ab + na * nm:].reshape(nm, nm))
+    return (
+        flat[:n_ab].reshape(bw + 1, na),
+        flat[n_ab : n_ab + na * nm].reshape(na, nm),
+        flat[n_ab + na * nm :].reshape(nm, nm),
+    )
 
 
 def endpoint_value(end: Endpoint, x: np.ndarray, y: np.ndarray) -> np.ndarray:
@@ -588,8 +642,9 @@ def assemble(joint: Joint, mesh: Mesh | None = None) -> System:
     return System(layout=lay, ab=ab, B=B, C=C, k=kply, kbb=kbb, kbu=kbu)
 
 
-def element_displacements(lay: Layout, x: np.ndarray, y: np.ndarray
-                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def element_displacements(
+    lay: Layout, x: np.ndarray, y: np.ndarray
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Spread solved unknowns onto the elements.
 
     Args:
@@ -656,6 +711,7 @@ def _drop_rotations(
                 used[i] = True
     new = np.cumsum(used) - 1
     bolt_dof = np.where(bolt_dof >= 0, new[np.maximum(bolt_dof, 0)], FIXED)
-    target = [[(kind, int(new[i])) if kind == "a" else (kind, i) for kind, i in row]
-              for row in target]
+    target = [
+        [(kind, int(new[i])) if kind == "a" else (kind, i) for kind, i in row] for row in target
+    ]
     return bolt_dof, target, int(used.sum())

@@ -92,8 +92,11 @@ def solve_many(joints: Sequence[Joint]) -> list[Outcome]:
     sound: set[tuple[object, ...]] = set()  # load paths known to be sound
     for i, joint in enumerate(joints):
         # what plyshear.mechanics.loadpath.require_load_path looks at
-        path_key = (tuple(p.member for p in joint.plies), tuple(ply_moduli(joint) > 0.0),
-                    tuple((m.name, m.support, m.is_loaded) for m in joint.members))
+        path_key = (
+            tuple(p.member for p in joint.plies),
+            tuple(ply_moduli(joint) > 0.0),
+            tuple((m.name, m.support, m.is_loaded) for m in joint.members),
+        )
         if path_key not in sound:
             try:
                 require_load_path(joint)
@@ -105,9 +108,10 @@ def solve_many(joints: Sequence[Joint]) -> list[Outcome]:
         groups.setdefault(shape_key(joint, mesh), []).append((i, mesh))
     for members in groups.values():
         for start in range(0, len(members), CHUNK):
-            part = members[start:start + CHUNK]
-            for (i, _), outcome in zip(part, _solve_group([joints[i] for i, _ in part],
-                                                          [m for _, m in part]), strict=True):
+            part = members[start : start + CHUNK]
+            for (i, _), outcome in zip(
+                part, _solve_group([joints[i] for i, _ in part], [m for _, m in part]), strict=True
+            ):
                 out[i] = outcome
     return [o for o in out if o is not None]
 
@@ -121,7 +125,7 @@ def _solve_group(joints: list[Joint], meshes: list[Mesh]) -> list[Outcome]:
             step = max(1, BATCH_ENTRIES // per_joint)
             out: list[Outcome] = []
             for i in range(0, len(joints), step):
-                out += _solve_batched(joints[i:i + step], meshes[i:i + step], lay0)
+                out += _solve_batched(joints[i : i + step], meshes[i : i + step], lay0)
             return out
         except (SolveError, ModelError):
             pass  # singular, or too large: one by one, each with its own error
@@ -164,19 +168,31 @@ def _solve_batched(joints: list[Joint], meshes: list[Mesh], lay0: Layout) -> lis
     source = np.concatenate([(kel + kbb).reshape(n, -1), kbu.reshape(n, -1), kuu, ksp], axis=1)
     dest = (assembly_operator(lay0) @ source.T).T
     bw, na, nm = lay0.bw, lay0.na, lay0.nm
-    ab = dest[:, :(bw + 1) * na].reshape(n, bw + 1, na)
-    B = dest[:, (bw + 1) * na:(bw + 1) * na + na * nm].reshape(n, na, nm)
-    C = dest[:, (bw + 1) * na + na * nm:].reshape(n, nm, nm)
+    ab = dest[:, : (bw + 1) * na].reshape(n, bw + 1, na)
+    B = dest[:, (bw + 1) * na : (bw + 1) * na + na * nm].reshape(n, na, nm)
+    C = dest[:, (bw + 1) * na + na * nm :].reshape(n, nm, nm)
     x, y, kappa = solve_stacked(ab, B, C, loads)
     finite = np.isfinite(x).reshape(n, -1).all(axis=1) & np.isfinite(y).reshape(n, -1).all(axis=1)
     ok = np.nonzero(finite)[0]
     batch = Batch(
-        joints=[joints[i] for i in ok], layout=lay0, z=z[ok],
+        joints=[joints[i] for i in ok],
+        layout=lay0,
+        z=z[ok],
         stations=np.array([joints[i].stations for i in ok], dtype=float).reshape(ok.size, ns),
-        kel=kel[ok], kbb=kbb[ok], kbu=kbu[ok], kply=kply[ok], kspring=ksp[ok], x=x[ok],
-        y=y[ok], kappa=kappa[ok],
-        unbalance=system_unbalance(ab[ok], B[ok], C[ok], x[ok], y[ok], loads[ok]))
+        kel=kel[ok],
+        kbb=kbb[ok],
+        kbu=kbu[ok],
+        kply=kply[ok],
+        kspring=ksp[ok],
+        x=x[ok],
+        y=y[ok],
+        kappa=kappa[ok],
+        unbalance=system_unbalance(ab[ok], B[ok], C[ok], x[ok], y[ok], loads[ok]),
+    )
     solved = iter(recover(batch) if ok.size else [])
-    return [next(solved) if finite[i] else
-            SolveError("the solution is not finite: check the magnitudes of the inputs")
-            for i in range(n)]
+    return [
+        next(solved)
+        if finite[i]
+        else SolveError("the solution is not finite: check the magnitudes of the inputs")
+        for i in range(n)
+    ]

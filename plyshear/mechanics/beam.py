@@ -116,7 +116,7 @@ def foundation(k: np.ndarray, phi: np.ndarray, L: np.ndarray) -> tuple[np.ndarra
         shape (n, 4), the bolt–ply coupling −∫k N dz. The ply–ply term is k·L.
     """
     n = shape_w(GAUSS_XI, phi, L)  # (e, g, 4)
-    wk = (GAUSS_W[None, :] * (k * L)[:, None])  # (e, g)
+    wk = GAUSS_W[None, :] * (k * L)[:, None]  # (e, g)
     wn = n * wk[:, :, None]  # (e, g, 4)
     kbb = np.swapaxes(wn, 1, 2) @ n  # Σ_g w_g k L N_gᵀ N_g
     kbu = -wn.sum(axis=1)

@@ -65,11 +65,15 @@ def modulus(law: str, bolt: Bolt, ply: Ply) -> float:
     :mod:`plyshear.mechanics.laws`) contributes its initial slope; the elastic
     parts of those laws start from the component stiffness.
     """
-    k_component = ply.foundation_modulus if ply.foundation_modulus is not None \
+    k_component = (
+        ply.foundation_modulus
+        if ply.foundation_modulus is not None
         else LAWS["component"](bolt, ply)
+    )
     if law in LAWS:
-        return ply.foundation_modulus if ply.foundation_modulus is not None \
-            else LAWS[law](bolt, ply)
+        return (
+            ply.foundation_modulus if ply.foundation_modulus is not None else LAWS[law](bolt, ply)
+        )
     from plyshear.mechanics import laws
 
     if law in ("elastic-plastic",):

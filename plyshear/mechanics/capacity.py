@@ -121,8 +121,12 @@ class CapacitySummary:
     @property
     def answers(self) -> dict[str, Answer]:
         """The four answers by their JSON names."""
-        return {"elastic": self.elastic, "nonlinear": self.nonlinear,
-                "collapse": self.collapse, "plastic": self.plastic}
+        return {
+            "elastic": self.elastic,
+            "nonlinear": self.nonlinear,
+            "collapse": self.collapse,
+            "plastic": self.plastic,
+        }
 
 
 def separating_planes(joint: Joint) -> int:
@@ -168,22 +172,36 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
         k = int(np.argmax(inter))
         if inter[k] > 0:
             if k in planes:
-                cands.append((float(1.0 / inter[k]), "plane shear rupture",
-                              f"{tag}plane {planes[k]}", None))
+                cands.append(
+                    (float(1.0 / inter[k]), "plane shear rupture", f"{tag}plane {planes[k]}", None)
+                )
             else:
-                cands.append((float(1.0 / inter[k]), "bolt bending and shear",
-                              f"bolt {b + 1}" if many else "bolt", float(bolt.z[k])))
+                cands.append(
+                    (
+                        float(1.0 / inter[k]),
+                        "bolt bending and shear",
+                        f"bolt {b + 1}" if many else "bolt",
+                        float(bolt.z[k]),
+                    )
+                )
         pressure = np.hypot(bolt.q[..., 0], bolt.q[..., 1]).max(axis=1)
         force = {pb.ply: pb.force for pb in bolt.plies}
         for j, ply in enumerate(joint.plies):
             if ply.name in lugs and force.get(j, 0.0) > 0:  # a lug ruptures on its whole force
-                cands.append((float(s.ply_force[j] / force[j]), lugs[ply.name],
-                              f"{tag}ply {ply.name}", None))
+                cands.append(
+                    (float(s.ply_force[j] / force[j]), lugs[ply.name], f"{tag}ply {ply.name}", None)
+                )
                 continue
             local = float(pressure[ply_of == j].max(initial=0.0))
             if local > 0:
-                cands.append((float(s.bearing[j] / local), "ply bearing pressure",
-                              f"{tag}ply {ply.name}", None))
+                cands.append(
+                    (
+                        float(s.bearing[j] / local),
+                        "ply bearing pressure",
+                        f"{tag}ply {ply.name}",
+                        None,
+                    )
+                )
     if not cands:
         raise CapacityError("no load: the capacity needs a loaded member")
     lam, event, where, z_ev = min(cands, key=lambda c: c[0])
@@ -192,8 +210,11 @@ def elastic_capacity(joint: Joint, sol: Solution, strength: Strengths | None = N
 
 def lug_rules(joint: Joint, s: Strengths) -> dict[str, str]:
     """The plies whose strength is their lug's rupture (pin plates), by name: the rule."""
-    return {p.name: r for p, r in zip(joint.plies, s.bearing_rule, strict=True)
-            if r in (LUG_NET_TENSION, LUG_SHEAR_OUT)}
+    return {
+        p.name: r
+        for p, r in zip(joint.plies, s.bearing_rule, strict=True)
+        if r in (LUG_NET_TENSION, LUG_SHEAR_OUT)
+    }
 
 
 def lug_end(answer: Answer, result: CapacityResult, joint: Joint, s: Strengths) -> Answer:
@@ -214,12 +235,14 @@ def lug_end(answer: Answer, result: CapacityResult, joint: Joint, s: Strengths) 
 def governing_lugs(joint: Joint, s: Strengths, lp: Collapse) -> tuple[tuple[str, str], ...]:
     """The pin plates at their lug rupture strength in the collapse mechanism: (ply, rule)."""
     rules = lug_rules(joint, s)
-    return tuple(dict.fromkeys((name, rules[name]) for _, name in lp.mechanism.bearing
-                               if name in rules))
+    return tuple(
+        dict.fromkeys((name, rules[name]) for _, name in lp.mechanism.bearing if name in rules)
+    )
 
 
-def summarize(joint_or_solution: Joint | Solution,
-              bearing: Sequence[tuple[float, str]] | None = None) -> CapacitySummary:
+def summarize(
+    joint_or_solution: Joint | Solution, bearing: Sequence[tuple[float, str]] | None = None
+) -> CapacitySummary:
     """Return every capacity answer of a joint (or of a solved joint).
 
     Args:
@@ -248,20 +271,36 @@ def summarize(joint_or_solution: Joint | Solution,
         raise CapacityError(str(exc)) from None
     elastic = elastic_capacity(original, sol, s)
     result = analyse(joint, strength=s)
-    nonlinear = lug_end(Answer(result.load, result.event.event, result.event.where,
-                               result.event.z), result, joint, s)
+    nonlinear = lug_end(
+        Answer(result.load, result.event.event, result.event.where, result.event.z),
+        result,
+        joint,
+        s,
+    )
     try:
         lp = collapse(joint, list(s.bearing), s.moment, s.shear, list(s.net_section))
     except ValueError as exc:
         raise CapacityError(f"collapse analysis: {exc}") from None
     lugs = governing_lugs(joint, s, lp)
-    collapse_answer = Answer(lp.load, "rigid-plastic mechanism", "the mechanism" + (
-        "; " + ", ".join(f"{rule} of ply {name}" for name, rule in lugs) if lugs else ""))
+    collapse_answer = Answer(
+        lp.load,
+        "rigid-plastic mechanism",
+        "the mechanism"
+        + ("; " + ", ".join(f"{rule} of ply {name}" for name, rule in lugs) if lugs else ""),
+    )
     bound = plastic_bound(joint, list(s.plane), list(s.ply_force), list(s.net_section))
     plastic = Answer(bound.load, "shear-only cut", ", ".join(bound.cut))
-    return CapacitySummary(planes=separating_planes(joint) * len(joint.stations),
-                           plane_strength=float(max(s.plane)), strengths=s,
-                           elastic=elastic, nonlinear=nonlinear, collapse=collapse_answer,
-                           plastic=plastic, cut=bound.cut, analysis=result, mechanism=lp,
-                           solution=sol, model_load=pattern_total(original))
-
+    return CapacitySummary(
+        planes=separating_planes(joint) * len(joint.stations),
+        plane_strength=float(max(s.plane)),
+        strengths=s,
+        elastic=elastic,
+        nonlinear=nonlinear,
+        collapse=collapse_answer,
+        plastic=plastic,
+        cut=bound.cut,
+        analysis=result,
+        mechanism=lp,
+        solution=sol,
+        model_load=pattern_total(original),
+    )

@@ -205,9 +205,15 @@ class _Field:
     cuts: tuple[np.ndarray, np.ndarray, np.ndarray]
 
 
-def collapse(joint: Joint, bearing: Sequence[float], moment: Callable[[np.ndarray], np.ndarray],
-             shear: Callable[[np.ndarray], np.ndarray], net_sections: Sequence[float] | None = None,
-             sides: int = 32, tol: float = 0.005) -> Collapse:
+def collapse(
+    joint: Joint,
+    bearing: Sequence[float],
+    moment: Callable[[np.ndarray], np.ndarray],
+    shear: Callable[[np.ndarray], np.ndarray],
+    net_sections: Sequence[float] | None = None,
+    sides: int = 32,
+    tol: float = 0.005,
+) -> Collapse:
     """Return the rigid-plastic collapse load of ``joint`` and its mechanism.
 
     Args:
@@ -241,14 +247,20 @@ def collapse(joint: Joint, bearing: Sequence[float], moment: Callable[[np.ndarra
     prev = _solve(joint, n, b, moment, shear, caps, pattern, sides, None)
     while True:
         if n >= MAX_ELEMENTS:
-            raise CapacityError(f"collapse load did not converge to {tol:g} by {MAX_ELEMENTS} "
-                                "elements per ply")
+            raise CapacityError(
+                f"collapse load did not converge to {tol:g} by {MAX_ELEMENTS} elements per ply"
+            )
         n *= 2
         field = _solve(joint, n, b, moment, shear, caps, pattern, sides, prev.cuts)
         change = _relative_change(prev.factor, field.factor)
         if change < tol:
-            return Collapse(load=field.factor * total, factor=field.factor,
-                            mechanism=field.mechanism, elements=n, change=change)
+            return Collapse(
+                load=field.factor * total,
+                factor=field.factor,
+                mechanism=field.mechanism,
+                elements=n,
+                change=change,
+            )
         prev = field
 
 
@@ -259,8 +271,13 @@ def _relative_change(old: float, new: float) -> float:
     return abs(new - old) / max(abs(new), abs(old))
 
 
-def _inputs(joint: Joint, bearing: Sequence[float], net_sections: Sequence[float] | None,
-            sides: int, tol: float) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def _inputs(
+    joint: Joint,
+    bearing: Sequence[float],
+    net_sections: Sequence[float] | None,
+    sides: int,
+    tol: float,
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Validate the arguments; return bearing, net-section strengths and the load pattern."""
     nplies = len(joint.plies)
     b = np.asarray(bearing, dtype=float)
@@ -268,10 +285,15 @@ def _inputs(joint: Joint, bearing: Sequence[float], net_sections: Sequence[float
         raise ValueError(f"bearing: one strength per ply expected ({nplies}), got {b.size}")
     bad = [p.name for p, v in zip(joint.plies, b, strict=True) if not (np.isfinite(v) and v >= 0)]
     if bad:
-        raise ValueError(f"bearing strength of ply {bad[0]} must be finite and >= 0 "
-                         "(an unbounded bearing has no collapse)")
-    caps = np.full(nplies, np.inf) if net_sections is None else np.array(
-        [np.inf if c is None else float(c) for c in net_sections])
+        raise ValueError(
+            f"bearing strength of ply {bad[0]} must be finite and >= 0 "
+            "(an unbounded bearing has no collapse)"
+        )
+    caps = (
+        np.full(nplies, np.inf)
+        if net_sections is None
+        else np.array([np.inf if c is None else float(c) for c in net_sections])
+    )
     if caps.shape != (nplies,) or np.any(np.isnan(caps)) or np.any(caps < 0):
         raise ValueError("net_sections: one strength >= 0 (or inf) per ply expected")
     if sides < MIN_SIDES or sides % 4:
@@ -312,13 +334,15 @@ def _strength(f: Callable[[np.ndarray], np.ndarray], z: np.ndarray, what: str) -
     return v
 
 
-def _coo(rows: list[np.ndarray], cols: list[np.ndarray], vals: list[np.ndarray],
-         shape: tuple[int, int]) -> sp.csr_matrix:
+def _coo(
+    rows: list[np.ndarray], cols: list[np.ndarray], vals: list[np.ndarray], shape: tuple[int, int]
+) -> sp.csr_matrix:
     """A CSR matrix from lists of COO pieces (duplicates summed)."""
     if not rows:
         return sp.csr_matrix(shape)
-    return sp.csr_matrix((np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))),
-                         shape=shape)
+    return sp.csr_matrix(
+        (np.concatenate(vals), (np.concatenate(rows), np.concatenate(cols))), shape=shape
+    )
 
 
 class _Program:
@@ -336,8 +360,17 @@ class _Program:
     every section of the element inside it.
     """
 
-    def __init__(self, joint: Joint, mesh: _Mesh, b: np.ndarray, moment: Callable,
-                 shear: Callable, caps: np.ndarray, pattern: np.ndarray, sides: int) -> None:
+    def __init__(
+        self,
+        joint: Joint,
+        mesh: _Mesh,
+        b: np.ndarray,
+        moment: Callable,
+        shear: Callable,
+        caps: np.ndarray,
+        pattern: np.ndarray,
+        sides: int,
+    ) -> None:
         self.joint, self.mesh, self.sides = joint, mesh, sides
         self.ns, self.ne, self.nn = len(joint.stations), mesh.ply.size, mesh.z.size
         self.np = 2 * self.nn - 1  # section points of one bolt
@@ -357,9 +390,9 @@ class _Program:
         self.v_hat = _point_strength(shear, zp, "shear") / self.force
         self.caps_hat = caps / self.force
         self.pattern = pattern
-        self.entry_after = np.array([p.member is not None
-                                     and joint.member(p.member).enters == "after"
-                                     for p in joint.plies])
+        self.entry_after = np.array(
+            [p.member is not None and joint.member(p.member).enters == "after" for p in joint.plies]
+        )
         self.em, self.ev = self._point_expressions()
 
     def q(self, s: int) -> np.ndarray:
@@ -395,8 +428,16 @@ class _Program:
         lo[self.lam], hi[self.lam] = 0.0, np.inf
         return np.column_stack([lo, hi])
 
-    def _ply_sum(self, j: int, row: int, rows: list, cols: list, vals: list,
-                 stations: Sequence[int] | None = None, sign: float = 1.0) -> None:
+    def _ply_sum(
+        self,
+        j: int,
+        row: int,
+        rows: list,
+        cols: list,
+        vals: list,
+        stations: Sequence[int] | None = None,
+        sign: float = 1.0,
+    ) -> None:
         """Add ply j's scaled force, summed over ``stations`` (all by default), to one row."""
         e = np.flatnonzero(self.mesh.ply == j)
         for s in range(self.ns) if stations is None else stations:
@@ -488,11 +529,14 @@ class _Program:
         mp, vu = self.point_limits()
         phi = (2 * face + 1) * np.pi / self.sides  # normals between vertices at 2πk/sides
         scale = 1.0 / math.cos(math.pi / self.sides)  # faces at distance cos(π/sides)
-        return (sp.diags(scale * np.cos(phi) / mp[point]) @ self.em[point]
-                + sp.diags(scale * np.sin(phi) / vu[point]) @ self.ev[point]).tocsr()
+        return (
+            sp.diags(scale * np.cos(phi) / mp[point]) @ self.em[point]
+            + sp.diags(scale * np.sin(phi) / vu[point]) @ self.ev[point]
+        ).tocsr()
 
-    def seed_cuts(self, seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None
-                  ) -> tuple[np.ndarray, np.ndarray]:
+    def seed_cuts(
+        self, seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None
+    ) -> tuple[np.ndarray, np.ndarray]:
         """Faces (point, face) at the points nearest to ``seed``'s, and at their neighbours."""
         if seed is None or seed[0].size == 0:
             return np.zeros(0, dtype=int), np.zeros(0, dtype=int)
@@ -516,12 +560,13 @@ class _Program:
         out = reach > math.cos(math.pi / self.sides) * (1 + FACE_TOL)
         pts = both[out]
         faces = face[out]
-        return (np.concatenate([pts, pts, pts]),
-                np.concatenate([faces, (faces + 1) % self.sides, (faces - 1) % self.sides]))
+        return (
+            np.concatenate([pts, pts, pts]),
+            np.concatenate([faces, (faces + 1) % self.sides, (faces - 1) % self.sides]),
+        )
 
 
-def _point_strength(f: Callable[[np.ndarray], np.ndarray], zp: np.ndarray,
-                    what: str) -> np.ndarray:
+def _point_strength(f: Callable[[np.ndarray], np.ndarray], zp: np.ndarray, what: str) -> np.ndarray:
     """A strength at every section point.
 
     At the nodes the callable's value; at an element's control point the least
@@ -532,9 +577,17 @@ def _point_strength(f: Callable[[np.ndarray], np.ndarray], zp: np.ndarray,
     return v
 
 
-def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callable,
-           caps: np.ndarray, pattern: np.ndarray, sides: int,
-           seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None = None) -> _Field:
+def _solve(
+    joint: Joint,
+    n: int,
+    b: np.ndarray,
+    moment: Callable,
+    shear: Callable,
+    caps: np.ndarray,
+    pattern: np.ndarray,
+    sides: int,
+    seed: tuple[np.ndarray, np.ndarray, np.ndarray] | None = None,
+) -> _Field:
     """Solve the LP of ``n`` elements per ply; return its field and mechanism.
 
     The polygon's faces enter by cutting planes: solve with |M| ≤ Mp and
@@ -557,15 +610,23 @@ def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callabl
     for _ in range(MAX_CUTS):
         a_ub = sp.vstack([a_box, lp.face_rows(cut_point, cut_face), a_net], format="csr")
         b_ub = np.concatenate([np.ones(a_box.shape[0] + cut_point.size), b_net])
-        res = linprog(c, A_ub=a_ub, b_ub=b_ub, A_eq=a_eq, b_eq=np.zeros(a_eq.shape[0]),
-                      bounds=bounds, method="highs")
+        res = linprog(
+            c,
+            A_ub=a_ub,
+            b_ub=b_ub,
+            A_eq=a_eq,
+            b_eq=np.zeros(a_eq.shape[0]),
+            bounds=bounds,
+            method="highs",
+        )
         if res.status != 0:
             raise CapacityError(f"collapse LP failed ({n} elements per ply): {res.message}")
         new_point, new_face = lp.violated_faces(res.x)
         if new_point.size == 0:
             break
-        key = np.unique(np.concatenate([cut_point, new_point]) * sides
-                        + np.concatenate([cut_face, new_face]))
+        key = np.unique(
+            np.concatenate([cut_point, new_point]) * sides + np.concatenate([cut_face, new_face])
+        )
         if key.size == cut_point.size:
             break  # crossed only within the solver's tolerance of faces already there
         cut_point, cut_face = key // sides, key % sides
@@ -577,20 +638,35 @@ def _solve(joint: Joint, n: int, b: np.ndarray, moment: Callable, shear: Callabl
     return _field(lp, res.x, _mechanism(lp, work, res.x, sec_point, net_where), cuts)
 
 
-def _field(lp: _Program, x: np.ndarray, mechanism: Mechanism,
-           cuts: tuple[np.ndarray, np.ndarray, np.ndarray]) -> _Field:
+def _field(
+    lp: _Program,
+    x: np.ndarray,
+    mechanism: Mechanism,
+    cuts: tuple[np.ndarray, np.ndarray, np.ndarray],
+) -> _Field:
     """The LP's solution in N and mm."""
     mesh = lp.mesh
     q = np.stack([x[lp.q(s)] for s in range(lp.ns)]) * lp.qref
     V = np.stack([x[lp.v(s)] for s in range(lp.ns)]) * lp.force
     M = np.stack([x[lp.m(s)] for s in range(lp.ns)]) * lp.force * lp.length
-    force = np.stack([(q[:, mesh.ply == j] * mesh.lengths[mesh.ply == j]).sum(axis=1)
-                      for j in range(lp.nplies)], axis=1)
+    force = np.stack(
+        [(q[:, mesh.ply == j] * mesh.lengths[mesh.ply == j]).sum(axis=1) for j in range(lp.nplies)],
+        axis=1,
+    )
     bar = np.zeros((max(lp.ns - 1, 0), lp.nplies))
     for i in range(lp.ns - 1):
-        bar[i] = np.where(lp.entry_after, -force[: i + 1].sum(axis=0), force[i + 1:].sum(axis=0))
-    return _Field(factor=float(x[lp.lam]) * lp.force / lp.total, mesh=mesh, q=q, V=V, M=M,
-                  ply_force=force, bar=bar, mechanism=mechanism, cuts=cuts)
+        bar[i] = np.where(lp.entry_after, -force[: i + 1].sum(axis=0), force[i + 1 :].sum(axis=0))
+    return _Field(
+        factor=float(x[lp.lam]) * lp.force / lp.total,
+        mesh=mesh,
+        q=q,
+        V=V,
+        M=M,
+        ply_force=force,
+        bar=bar,
+        mechanism=mechanism,
+        cuts=cuts,
+    )
 
 
 class _Work:
@@ -603,8 +679,10 @@ class _Work:
     def __init__(self, res, bounds: np.ndarray, b_ub: np.ndarray, lam: float) -> None:
         x = res.x
         var = np.zeros(x.size, dtype=int)
-        for sign, bound, marg in ((1, bounds[:, 1], res.upper.marginals),
-                                  (-1, bounds[:, 0], res.lower.marginals)):
+        for sign, bound, marg in (
+            (1, bounds[:, 1], res.upper.marginals),
+            (-1, bounds[:, 0], res.lower.marginals),
+        ):
             b = np.where(np.isfinite(bound), bound, 0.0)
             at = np.isfinite(bound) & (np.abs(b - x) <= ACTIVE_SLACK * np.abs(b))
             works = np.abs(marg * b) / lam > ACTIVE_WORK
@@ -615,8 +693,13 @@ class _Work:
         self.row = (res.ineqlin.residual <= ACTIVE_SLACK * np.abs(b_ub)) & (w > ACTIVE_WORK)
 
 
-def _mechanism(lp: _Program, work: _Work, x: np.ndarray, sec_point: np.ndarray,
-               net_where: list[tuple[int, int]]) -> Mechanism:
+def _mechanism(
+    lp: _Program,
+    work: _Work,
+    x: np.ndarray,
+    sec_point: np.ndarray,
+    net_where: list[tuple[int, int]],
+) -> Mechanism:
     """Read hinges, plies at full bearing, planes and net sections from the active set."""
     nsec = sec_point.size
     active: np.ndarray = np.zeros(lp.ns * lp.np, dtype=bool)
@@ -637,16 +720,24 @@ def _mechanism(lp: _Program, work: _Work, x: np.ndarray, sec_point: np.ndarray,
         for run in _runs(np.flatnonzero(at & ~shear_rules[s])):
             k = run[int(np.argmax(m_share[s, run]))]
             hinges.append(Hinge(bolt=s, z=float(lp.z_point[k])))
-        planes += [(s, i + 1) for i, nodes in enumerate(plane_nodes)
-                   if (at & shear_rules[s])[2 * nodes].any()]
+        planes += [
+            (s, i + 1)
+            for i, nodes in enumerate(plane_nodes)
+            if (at & shear_rules[s])[2 * nodes].any()
+        ]
         state = work.var[lp.q(s)]
-        bearing += [(s, p.name) for j, p in enumerate(lp.joint.plies)
-                    if _full(state[lp.mesh.ply == j])]
+        bearing += [
+            (s, p.name) for j, p in enumerate(lp.joint.plies) if _full(state[lp.mesh.ply == j])
+        ]
     rows = work.row[nsec:]
-    net = [(lp.joint.plies[j].name, i) for k, (j, i) in enumerate(net_where)
-           if rows[2 * k] or rows[2 * k + 1]]
-    return Mechanism(hinges=tuple(hinges), bearing=tuple(bearing), planes=tuple(planes),
-                     net_sections=tuple(net))
+    net = [
+        (lp.joint.plies[j].name, i)
+        for k, (j, i) in enumerate(net_where)
+        if rows[2 * k] or rows[2 * k + 1]
+    ]
+    return Mechanism(
+        hinges=tuple(hinges), bearing=tuple(bearing), planes=tuple(planes), net_sections=tuple(net)
+    )
 
 
 def _plane_nodes(joint: Joint, mesh: _Mesh) -> list[np.ndarray]:

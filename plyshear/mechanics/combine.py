@@ -126,17 +126,25 @@ class Combined:
         u = _units.system(self.joint.units)
         f, mo = u.factor("force"), u.factor("moment")
         plies = self.joint.plies
-        bolts: list[dict[str, Any]] = [{"planes": [], "plies": []}
-                                       for _ in self.joint.stations]
+        bolts: list[dict[str, Any]] = [{"planes": [], "plies": []} for _ in self.joint.stations]
         for p in self.planes:
-            bolts[p.bolt]["planes"].append({
-                "index": p.index, "shear": p.shear.value / f,
-                "shear_combination": p.shear.combination, "moment": p.moment.value / mo,
-                "moment_combination": p.moment.combination})
+            bolts[p.bolt]["planes"].append(
+                {
+                    "index": p.index,
+                    "shear": p.shear.value / f,
+                    "shear_combination": p.shear.combination,
+                    "moment": p.moment.value / mo,
+                    "moment_combination": p.moment.combination,
+                }
+            )
         for b in self.plies:
-            bolts[b.bolt]["plies"].append({
-                "name": plies[b.ply].name, "bearing": b.bearing.value / f,
-                "bearing_combination": b.bearing.combination})
+            bolts[b.bolt]["plies"].append(
+                {
+                    "name": plies[b.ply].name,
+                    "bearing": b.bearing.value / f,
+                    "bearing_combination": b.bearing.combination,
+                }
+            )
         for i, x in enumerate(self.joint.stations):
             bolts[i] = {"x": x / u.factor("length"), **bolts[i]}
         return {"bolts": bolts}
@@ -156,8 +164,9 @@ def case_loads(joint: Joint, sys: System) -> np.ndarray:
 def factor_matrix(joint: Joint) -> np.ndarray:
     """The factors of every combination on every case, shape (combinations, cases)."""
     names = [c.name for c in joint.cases]
-    return np.array([[combo.factor(n) for n in names] for combo in joint.combinations],
-                    dtype=float).reshape(len(joint.combinations), len(names))
+    return np.array(
+        [[combo.factor(n) for n in names] for combo in joint.combinations], dtype=float
+    ).reshape(len(joint.combinations), len(names))
 
 
 def require_load_paths(joint: Joint) -> None:
@@ -172,8 +181,10 @@ def require_load_paths(joint: Joint) -> None:
     cases = np.array([c.loads for c in joint.cases], dtype=float)  # (k, members, 2)
     combined = np.einsum("ck,kmt->cmt", factor_matrix(joint), cases)
     for loaded in {tuple(bool(v) for v in row) for row in np.any(combined != 0.0, axis=2)}:
-        members = tuple(dataclasses.replace(m, load=(1.0, 0.0) if on else (0.0, 0.0))
-                        for m, on in zip(joint.members, loaded, strict=True))
+        members = tuple(
+            dataclasses.replace(m, load=(1.0, 0.0) if on else (0.0, 0.0))
+            for m, on in zip(joint.members, loaded, strict=True)
+        )
         require_load_path(dataclasses.replace(joint, members=members))
 
 
@@ -198,8 +209,9 @@ def solve_combinations(joint: Joint) -> Combined:
         sys = assemble(joint)
         loads = case_loads(joint, sys)  # (nm, k, 2)
         k = loads.shape[1]
-        x, y, kappa = solve_stacked(sys.ab[None], sys.B[None], sys.C[None],
-                                    loads.reshape(loads.shape[0], 2 * k)[None])
+        x, y, kappa = solve_stacked(
+            sys.ab[None], sys.B[None], sys.C[None], loads.reshape(loads.shape[0], 2 * k)[None]
+        )
         xs = np.moveaxis(x[0].reshape(-1, k, 2), 1, 0)  # (cases, na, 2)
         ys = np.moveaxis(y[0].reshape(-1, k, 2), 1, 0)
         fs = np.moveaxis(loads, 1, 0)
@@ -213,8 +225,9 @@ def solve_combinations(joint: Joint) -> Combined:
     return Combined(joint=joint, cases=cases, planes=planes, plies=plies, solved=solved)
 
 
-def _recover(joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, kappa: float,
-             fs: np.ndarray) -> list[Solution]:
+def _recover(
+    joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, kappa: float, fs: np.ndarray
+) -> list[Solution]:
     """The solutions of several load vectors on one system, as one recovery batch."""
     lay = sys.layout
     n = len(joints)
@@ -224,15 +237,26 @@ def _recover(joints: list[Joint], sys: System, xs: np.ndarray, ys: np.ndarray, k
 
     ab, B, C = rep(sys.ab), rep(sys.B), rep(sys.C)
     batch = Batch(
-        joints=joints, layout=lay, z=rep(lay.mesh.z), stations=rep(lay.stations),
-        kel=rep(lay.kel), kbb=rep(sys.kbb), kbu=rep(sys.kbu), kply=rep(sys.k),
+        joints=joints,
+        layout=lay,
+        z=rep(lay.mesh.z),
+        stations=rep(lay.stations),
+        kel=rep(lay.kel),
+        kbb=rep(sys.kbb),
+        kbu=rep(sys.kbu),
+        kply=rep(sys.k),
         kspring=rep(np.array([sp.k for sp in lay.springs], dtype=float).reshape(-1)),
-        x=xs, y=ys, kappa=np.full(n, kappa), unbalance=system_unbalance(ab, B, C, xs, ys, fs))
+        x=xs,
+        y=ys,
+        kappa=np.full(n, kappa),
+        unbalance=system_unbalance(ab, B, C, xs, ys, fs),
+    )
     return recover(batch)
 
 
-def envelope(joint: Joint, case_solutions: list[Solution]
-             ) -> tuple[tuple[PlaneEnvelope, ...], tuple[PlyEnvelope, ...]]:
+def envelope(
+    joint: Joint, case_solutions: list[Solution]
+) -> tuple[tuple[PlaneEnvelope, ...], tuple[PlyEnvelope, ...]]:
     """The largest |V|, |M| of every plane and bearing of every ply, with its combination.
 
     Each combination's plane shears, moments and bearings are the factored sums
@@ -258,9 +282,14 @@ def envelope(joint: Joint, case_solutions: list[Solution]
         M = combine(np.array([[p.moment_xy for p in b.planes] for b in per_case]))
         R = combine(np.array([[p.force_xy for p in b.plies] for b in per_case]))
         for p_i, plane in enumerate(bolt.planes):
-            planes.append(PlaneEnvelope(bolt=b_i, index=plane.index,
-                                        shear=_largest(V[:, p_i], names),
-                                        moment=_largest(M[:, p_i], names)))
+            planes.append(
+                PlaneEnvelope(
+                    bolt=b_i,
+                    index=plane.index,
+                    shear=_largest(V[:, p_i], names),
+                    moment=_largest(M[:, p_i], names),
+                )
+            )
         for j in range(len(bolt.plies)):
             plies.append(PlyEnvelope(bolt=b_i, ply=j, bearing=_largest(R[:, j], names)))
     return tuple(planes), tuple(plies)
@@ -277,8 +306,7 @@ def _largest(values: np.ndarray, names: list[str]) -> EnvelopeValue:
     return EnvelopeValue(value=float(values[i]), combination=names[i])
 
 
-def combined_dict(combined: Combined, combination: str, diagram: bool = True
-                  ) -> dict[str, Any]:
+def combined_dict(combined: Combined, combination: str, diagram: bool = True) -> dict[str, Any]:
     """The JSON result of a joint with load cases.
 
     The top level is the single result of ``combination`` (the shape of today's
@@ -297,15 +325,28 @@ def combined_dict(combined: Combined, combination: str, diagram: bool = True
     data = combined.combinations[combination].to_dict(diagram)
     data["combination"] = combination
     data["cases"] = [
-        {"name": c.name, "category": c.category,
-         "loads": [{"member": m.name, "load_xy": [fx / f, fy / f]}
-                   for m, (fx, fy) in zip(joint.members, c.loads, strict=True)
-                   if (fx, fy) != (0.0, 0.0)],
-         **combined.cases[c.name].to_dict(diagram=False)}
-        for c in joint.cases]
+        {
+            "name": c.name,
+            "category": c.category,
+            "loads": [
+                {"member": m.name, "load_xy": [fx / f, fy / f]}
+                for m, (fx, fy) in zip(joint.members, c.loads, strict=True)
+                if (fx, fy) != (0.0, 0.0)
+            ],
+            **combined.cases[c.name].to_dict(diagram=False),
+        }
+        for c in joint.cases
+    ]
     data["combinations"] = [
-        {"name": c.name, "level": c.level, "factors": dict(c.factors), "source": c.source,
-         **combined.combinations[c.name].to_dict(diagram=False)}
-        for c in joint.combinations if c.name in combined.combinations]
+        {
+            "name": c.name,
+            "level": c.level,
+            "factors": dict(c.factors),
+            "source": c.source,
+            **combined.combinations[c.name].to_dict(diagram=False),
+        }
+        for c in joint.combinations
+        if c.name in combined.combinations
+    ]
     data["envelope"] = combined.envelope_dict()
     return data

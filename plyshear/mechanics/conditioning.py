@@ -87,8 +87,7 @@ def inverse_norm1(solve: Solver, n: int, batch: int = 1) -> np.ndarray:
     return np.maximum(est, 2.0 * np.abs(y).sum(axis=1) / (3.0 * n))
 
 
-def scaled_condition(ab: np.ndarray, B: np.ndarray, C: np.ndarray,
-                     solve: Solver) -> np.ndarray:
+def scaled_condition(ab: np.ndarray, B: np.ndarray, C: np.ndarray, solve: Solver) -> np.ndarray:
     """Return the 1-norm condition estimate of Jacobi-scaled bordered systems.
 
     The systems are ``K = [[A, B], [Bᵀ, C]]`` with ``A`` in upper banded storage.
@@ -112,11 +111,12 @@ def scaled_condition(ab: np.ndarray, B: np.ndarray, C: np.ndarray,
     ra, rm = r[:, :na], r[:, na:]
     abs_ = ab.copy()
     for k in range(u + 1):
-        abs_[:, u - k, k:] *= ra[:, :na - k] * ra[:, k:]
+        abs_[:, u - k, k:] *= ra[:, : na - k] * ra[:, k:]
     Bs = np.abs(B) * ra[:, :, None] * rm[:, None, :]
     Cs = np.abs(C) * rm[:, :, None] * rm[:, None, :]
-    norm = np.concatenate([banded_column_norms(abs_) + Bs.sum(axis=2),
-                           Bs.sum(axis=1) + Cs.sum(axis=1)], axis=1).max(axis=1)
+    norm = np.concatenate(
+        [banded_column_norms(abs_) + Bs.sum(axis=2), Bs.sum(axis=1) + Cs.sum(axis=1)], axis=1
+    ).max(axis=1)
 
     def scaled_solve(x: np.ndarray) -> np.ndarray:
         return solve(x / r) / r  # (D^-1/2 K D^-1/2)⁻¹ = D^1/2 K⁻¹ D^1/2

@@ -162,8 +162,9 @@ def clearances(joint: Joint) -> tuple[np.ndarray, np.ndarray]:
     offset = np.array([p.hole_offset for p in joint.plies]) if mode == "offset" else np.zeros(n)
     for p, o in zip(joint.plies, offset, strict=True):
         if abs(o) > half * (1 + 1e-12):
-            raise CapacityError(f"ply {p.name}: hole_offset {o:g} mm is more than half the "
-                                f"clearance ({half:g} mm)")
+            raise CapacityError(
+                f"ply {p.name}: hole_offset {o:g} mm is more than half the clearance ({half:g} mm)"
+            )
     return half + offset, half - offset
 
 
@@ -175,13 +176,13 @@ def load_pattern(joint: Joint) -> np.ndarray:
             direction) or there is no load.
     """
     axis = joint.load_axis()
-    loads = np.array([m.load for m in joint.members if not m.support],
-                     dtype=float).reshape(-1, 2)
+    loads = np.array([m.load for m in joint.members if not m.support], dtype=float).reshape(-1, 2)
     along = loads @ axis
     across = loads @ np.array([-axis[1], axis[0]])
     if np.abs(across).max(initial=0.0) > 1e-9 * np.abs(along).max(initial=1.0):
-        raise CapacityError("the member loads are not collinear; the capacity analysis "
-                            "scales one load direction")
+        raise CapacityError(
+            "the member loads are not collinear; the capacity analysis scales one load direction"
+        )
     if not np.any(along != 0.0):
         raise CapacityError("no load: the capacity needs a loaded member")
     return along
@@ -198,15 +199,19 @@ def reference_pattern(joint: Joint) -> Joint:
     if not (total > 0.0 and math.isfinite(total)):
         return joint
     f = REFERENCE_PATTERN_N / total
-    members = tuple(dataclasses.replace(m, load=(m.load[0] * f, m.load[1] * f))
-                    for m in joint.members)
+    members = tuple(
+        dataclasses.replace(m, load=(m.load[0] * f, m.load[1] * f)) for m in joint.members
+    )
     return dataclasses.replace(joint, members=members)
 
 
 def _curve_kind(cv: laws.BearingCurve) -> tuple[object, ...]:
     """The structure of a curve: its type, and its inner curve's kind."""
-    inner = tuple(_curve_kind(getattr(cv, f.name)) for f in dataclasses.fields(cv)
-                  if isinstance(getattr(cv, f.name), laws.BearingCurve))
+    inner = tuple(
+        _curve_kind(getattr(cv, f.name))
+        for f in dataclasses.fields(cv)
+        if isinstance(getattr(cv, f.name), laws.BearingCurve)
+    )
     return (type(cv), *inner)
 
 
@@ -262,12 +267,12 @@ def yielding_mesh(joint: Joint) -> Joint:
     if joint.analysis.bolt == "elastic":
         return joint
     h = HINGE_ELEMENT * joint.bolt.diameter
-    n = max([joint.analysis.elements_per_ply]
-            + [math.ceil(p.thickness / h) for p in joint.plies])
+    n = max([joint.analysis.elements_per_ply] + [math.ceil(p.thickness / h) for p in joint.plies])
     if n == joint.analysis.elements_per_ply:
         return joint
-    return dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
-                                                                   elements_per_ply=n))
+    return dataclasses.replace(
+        joint, analysis=dataclasses.replace(joint.analysis, elements_per_ply=n)
+    )
 
 
 class _Model:
@@ -363,8 +368,9 @@ class _Model:
         """The bolt elements' internal forces (and tangent) from their nodal displacements."""
         kappa = np.einsum("egi,ei->eg", self.b_k, de)
         M, dM = moment_curvature(self.steel, kappa, self.d_el[:, None])
-        fb = np.einsum("eg,eg,egi->ei", self.wb, M, self.b_k) + np.einsum("eij,ej->ei",
-                                                                           self.k_s, de)
+        fb = np.einsum("eg,eg,egi->ei", self.wb, M, self.b_k) + np.einsum(
+            "eij,ej->ei", self.k_s, de
+        )
         out = {"fb": fb, "kappa": kappa}
         if tangent:
             dM = np.broadcast_to(dM, kappa.shape)
@@ -385,11 +391,21 @@ class _Model:
         fu = -np.einsum("eg,eg->e", self.wl, p)
         v = np.concatenate([x, y, [0.0]])
         force = self.sp_k * (v[self.sp_a] - v[self.sp_b])
-        r = np.bincount(self.r_dest, weights=np.concatenate([fe[self.fe_ok], fu, force, -force]),
-                        minlength=self.r_size)
-        ra, rm = r[:lay.na], r[lay.na:lay.na + lay.nm]
-        out: dict[str, Any] = {"ra": ra, "rm": rm, "p": p, "delta": delta, "fb": bend["fb"],
-                               "de": de, "kappa": bend["kappa"]}
+        r = np.bincount(
+            self.r_dest,
+            weights=np.concatenate([fe[self.fe_ok], fu, force, -force]),
+            minlength=self.r_size,
+        )
+        ra, rm = r[: lay.na], r[lay.na : lay.na + lay.nm]
+        out: dict[str, Any] = {
+            "ra": ra,
+            "rm": rm,
+            "p": p,
+            "delta": delta,
+            "fb": bend["fb"],
+            "de": de,
+            "kappa": bend["kappa"],
+        }
         if tangent:
             kbb = np.einsum("eg,eg,egi,egj->eij", self.wl, dp, self.n, self.n)
             kbu = -np.einsum("eg,eg,egi->ei", self.wl, dp, self.n)
@@ -422,18 +438,25 @@ class _Model:
             bearing = np.zeros(nplies)
             np.add.at(bearing, np.maximum(ply, 0), np.where(ply >= 0, bolt_on_ply, 0.0))
             deform = np.zeros(nplies)
-            np.maximum.at(deform, np.maximum(ply, 0),
-                          np.where(ply >= 0, ev["delta"][rows].max(axis=1), 0.0))
+            np.maximum.at(
+                deform, np.maximum(ply, 0), np.where(ply >= 0, ev["delta"][rows].max(axis=1), 0.0)
+            )
             Vs.append(V)
             Ms.append(M)
             planes.append(np.abs(V[self.lay.mesh.plane_nodes]))
             bearings.append(np.abs(bearing))
             deforms.append(deform)
             kappas.append(kappa_all[rows])
-        return State(load=float(lam * self.scale), slip=float(self.c @ y),
-                     plane_shear=np.array(planes), ply_bearing=np.array(bearings),
-                     deformation=np.array(deforms), V=np.array(Vs), M=np.array(Ms),
-                     curvature=np.array(kappas))
+        return State(
+            load=float(lam * self.scale),
+            slip=float(self.c @ y),
+            plane_shear=np.array(planes),
+            ply_bearing=np.array(bearings),
+            deformation=np.array(deforms),
+            V=np.array(Vs),
+            M=np.array(Ms),
+            curvature=np.array(kappas),
+        )
 
 
 def tangent_solve(ab: np.ndarray, rhs: np.ndarray) -> np.ndarray:
@@ -482,8 +505,9 @@ def _banded_full(ab_upper: np.ndarray) -> np.ndarray:
     return full
 
 
-def _newton(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, target: float
-            ) -> tuple[np.ndarray, np.ndarray, float, list[float]]:
+def _newton(
+    model: _Model, x: np.ndarray, y: np.ndarray, lam: float, target: float
+) -> tuple[np.ndarray, np.ndarray, float, list[float]]:
     """Converge to the state whose generalised displacement is ``target``."""
     P, c = model.pattern, model.c
     norms: list[float] = []
@@ -536,15 +560,21 @@ def _section_events(model: _Model, st: State) -> list[Event]:
     for b in range(model.ns):
         inter = np.hypot(st.M[b] / mu, st.V[b] / vu)
         for n, i in plane_at.items():
-            out.append(Event("plane shear rupture", f"{_tag(model, b)}plane {i + 1}",
-                             float(inter[n])))
+            out.append(
+                Event("plane shear rupture", f"{_tag(model, b)}plane {i + 1}", float(inter[n]))
+            )
         inner = np.array([k for k in range(inter.size) if k not in plane_at], dtype=int)
         # a yielding bolt's bending is its material law's (and its elongation's) to limit
         if inner.size and model.steel.model == "elastic":
             k = int(inner[np.argmax(inter[inner])])
-            out.append(Event("bolt bending and shear",
-                             f"bolt {b + 1}" if model.ns > 1 else "bolt",
-                             float(inter[k]), float(mesh.z[k])))
+            out.append(
+                Event(
+                    "bolt bending and shear",
+                    f"bolt {b + 1}" if model.ns > 1 else "bolt",
+                    float(inter[k]),
+                    float(mesh.z[k]),
+                )
+            )
     return out
 
 
@@ -555,17 +585,26 @@ def _limit_events(model: _Model, st: State) -> list[Event]:
     for b in range(model.ns):
         for j, (dl, cv) in enumerate(zip(st.deformation[b], model.curves, strict=True)):
             if np.isfinite(cv.delta_limit):
-                out.append(Event("ply bearing deformation",
-                                 f"{_tag(model, b)}ply {joint.plies[j].name}",
-                                 float(dl / cv.delta_limit)))
+                out.append(
+                    Event(
+                        "ply bearing deformation",
+                        f"{_tag(model, b)}ply {joint.plies[j].name}",
+                        float(dl / cv.delta_limit),
+                    )
+                )
         if model.steel.model != "elastic":
             rows = model.lay.station_slice(b)
             strain = st.curvature[b] * model.d_el[rows] / 2.0
             k = int(np.argmax(strain))
             z = 0.5 * (model.lay.mesh.z[k] + model.lay.mesh.z[k + 1])
-            out.append(Event("bolt fibre strain at elongation",
-                             f"bolt {b + 1}" if model.ns > 1 else "bolt",
-                             float(strain[k] / model.steel.eu), float(z)))
+            out.append(
+                Event(
+                    "bolt fibre strain at elongation",
+                    f"bolt {b + 1}" if model.ns > 1 else "bolt",
+                    float(strain[k] / model.steel.eu),
+                    float(z),
+                )
+            )
     return out
 
 
@@ -576,8 +615,9 @@ def end_events(model: _Model, st: State) -> list[Event]:
         out += _limit_events(model, st)
     else:
         d = model.joint.bolt.diameter
-        out.append(Event("slip of one bolt diameter", "joint",
-                         abs(st.slip) / (SLIP_LIMIT_DIAMETERS * d)))
+        out.append(
+            Event("slip of one bolt diameter", "joint", abs(st.slip) / (SLIP_LIMIT_DIAMETERS * d))
+        )
     return out
 
 
@@ -609,9 +649,15 @@ class _Recorder:
                 if not self.yielded and r_now.max() >= 1.0:
                     k = int(np.argmax(r_now))
                     self.yielded = True
-                    self.events.append(Event("first yield of the bolt", self._bolt(b),
-                                             float(r_now[k]), float(mid[k]),
-                                             at(float(r_prev[k]), float(r_now[k]))))
+                    self.events.append(
+                        Event(
+                            "first yield of the bolt",
+                            self._bolt(b),
+                            float(r_now[k]),
+                            float(mid[k]),
+                            at(float(r_prev[k]), float(r_now[k])),
+                        )
+                    )
                 self._hinges(b, r_prev / HINGE_CURVATURE, r_now / HINGE_CURVATURE, mid, at)
         for b in range(m.ns):
             cap = m.strength.ply_force
@@ -622,15 +668,27 @@ class _Recorder:
                 if r >= 1.0:
                     self.full.add((b, j))
                     r0 = prev.ply_bearing[b, j] / (FULL_BEARING * cap[j])
-                    self.events.append(Event("ply at full bearing",
-                                             f"{_tag(m, b)}ply {m.joint.plies[j].name}",
-                                             float(r), None, at(float(r0), float(r))))
+                    self.events.append(
+                        Event(
+                            "ply at full bearing",
+                            f"{_tag(m, b)}ply {m.joint.plies[j].name}",
+                            float(r),
+                            None,
+                            at(float(r0), float(r)),
+                        )
+                    )
 
     def _bolt(self, b: int) -> str:
         return f"bolt {b + 1}" if self.model.ns > 1 else "bolt"
 
-    def _hinges(self, b: int, r_prev: np.ndarray, r_now: np.ndarray, mid: np.ndarray,
-                at: Callable[[float, float], float]) -> None:
+    def _hinges(
+        self,
+        b: int,
+        r_prev: np.ndarray,
+        r_now: np.ndarray,
+        mid: np.ndarray,
+        at: Callable[[float, float], float],
+    ) -> None:
         over = r_now >= 1.0
         k = 0
         while k < over.size:
@@ -641,16 +699,23 @@ class _Recorder:
             while j + 1 < over.size and over[j + 1]:
                 j += 1
             if not any(hb == b and not (j < a or k > e) for hb, a, e in self.hinges):
-                peak = k + int(np.argmax(r_now[k:j + 1]))
+                peak = k + int(np.argmax(r_now[k : j + 1]))
                 self.hinges.append((b, k, j))
-                self.events.append(Event("plastic hinge", self._bolt(b), float(r_now[peak]),
-                                         float(mid[peak]),
-                                         at(float(r_prev[peak]), float(r_now[peak]))))
+                self.events.append(
+                    Event(
+                        "plastic hinge",
+                        self._bolt(b),
+                        float(r_now[peak]),
+                        float(mid[peak]),
+                        at(float(r_prev[peak]), float(r_now[peak])),
+                    )
+                )
             k = j + 1
 
 
-def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
-            strength: Strengths | None = None) -> CapacityResult:
+def analyse(
+    joint: Joint, steps: int = 40, max_load_factor: float = 1e3, strength: Strengths | None = None
+) -> CapacityResult:
     """Load the joint along its load pattern to the end of its load–slip curve.
 
     Args:
@@ -674,13 +739,22 @@ def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
     lam = 0.0
     # Size the steps from the fitted elastic state: the slip at its first event,
     # plus the widest gap to close.
-    fitted = model if joint.analysis.clearance == "fitted" else _Model(
-        dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
-                                                                clearance="fitted")), strength)
+    fitted = (
+        model
+        if joint.analysis.clearance == "fitted"
+        else _Model(
+            dataclasses.replace(
+                joint, analysis=dataclasses.replace(joint.analysis, clearance="fitted")
+            ),
+            strength,
+        )
+    )
     x1, y1, lam1, _ = _newton(fitted, x, y, lam, 1e-3)
     st1 = fitted.state(x1, y1, lam1)
-    worst = max(max(e.measure for e in end_events(fitted, st1)),
-                float((st1.ply_bearing / strength.ply_force).max()))
+    worst = max(
+        max(e.measure for e in end_events(fitted, st1)),
+        float((st1.ply_bearing / strength.ply_force).max()),
+    )
     gap = float(max(model.gap_plus.max(), model.gap_minus.max()))
     du = (1e-3 / max(worst, 1e-12) + gap) / steps
     du_max = 0.005 * joint.bolt.diameter
@@ -695,15 +769,18 @@ def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
         except CapacityError:
             halvings += 1
             if halvings > MAX_HALVINGS:
-                raise CapacityError(f"no convergence past load {history[-1].load:.4g} N "
-                                    f"(step cut {MAX_HALVINGS} times)") from None
+                raise CapacityError(
+                    f"no convergence past load {history[-1].load:.4g} N "
+                    f"(step cut {MAX_HALVINGS} times)"
+                ) from None
             du /= 2.0
             continue
         st = model.state(xn, yn, lamn)
         found = [e for e in end_events(model, st) if e.measure >= 1.0]
         if found:
-            x, y, lam, target, st, event = locate_end(model, x, y, lam, target, target + du,
-                                                      history[-1], st)
+            x, y, lam, target, st, event = locate_end(
+                model, x, y, lam, target, target + du, history[-1], st
+            )
             recorder.update(history[-1], st)
             return _result(model, history + [st], iterations + [tuple(norms)], event, recorder)
         recorder.update(history[-1], st)
@@ -723,25 +800,42 @@ def analyse(joint: Joint, steps: int = 40, max_load_factor: float = 1e3,
             raise CapacityError("no failure event found: check the bearing law and strengths")
 
 
-def _result(model: _Model, history: list[State], iterations: list[tuple[float, ...]],
-            event: Event, recorder: _Recorder, load: float | None = None) -> CapacityResult:
+def _result(
+    model: _Model,
+    history: list[State],
+    iterations: list[tuple[float, ...]],
+    event: Event,
+    recorder: _Recorder,
+    load: float | None = None,
+) -> CapacityResult:
     end = history[-1].load if load is None else load
     ended = dataclasses.replace(event, load=end)
     known = elongation(model.joint.bolt)[1]
-    return CapacityResult(load=end, event=ended, history=tuple(history),
-                          iterations=tuple(iterations), peak=max(s.load for s in history),
-                          events=tuple(sorted(recorder.events, key=lambda e: e.load))
-                          + (ended,),
-                          elongation_known=known or model.steel.model == "elastic")
+    return CapacityResult(
+        load=end,
+        event=ended,
+        history=tuple(history),
+        iterations=tuple(iterations),
+        peak=max(s.load for s in history),
+        events=tuple(sorted(recorder.events, key=lambda e: e.load)) + (ended,),
+        elongation_known=known or model.steel.model == "elastic",
+    )
 
 
 def _top(model: _Model, st: State) -> Event:
     return max(end_events(model, st), key=lambda e: e.measure)
 
 
-def locate_end(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, lo: float, hi: float,
-               lo_state: State, hi_state: State
-               ) -> tuple[np.ndarray, np.ndarray, float, float, State, Event]:
+def locate_end(
+    model: _Model,
+    x: np.ndarray,
+    y: np.ndarray,
+    lam: float,
+    lo: float,
+    hi: float,
+    lo_state: State,
+    hi_state: State,
+) -> tuple[np.ndarray, np.ndarray, float, float, State, Event]:
     """Locate the first end event between two generalised displacements.
 
     The largest end measure minus one changes sign between ``lo`` (the state
@@ -789,9 +883,16 @@ def locate_end(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, lo: floa
     return best
 
 
-def bisect_end(model: _Model, x: np.ndarray, y: np.ndarray, lam: float, lo: float, hi: float,
-               lo_state: State | None = None, hi_state: State | None = None
-               ) -> tuple[np.ndarray, np.ndarray, float, float, State, Event]:
+def bisect_end(
+    model: _Model,
+    x: np.ndarray,
+    y: np.ndarray,
+    lam: float,
+    lo: float,
+    hi: float,
+    lo_state: State | None = None,
+    hi_state: State | None = None,
+) -> tuple[np.ndarray, np.ndarray, float, float, State, Event]:
     """Locate the first end event between two generalised displacements by bisection.
 
     The plain search that :func:`locate_end` replaces (kept as its reference);

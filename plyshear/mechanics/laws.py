@@ -205,8 +205,9 @@ class BoltShearCurve(BearingCurve):
         d = np.maximum(delta, self.delta0)
         mu = CK_MU / IN  # 1/mm
         one_minus = -np.expm1(-mu * d)
-        exact = (self.R_ult / self.t * CK_LAMBDA * mu * np.exp(-mu * d)
-                 * one_minus ** (CK_LAMBDA - 1.0))
+        exact = (
+            self.R_ult / self.t * CK_LAMBDA * mu * np.exp(-mu * d) * one_minus ** (CK_LAMBDA - 1.0)
+        )
         return np.where(delta < self.delta0, self.k0, exact)
 
 
@@ -240,8 +241,14 @@ def capped(cv: BearingCurve, q_cap: float) -> BearingCurve:
     if cv.q_max <= q_cap:
         return cv
     limit = cv.delta_limit if math.isfinite(cv.delta_limit) else HOLE_ELONGATION
-    return CappedCurve(name=cv.name, q_max=q_cap, delta_limit=limit, k0=cv.k0,
-                       source=f"{cv.source}; capped at the ply's bearing strength", inner=cv)
+    return CappedCurve(
+        name=cv.name,
+        q_max=q_cap,
+        delta_limit=limit,
+        k0=cv.k0,
+        source=f"{cv.source}; capped at the ply's bearing strength",
+        inner=cv,
+    )
 
 
 def rex_easterling_stiffness(bolt: Bolt, ply: Ply) -> tuple[float, float, float, float]:
@@ -362,30 +369,51 @@ def curve(law: str, bolt: Bolt, ply: Ply, k_linear: float) -> BearingCurve:
     if law in ("linear", "elastic-plastic") and not k_linear > 0.0:
         raise ValueError(f"k_linear must be > 0 MPa, got {k_linear!r}")
     if law == "linear":
-        return LinearCurve(name=law, q_max=math.inf, delta_limit=math.inf, k0=k_linear,
-                           source="the linear bearing law (plyshear.mechanics.bearing) or the "
-                                  "ply's foundation_modulus", k=k_linear)
+        return LinearCurve(
+            name=law,
+            q_max=math.inf,
+            delta_limit=math.inf,
+            k0=k_linear,
+            source="the linear bearing law (plyshear.mechanics.bearing) or the "
+            "ply's foundation_modulus",
+            k=k_linear,
+        )
     if law == "elastic-plastic":
         q_y = C_BEARING * bolt.diameter * ply.fu
         return ElasticPlasticCurve(
-            name=law, q_max=q_y, delta_limit=HOLE_ELONGATION, k0=k_linear,
+            name=law,
+            q_max=q_y,
+            delta_limit=HOLE_ELONGATION,
+            k0=k_linear,
             source="AISC 360-22 J3.10(a) (2.4 d t Fu) and Commentary J3.10 (1/4 in)",
-            k=k_linear, q_y=q_y)
+            k=k_linear,
+            q_y=q_y,
+        )
     if law == "plate-bearing":
         k_i = rex_easterling_stiffness(bolt, ply)[0]
         r_n = nominal_bearing(bolt, ply)
         x_peak, r_peak = rex_easterling_peak()
         return PlateBearingCurve(
-            name=law, q_max=r_peak * r_n / t,
+            name=law,
+            q_max=r_peak * r_n / t,
             delta_limit=min(HOLE_ELONGATION, x_peak * r_n / k_i),
             k0=(RE_A - RE_B) * k_i / t,
             source="Rex & Easterling (2003), J. Struct. Eng. 129(6), 'Behavior and "
-                   "modeling of a bolt bearing on a single plate'",
-            Ki=k_i, Rn=r_n, t=t)
+            "modeling of a bolt bearing on a single plate'",
+            Ki=k_i,
+            Rn=r_n,
+            t=t,
+        )
     r_ult = SHEAR_OVER_TENSION * bolt.fub * bolt.gross_area
     r0 = r_ult * (-math.expm1(-CK_MU * CK_DELTA0 / IN)) ** CK_LAMBDA
     return BoltShearCurve(
-        name=law, q_max=r_ult / t, delta_limit=CK_DELTA_MAX, k0=r0 / CK_DELTA0 / t,
+        name=law,
+        q_max=r_ult / t,
+        delta_limit=CK_DELTA_MAX,
+        k0=r0 / CK_DELTA0 / t,
         source="Crawford & Kulak (1971), J. Struct. Div. 97(ST3); R_ult = 0.62 fub A "
-               "(Kulak, Fisher & Struik 1987, Guide to Design Criteria, 2nd ed.)",
-        R_ult=r_ult, t=t, delta0=CK_DELTA0)
+        "(Kulak, Fisher & Struik 1987, Guide to Design Criteria, 2nd ed.)",
+        R_ult=r_ult,
+        t=t,
+        delta0=CK_DELTA0,
+    )

@@ -54,8 +54,11 @@ def unreachable_members(joint: Joint) -> list[str]:
     the tests): a supported member reaches the bolt if one of its plies bears,
     and through the bolt every member with a bearing ply.
     """
-    bears = {p.member for p in joint.plies
-             if p.member is not None and bearing.modulus(joint.analysis.bearing, joint.bolt, p) > 0}
+    bears = {
+        p.member
+        for p in joint.plies
+        if p.member is not None and bearing.modulus(joint.analysis.bearing, joint.bolt, p) > 0
+    }
     held = {m.name for m in joint.members if m.support}
     reached = held | bears if held & bears else held
     return [m.name for m in joint.members if m.name not in reached]
@@ -80,17 +83,26 @@ def require_load_path(joint: Joint) -> None:
         ModelError: Naming the first member no path reaches from a support.
     """
     if not any(m.support for m in joint.members):
-        raise ModelError(joint.source or "<model>", "member",
-                         "no supported member; mark at least one with support = true")
+        raise ModelError(
+            joint.source or "<model>",
+            "member",
+            "no supported member; mark at least one with support = true",
+        )
     lost = unreachable_members(joint)
     if lost:
-        raise ModelError(joint.source or "<model>", f"member.{lost[0]}",
-                         "is a mechanism: no path of plies and bolt reaches it from a support")
+        raise ModelError(
+            joint.source or "<model>",
+            f"member.{lost[0]}",
+            "is a mechanism: no path of plies and bolt reaches it from a support",
+        )
 
 
-def flow_network(joint: Joint, plane_capacity: list[float], ply_capacity: list[float],
-                 segment_capacity: list[float] | None = None
-                 ) -> tuple[Callable[[float], nx.DiGraph], float, float]:
+def flow_network(
+    joint: Joint,
+    plane_capacity: list[float],
+    ply_capacity: list[float],
+    segment_capacity: list[float] | None = None,
+) -> tuple[Callable[[float], nx.DiGraph], float, float]:
     """The flow network of :func:`plastic_bound` as a function of the load scale λ.
 
     Returns:
@@ -105,8 +117,11 @@ def flow_network(joint: Joint, plane_capacity: list[float], ply_capacity: list[f
     pull = -sum(v for v in pattern.values() if v < 0)
     total = sum(abs(v) for v in pattern.values())  # the pattern's magnitude: Σ|P_m|
     scale = max(push, pull, 1e-300)
-    big = 1e6 * (sum(c for c in plane_capacity if np.isfinite(c))
-                 + sum(c for c in ply_capacity if np.isfinite(c)) + scale)
+    big = 1e6 * (
+        sum(c for c in plane_capacity if np.isfinite(c))
+        + sum(c for c in ply_capacity if np.isfinite(c))
+        + scale
+    )
 
     ns = len(joint.stations)
     seg_cap = segment_capacity or [float("inf")] * len(joint.plies)
@@ -171,8 +186,12 @@ class PlasticBound:
     cut: tuple[str, ...]
 
 
-def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[float],
-                  segment_capacity: list[float] | None = None) -> PlasticBound:
+def plastic_bound(
+    joint: Joint,
+    plane_capacity: list[float],
+    ply_capacity: list[float],
+    segment_capacity: list[float] | None = None,
+) -> PlasticBound:
     """Return the max-flow bound of the joint along its load pattern.
 
     The force travels from the loaded members into their plies, from a ply
@@ -200,8 +219,7 @@ def plastic_bound(joint: Joint, plane_capacity: list[float], ply_capacity: list[
     Returns:
         The :class:`PlasticBound`.
     """
-    graph, supply, total = flow_network(joint, plane_capacity, ply_capacity,
-                                        segment_capacity)
+    graph, supply, total = flow_network(joint, plane_capacity, ply_capacity, segment_capacity)
     ns = len(joint.stations)
     found = largest_scale(graph, supply)
     if found is None:
@@ -229,8 +247,9 @@ LARGEST_SCALE = 2.0**39
 FLOW_SHORTFALL = 1e-12
 
 
-def largest_scale(graph: Callable[[float], nx.DiGraph], supply: float
-                  ) -> tuple[float, set[object]] | None:
+def largest_scale(
+    graph: Callable[[float], nx.DiGraph], supply: float
+) -> tuple[float, set[object]] | None:
     """The largest load scale λ whose network delivers the demand λ·supply, and its cut.
 
     Each edge's capacity is ``a + λ·per_lam``; a cut X (source side) carries

@@ -108,8 +108,7 @@ def recover(b: Batch) -> list[Solution]:
         on_bolt = -per_ply(ff[:, :, 0] + ff[:, :, 2])
         wmean = per_ply(0.5 * (de[:, :, 0] + de[:, :, 2]) * L[:, :, None]) / tply[:, :, None]
         # Bearing pressure at both ends of every element (zero in gaps).
-        q = k_el[:, :, None, None] * (u_el[:, :, None, :] - np.stack([w[:, :-1], w[:, 1:]],
-                                                                     axis=2))
+        q = k_el[:, :, None, None] * (u_el[:, :, None, :] - np.stack([w[:, :-1], w[:, 1:]], axis=2))
         for j, (kd, held_by) in enumerate(lay.target[st]):
             if kd == "0":
                 reaction[:, held_by] += on_bolt[:, j]
@@ -118,8 +117,7 @@ def recover(b: Batch) -> list[Solution]:
     segments = np.zeros((n, max(ns - 1, 0), nplies, 2))
     x_by_dof, y_by_dof = np.moveaxis(b.x, 1, 0), np.moveaxis(b.y, 1, 0)  # (dof, n, 2)
     for s_i, sp in enumerate(lay.springs):
-        ua, ub = endpoint_value(sp.a, x_by_dof, y_by_dof), endpoint_value(sp.b, x_by_dof,
-                                                                          y_by_dof)
+        ua, ub = endpoint_value(sp.a, x_by_dof, y_by_dof), endpoint_value(sp.b, x_by_dof, y_by_dof)
         k = b.kspring[:, s_i, None]
         for end, other in ((sp.a, ub), (sp.b, ua)):
             if end[0] == "0":
@@ -127,12 +125,14 @@ def recover(b: Batch) -> list[Solution]:
         if sp.segment >= 0:
             segments[:, sp.segment, sp.ply] = k * (ub - ua)  # tension positive
     residual = _residuals(b, reaction)
-    return [_solution(b, i, per_station, reaction[i], segments[i], float(residual[i]))
-            for i in range(n)]
+    return [
+        _solution(b, i, per_station, reaction[i], segments[i], float(residual[i])) for i in range(n)
+    ]
 
 
-def _solution(b: Batch, i: int, per_station: list, reaction: np.ndarray,
-              segments: np.ndarray, residual: float) -> Solution:
+def _solution(
+    b: Batch, i: int, per_station: list, reaction: np.ndarray, segments: np.ndarray, residual: float
+) -> Solution:
     """The result records of joint i."""
     joint = b.joints[i]
     lay = b.layout
@@ -144,42 +144,77 @@ def _solution(b: Batch, i: int, per_station: list, reaction: np.ndarray,
     for st, (V, M, w, q, on_bolt, slip) in enumerate(per_station):
         Vp, Mp = V[i, plane_nodes].tolist(), M[i, plane_nodes].tolist()
         planes = tuple(
-            PlaneShear(index=k + 1, z=zp[k], above=k, below=k + 1, shear_xy=tuple(Vp[k]),
-                       moment_xy=tuple(Mp[k]), threads=threads[k])
-            for k in range(len(zp)))
+            PlaneShear(
+                index=k + 1,
+                z=zp[k],
+                above=k,
+                below=k + 1,
+                shear_xy=tuple(Vp[k]),
+                moment_xy=tuple(Mp[k]),
+                threads=threads[k],
+            )
+            for k in range(len(zp))
+        )
         force, sl = (-on_bolt[i]).tolist(), slip[i].tolist()
-        plies = tuple(PlyBearing(ply=j, force_xy=tuple(force[j]), slip_xy=tuple(sl[j]))
-                      for j in range(len(force)))
-        bolts.append(BoltResult(x=float(b.stations[i, st]), z=z, V=V[i], M=M[i], w=w[i],
-                                q=q[i], planes=planes, plies=plies))
+        plies = tuple(
+            PlyBearing(ply=j, force_xy=tuple(force[j]), slip_xy=tuple(sl[j]))
+            for j in range(len(force))
+        )
+        bolts.append(
+            BoltResult(
+                x=float(b.stations[i, st]),
+                z=z,
+                V=V[i],
+                M=M[i],
+                w=w[i],
+                q=q[i],
+                planes=planes,
+                plies=plies,
+            )
+        )
     members = []
     for m_i, m in enumerate(joint.members):
         md = lay.member_dof[m_i]
         disp = b.y[i, md].tolist() if md != FIXED else [0.0, 0.0]
         react = reaction[m_i].tolist() if m.support else [0.0, 0.0]
-        members.append(MemberResult(member=m_i, displacement_xy=tuple(disp),
-                                    reaction_xy=tuple(react)))
+        members.append(
+            MemberResult(member=m_i, displacement_xy=tuple(disp), reaction_xy=tuple(react))
+        )
     from plyshear.model import sanity
 
     warnings: list[str] = sanity.warnings(joint)
     kappa = float(b.kappa[i])
     if not kappa <= COND_WARN:
         digits = int(-np.log10(kappa * EPS)) if np.isfinite(kappa) and kappa * EPS < 1 else 0
-        left = "no significant digit" if digits < 1 else \
-            f"fewer than {digits} significant digit{'s' if digits > 1 else ''}"
-        warnings.append(f"ill-conditioned: condition estimate {kappa:.1e} of the scaled "
-                        f"stiffness matrix (round-off may leave {left}); stiffness "
-                        "contrasts in the stack are extreme")
+        left = (
+            "no significant digit"
+            if digits < 1
+            else f"fewer than {digits} significant digit{'s' if digits > 1 else ''}"
+        )
+        warnings.append(
+            f"ill-conditioned: condition estimate {kappa:.1e} of the scaled "
+            f"stiffness matrix (round-off may leave {left}); stiffness "
+            "contrasts in the stack are extreme"
+        )
     elif not residual <= RESIDUAL_WARN:
-        warnings.append(f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
-                        "stiffness contrasts in the stack are extreme, treat results with care")
-    return Solution(joint=joint, bolts=tuple(bolts), members=tuple(members),
-                    equilibrium_residual=residual, warnings=tuple(warnings), condition=kappa,
-                    segment_forces=segments)
+        warnings.append(
+            f"ill-conditioned: equilibrium residual {residual:.1e} of the load; "
+            "stiffness contrasts in the stack are extreme, treat results with care"
+        )
+    return Solution(
+        joint=joint,
+        bolts=tuple(bolts),
+        members=tuple(members),
+        equilibrium_residual=residual,
+        warnings=tuple(warnings),
+        condition=kappa,
+        segment_forces=segments,
+    )
 
 
-def _balance_supports(ff: np.ndarray, held: np.ndarray, ply: np.ndarray,
-                      stiff_el: np.ndarray) -> None:
+def _balance_supports(
+    ff: np.ndarray, held: np.ndarray, ply: np.ndarray, stiff_el: np.ndarray
+) -> None:
     """Restore one bolt's equilibrium exactly, in place, on its supported plies.
 
     The solved bolt rows carry a residual of order eps·|K|·|u|, which for a very
@@ -207,8 +242,9 @@ def _balance_supports(ff: np.ndarray, held: np.ndarray, ply: np.ndarray,
     ff[:, :, 2] -= 0.5 * share[:, :, None] * imbalance[:, None, :]
 
 
-def _internal_forces(ff: np.ndarray, de: np.ndarray, L: np.ndarray,
-                     kel_first: np.ndarray | None) -> tuple[np.ndarray, np.ndarray]:
+def _internal_forces(
+    ff: np.ndarray, de: np.ndarray, L: np.ndarray, kel_first: np.ndarray | None
+) -> tuple[np.ndarray, np.ndarray]:
     """Return the bolt shear V and moment M at the nodes, shape (n, nn, 2) each.
 
     From the head, where the bolt is free in translation (V = 0) and, unless

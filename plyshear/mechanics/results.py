@@ -195,15 +195,26 @@ class Solution:
             entry: dict[str, Any] = {
                 "x": b.x / ln,
                 "planes": [
-                    {"index": p.index, "z": p.z / ln, "above": plies[p.above].name,
-                     "below": plies[p.below].name, "shear": p.shear / f,
-                     "shear_xy": vec(p.shear_xy, f), "moment": p.moment / mo,
-                     "moment_xy": vec(p.moment_xy, mo), "threads": p.threads}
+                    {
+                        "index": p.index,
+                        "z": p.z / ln,
+                        "above": plies[p.above].name,
+                        "below": plies[p.below].name,
+                        "shear": p.shear / f,
+                        "shear_xy": vec(p.shear_xy, f),
+                        "moment": p.moment / mo,
+                        "moment_xy": vec(p.moment_xy, mo),
+                        "threads": p.threads,
+                    }
                     for p in b.planes
                 ],
                 "plies": [
-                    {"name": plies[pb.ply].name, "member": plies[pb.ply].member,
-                     "bearing": pb.force / f, "bearing_xy": vec(pb.force_xy, f)}
+                    {
+                        "name": plies[pb.ply].name,
+                        "member": plies[pb.ply].member,
+                        "bearing": pb.force / f,
+                        "bearing_xy": vec(pb.force_xy, f),
+                    }
                     for pb in b.plies
                 ],
                 "max_moment": b.max_moment / mo,
@@ -225,9 +236,12 @@ class Solution:
             "title": self.joint.title,
             "bolts": bolts,
             "members": [
-                {"name": names[m.member], "support": self.joint.members[m.member].support,
-                 "reaction_xy": vec(m.reaction_xy, f),
-                 "displacement_xy": vec(m.displacement_xy, ln)}
+                {
+                    "name": names[m.member],
+                    "support": self.joint.members[m.member].support,
+                    "reaction_xy": vec(m.reaction_xy, f),
+                    "displacement_xy": vec(m.displacement_xy, ln),
+                }
                 for m in self.members
             ],
             "equilibrium_residual": self.equilibrium_residual,
@@ -241,8 +255,15 @@ class Solution:
         if self.segment_forces.shape[0] == 0:
             return {}
         xs = [b.x for b in self.bolts]
-        return {"segments": [
-            {"ply": ply.name, "from_x": xs[s] / ln, "to_x": xs[s + 1] / ln,
-             "force_xy": [float(v) / f for v in self.segment_forces[s, j]]}
-            for s in range(len(xs) - 1) for j, ply in enumerate(self.joint.plies)
-        ]}
+        return {
+            "segments": [
+                {
+                    "ply": ply.name,
+                    "from_x": xs[s] / ln,
+                    "to_x": xs[s + 1] / ln,
+                    "force_xy": [float(v) / f for v in self.segment_forces[s, j]],
+                }
+                for s in range(len(xs) - 1)
+                for j, ply in enumerate(self.joint.plies)
+            ]
+        }

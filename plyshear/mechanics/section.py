@@ -44,10 +44,18 @@ from plyshear.model.joint import Bolt
 #: the bolt's outer fibre reaches it.
 MIN_ELONGATION: dict[str, float] = {
     # from memory: ISO 898-1:2013 Table 3, minimum elongation after fracture A
-    "4.6": 0.22, "5.6": 0.20, "8.8": 0.12, "10.9": 0.09, "12.9": 0.08,
+    "4.6": 0.22,
+    "5.6": 0.20,
+    "8.8": 0.12,
+    "10.9": 0.09,
+    "12.9": 0.08,
     # from memory: ASTM F3125/F3125M-23 Table 3 (14 % for both strength levels)
-    "A325": 0.14, "F1852": 0.14, "F3125-A325": 0.14,
-    "A490": 0.14, "F2280": 0.14, "F3125-A490": 0.14,
+    "A325": 0.14,
+    "F1852": 0.14,
+    "F3125-A325": 0.14,
+    "A490": 0.14,
+    "F2280": 0.14,
+    "F3125-A490": 0.14,
     # from memory: ASTM A307-21 Grade A, 18 % in 2 in
     "A307": 0.18,
 }
@@ -119,8 +127,9 @@ class BoltSteel:
         return out
 
 
-def _epp_circle(kappa: np.ndarray, r: np.ndarray, E: float, e0: float
-                ) -> tuple[np.ndarray, np.ndarray]:
+def _epp_circle(
+    kappa: np.ndarray, r: np.ndarray, E: float, e0: float
+) -> tuple[np.ndarray, np.ndarray]:
     """Moment and tangent of one EPP part on circles of radius ``r``.
 
     The elastic sections take E·I·κ; the closed form of the partly plastic
@@ -137,8 +146,9 @@ def _epp_circle(kappa: np.ndarray, r: np.ndarray, E: float, e0: float
     if plastic.any():
         cc, rr = c[plastic], r[plastic]
         root = np.sqrt(np.maximum(rr * rr - cc * cc, 0.0))
-        J = (cc / 8.0 * (2.0 * cc * cc - rr * rr) * root
-             + rr**4 / 8.0 * np.arcsin(np.minimum(cc / rr, 1.0)))
+        J = cc / 8.0 * (2.0 * cc * cc - rr * rr) * root + rr**4 / 8.0 * np.arcsin(
+            np.minimum(cc / rr, 1.0)
+        )
         sy = E * e0
         m_pl = 4.0 * sy * J / cc + 4.0 / 3.0 * sy * root**3
         M[plastic] = np.sign(kappa[plastic]) * m_pl
@@ -146,8 +156,9 @@ def _epp_circle(kappa: np.ndarray, r: np.ndarray, E: float, e0: float
     return M, dM
 
 
-def moment_curvature(steel: BoltSteel, kappa: np.ndarray, d: np.ndarray
-                     ) -> tuple[np.ndarray, np.ndarray]:
+def moment_curvature(
+    steel: BoltSteel, kappa: np.ndarray, d: np.ndarray
+) -> tuple[np.ndarray, np.ndarray]:
     """Bending moment and tangent dM/dκ of solid circles of diameter ``d`` at curvature κ.
 
     Args:

@@ -66,17 +66,26 @@ def solve(joint: Joint) -> Solution:
         return recover_one(joint, sys, x, y, kappa)
 
 
-def recover_one(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray,
-                kappa: float) -> Solution:
+def recover_one(joint: Joint, sys: System, x: np.ndarray, y: np.ndarray, kappa: float) -> Solution:
     """The solution of one solved system (a batch of one for :func:`recover`)."""
     lay = sys.layout
     batch = Batch(
-        joints=(joint,), layout=lay, z=lay.mesh.z[None], stations=lay.stations[None],
-        kel=lay.kel[None], kbb=sys.kbb[None], kbu=sys.kbu[None], kply=sys.k[None],
+        joints=(joint,),
+        layout=lay,
+        z=lay.mesh.z[None],
+        stations=lay.stations[None],
+        kel=lay.kel[None],
+        kbb=sys.kbb[None],
+        kbu=sys.kbu[None],
+        kply=sys.k[None],
         kspring=np.array([[sp.k for sp in lay.springs]]).reshape(1, -1),
-        x=x[None], y=y[None], kappa=np.array([kappa]),
-        unbalance=system_unbalance(sys.ab[None], sys.B[None], sys.C[None], x[None], y[None],
-                                   sys.loads[None]))
+        x=x[None],
+        y=y[None],
+        kappa=np.array([kappa]),
+        unbalance=system_unbalance(
+            sys.ab[None], sys.B[None], sys.C[None], x[None], y[None], sys.loads[None]
+        ),
+    )
     return recover(batch)[0]
 
 
@@ -97,8 +106,9 @@ def band_factor(ab: np.ndarray) -> np.ndarray:
     """
     c, info = lapack.dpbtrf(ab, lower=0)
     if info != 0:
-        raise SolveError(f"the bolt stiffness matrix is singular (leading minor {info} "
-                         "is not positive definite)")
+        raise SolveError(
+            f"the bolt stiffness matrix is singular (leading minor {info} is not positive definite)"
+        )
     return c
 
 
@@ -108,8 +118,9 @@ def band_solve(c: np.ndarray, rhs: np.ndarray) -> np.ndarray:
     return x
 
 
-def solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray
-                  ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+def solve_stacked(
+    ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarray
+) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """Solve n bordered banded systems ``[[A, B], [Bᵀ, C]]`` at once.
 
     The blocks ``A`` laid side by side form one banded matrix of the same
@@ -167,8 +178,9 @@ def solve_stacked(ab: np.ndarray, B: np.ndarray, C: np.ndarray, loads: np.ndarra
     return -XB @ y, y, kappa
 
 
-def system_unbalance(ab: np.ndarray, B: np.ndarray, C: np.ndarray, x: np.ndarray,
-                     y: np.ndarray, loads: np.ndarray) -> np.ndarray:
+def system_unbalance(
+    ab: np.ndarray, B: np.ndarray, C: np.ndarray, x: np.ndarray, y: np.ndarray, loads: np.ndarray
+) -> np.ndarray:
     """Largest |K u − f| of a batch of bordered systems, N, shape (n,).
 
     Args:
@@ -182,5 +194,7 @@ def system_unbalance(ab: np.ndarray, B: np.ndarray, C: np.ndarray, x: np.ndarray
     r_a = banded_matvec(ab, x) + B @ y
     r_m = np.swapaxes(B, 1, 2) @ x + C @ y - loads
     n = ab.shape[0]
-    return np.maximum(np.abs(r_a).reshape(n, -1).max(axis=1, initial=0.0),
-                      np.abs(r_m).reshape(n, -1).max(axis=1, initial=0.0))
+    return np.maximum(
+        np.abs(r_a).reshape(n, -1).max(axis=1, initial=0.0),
+        np.abs(r_m).reshape(n, -1).max(axis=1, initial=0.0),
+    )

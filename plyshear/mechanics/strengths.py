@@ -135,8 +135,14 @@ def lug_strengths(joint: Joint) -> tuple[LugStrength | None, ...]:
         t = p.thickness
         b_e = max(min(2.0 * t + LUG_B_E_ALLOWANCE[unit_form(joint)], (p.width - dh) / 2.0), 0.0)
         a = max(p.edge - dh / 2.0, 0.0)
-        out.append(LugStrength(net_tension=p.fu * 2.0 * t * b_e,
-                               shear_out=0.6 * p.fu * 2.0 * t * (a + d / 2.0), b_e=b_e, a=a))
+        out.append(
+            LugStrength(
+                net_tension=p.fu * 2.0 * t * b_e,
+                shear_out=0.6 * p.fu * 2.0 * t * (a + d / 2.0),
+                b_e=b_e,
+                a=a,
+            )
+        )
     return tuple(out)
 
 
@@ -222,8 +228,9 @@ def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
     for i, p in enumerate(joint.plies, start=1):
         bearing = laws.C_BEARING * d * p.fu
         if p.edge is not None and p.edge <= dh / 2.0:
-            raise ValueError(f"ply[{i}].edge: {p.edge:g} mm leaves no material beyond the "
-                             f"{dh:g} mm hole")
+            raise ValueError(
+                f"ply[{i}].edge: {p.edge:g} mm leaves no material beyond the {dh:g} mm hole"
+            )
         if p.edge is not None and C_TEAROUT * (p.edge - dh / 2.0) * p.fu < bearing:
             q.append(C_TEAROUT * (p.edge - dh / 2.0) * p.fu)
             rule.append("tear-out 1.2 lc t fu")
@@ -233,8 +240,9 @@ def ply_bearing(joint: Joint) -> tuple[np.ndarray, tuple[str, ...]]:
     return np.array(q), tuple(rule)
 
 
-def lug_capped(joint: Joint, q: np.ndarray, rule: tuple[str, ...]
-               ) -> tuple[np.ndarray, tuple[str, ...]]:
+def lug_capped(
+    joint: Joint, q: np.ndarray, rule: tuple[str, ...]
+) -> tuple[np.ndarray, tuple[str, ...]]:
     """The bearing strengths lowered to each pin plate's lug rupture strength, if lower."""
     q, out = q.copy(), list(rule)
     for j, lug in enumerate(lug_strengths(joint)):
@@ -276,11 +284,23 @@ def strengths(joint: Joint, bearing: Sequence[tuple[float, str]] | None = None) 
         curves.append(cv)
     threads = plane_threads(joint)
     d0 = b.diameter + hole_clearance(joint)
-    net = np.array([p.fu * (p.width - d0) * p.thickness if p.width is not None else math.inf
-                    for p in joint.plies])
+    net = np.array(
+        [
+            p.fu * (p.width - d0) * p.thickness if p.width is not None else math.inf
+            for p in joint.plies
+        ]
+    )
     return Strengths(
-        bearing=q, bearing_rule=tuple(rules), curves=tuple(curves),
-        plane=np.array([plane_strength(joint, t) for t in threads]), plane_threaded=threads,
-        net_section=net, diameter_shank=b.diameter,
-        diameter_thread=math.sqrt(4.0 * b.stress_area / math.pi), fyb=b.fyb, fub=b.fub,
-        thickness=np.array([p.thickness for p in joint.plies]), threaded_along=b.threaded_along)
+        bearing=q,
+        bearing_rule=tuple(rules),
+        curves=tuple(curves),
+        plane=np.array([plane_strength(joint, t) for t in threads]),
+        plane_threaded=threads,
+        net_section=net,
+        diameter_shank=b.diameter,
+        diameter_thread=math.sqrt(4.0 * b.stress_area / math.pi),
+        fyb=b.fyb,
+        fub=b.fub,
+        thickness=np.array([p.thickness for p in joint.plies]),
+        threaded_along=b.threaded_along,
+    )

@@ -83,8 +83,7 @@ def rebuild(joint: Joint, planes: int, keep: str = "total") -> Joint:
     order = [members[i % 2] for i in range(planes + 1)]
     for m in order:
         count[m] += 1
-    template: dict[str | None, Ply] = {m: next(p for p in plies if p.member == m)
-                                       for m in members}
+    template: dict[str | None, Ply] = {m: next(p for p in plies if p.member == m) for m in members}
     thick: dict[str | None, float] = {}
     for m in members:
         own = [p.thickness for p in plies if p.member == m]
@@ -97,17 +96,22 @@ def rebuild(joint: Joint, planes: int, keep: str = "total") -> Joint:
         if i:
             for f in pack.get((order[i - 1], m), ()):  # type: ignore[arg-type]
                 fillers += 1
-                new.append(dataclasses.replace(f, name=f"{f.name}-{fillers}", gap=0.0,
-                                               hole_offset=0.0))
+                new.append(
+                    dataclasses.replace(f, name=f"{f.name}-{fillers}", gap=0.0, hole_offset=0.0)
+                )
         seen[m] += 1
-        new.append(dataclasses.replace(template[m], name=f"{m}-{seen[m]}", thickness=thick[m],
-                                       gap=0.0, hole_offset=0.0))
+        new.append(
+            dataclasses.replace(
+                template[m], name=f"{m}-{seen[m]}", thickness=thick[m], gap=0.0, hole_offset=0.0
+            )
+        )
     grip = sum(p.thickness for p in new)
     bolt = joint.bolt
     if bolt.length is not None:
         bolt = dataclasses.replace(bolt, length=bolt.length - joint.grip + grip)
-    return dataclasses.replace(joint, plies=tuple(new), bolt=bolt,
-                               title=f"{joint.title} ({planes} planes)".strip())
+    return dataclasses.replace(
+        joint, plies=tuple(new), bolt=bolt, title=f"{joint.title} ({planes} planes)".strip()
+    )
 
 
 @dataclass(frozen=True)
@@ -119,9 +123,12 @@ class PlanesRow:
     summary: CapacitySummary
 
 
-def planes_study(joint: Joint, max_planes: int, keep: str = "total",
-                 bearing_of: Callable[[Joint], Sequence[tuple[float, str]]] | None = None
-                 ) -> list[PlanesRow]:
+def planes_study(
+    joint: Joint,
+    max_planes: int,
+    keep: str = "total",
+    bearing_of: Callable[[Joint], Sequence[tuple[float, str]]] | None = None,
+) -> list[PlanesRow]:
     """Capacities of the stack rebuilt with 2 … ``max_planes`` planes.
 
     Raises:
@@ -192,15 +199,20 @@ class ScatterResult:
     planes: int = 1
 
     @classmethod
-    def of(cls, samples: list[Sample], service_load: float, clearance: float,
-           planes: int = 1) -> ScatterResult:
+    def of(
+        cls, samples: list[Sample], service_load: float, clearance: float, planes: int = 1
+    ) -> ScatterResult:
         """Collect samples (in any order) into a result ordered by sample number."""
         ordered = sorted(samples, key=lambda s: s.index)
-        return cls(service_shear=np.array([s.service_shear for s in ordered], dtype=float),
-                   capacity=np.array([s.capacity for s in ordered], dtype=float),
-                   service_load=service_load, clearance=clearance,
-                   failed=sum(s.status.startswith(NOT_CONVERGED) for s in ordered),
-                   below_load=sum(s.status == BELOW_LOAD for s in ordered), planes=planes)
+        return cls(
+            service_shear=np.array([s.service_shear for s in ordered], dtype=float),
+            capacity=np.array([s.capacity for s in ordered], dtype=float),
+            service_load=service_load,
+            clearance=clearance,
+            failed=sum(s.status.startswith(NOT_CONVERGED) for s in ordered),
+            below_load=sum(s.status == BELOW_LOAD for s in ordered),
+            planes=planes,
+        )
 
     def percentiles(self, values: np.ndarray, q: tuple[float, ...] = (5, 50, 95)) -> list[float]:
         """Percentiles of every sample (infinite values included, ranked as they are).
@@ -221,13 +233,17 @@ def scatter_offsets(joint: Joint, samples: int, seed: int) -> np.ndarray:
     return rng.uniform(-0.5 * c, 0.5 * c, size=(samples, len(joint.plies)))
 
 
-def scatter_sample(joint: Joint, index: int, offsets: np.ndarray,
-                   strength: Strengths | None = None) -> Sample:
+def scatter_sample(
+    joint: Joint, index: int, offsets: np.ndarray, strength: Strengths | None = None
+) -> Sample:
     """Analyse one sample: the joint with these hole offsets, holes placed by offset."""
-    base = dataclasses.replace(joint, analysis=dataclasses.replace(joint.analysis,
-                                                                   clearance="offset"))
-    plies = tuple(dataclasses.replace(p, hole_offset=float(o))
-                  for p, o in zip(base.plies, offsets, strict=True))
+    base = dataclasses.replace(
+        joint, analysis=dataclasses.replace(joint.analysis, clearance="offset")
+    )
+    plies = tuple(
+        dataclasses.replace(p, hole_offset=float(o))
+        for p, o in zip(base.plies, offsets, strict=True)
+    )
     service = service_load(joint)
     offs = tuple(float(o) for o in offsets)
     try:
@@ -246,11 +262,16 @@ def service_load(joint: Joint) -> float:
     return float(sum(np.hypot(*m.load) for m in joint.members))
 
 
-def hole_scatter(joint: Joint, samples: int, seed: int, *,
-                 skip: Callable[[int], bool] | None = None,
-                 on_sample: Callable[[Sample], None] | None = None,
-                 stop: Callable[[], bool] | None = None,
-                 bearing: Sequence[tuple[float, str]] | None = None) -> ScatterResult:
+def hole_scatter(
+    joint: Joint,
+    samples: int,
+    seed: int,
+    *,
+    skip: Callable[[int], bool] | None = None,
+    on_sample: Callable[[Sample], None] | None = None,
+    stop: Callable[[], bool] | None = None,
+    bearing: Sequence[tuple[float, str]] | None = None,
+) -> ScatterResult:
     """Scatter every ply's hole uniformly within the clearance and analyse each case.
 
     Args:
@@ -283,5 +304,6 @@ def hole_scatter(joint: Joint, samples: int, seed: int, *,
         done.append(sample)
         if on_sample is not None:
             on_sample(sample)
-    return ScatterResult.of(done, service_load(joint), hole_clearance(joint),
-                            max(1, len(joint.plies) - 1))
+    return ScatterResult.of(
+        done, service_load(joint), hole_clearance(joint), max(1, len(joint.plies) - 1)
+    )

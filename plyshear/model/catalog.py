@@ -29,8 +29,14 @@ SIZE_TOL = 0.05
 """Tolerance, mm, when a diameter is matched against a tabulated size (inclusive)."""
 _ROUNDOFF = 1e-9  # mm: keeps the tolerance inclusive despite binary round-off
 
-DATA_FILES = ("fasteners.csv", "steels.csv", "threads.csv", "thread_lengths_astm.csv", "holes.csv",
-              "nuts.csv")
+DATA_FILES = (
+    "fasteners.csv",
+    "steels.csv",
+    "threads.csv",
+    "thread_lengths_astm.csv",
+    "holes.csv",
+    "nuts.csv",
+)
 
 
 class CatalogError(KeyError):
@@ -194,8 +200,11 @@ def _steels() -> dict[str, PlateSteel]:
         key = row["key"]
         unit = row["unit"]
         bands.setdefault(key, []).append(
-            (_parse_number(row["t_max"]), _to_mpa(float(row["fy"]), unit),
-             _to_mpa(float(row["fu"]), unit))
+            (
+                _parse_number(row["t_max"]),
+                _to_mpa(float(row["fy"]), unit),
+                _to_mpa(float(row["fu"]), unit),
+            )
         )
         if row["source"] not in sources.setdefault(key, []):
             sources[key].append(row["source"])

@@ -50,8 +50,7 @@ CATEGORY_NAMES: dict[str, tuple[str, ...]] = {
 EN_CATEGORIES = ("A", "B", "C", "D", "E", "F", "G", "H")
 #: ψ0 of imposed loads by category: EN 1990:2002 Table A1.1 (from memory:
 #: EN 1990:2002+A1:2005 Table A1.1, recommended values).
-PSI0_IMPOSED = {"A": 0.7, "B": 0.7, "C": 0.7, "D": 0.7, "E": 1.0, "F": 0.7, "G": 0.7,
-                "H": 0.0}
+PSI0_IMPOSED = {"A": 0.7, "B": 0.7, "C": 0.7, "D": 0.7, "E": 1.0, "F": 0.7, "G": 0.7, "H": 0.0}
 #: ψ0 of snow (sites at altitude H ≤ 1000 m a.s.l.) and wind: EN 1990 Table A1.1
 #: (from memory: EN 1990:2002+A1:2005 Table A1.1, recommended values).
 PSI0_SNOW = 0.5
@@ -64,39 +63,76 @@ GAMMA_Q = 1.5
 #: ASCE/SEI 7-22 §2.3.1 and §2.3.6 strength combinations (from memory), as
 #: (equation, principal categories, terms); a term is (factor, categories):
 #: one case of any of the categories (alternatives).
-ASCE_STRENGTH: tuple[tuple[str, tuple[str, ...], tuple[tuple[float, tuple[str, ...]], ...]],
-                     ...] = (
+ASCE_STRENGTH: tuple[
+    tuple[str, tuple[str, ...], tuple[tuple[float, tuple[str, ...]], ...]], ...
+] = (
     ("ASCE 7-22 2.3.1 (1)", ("dead",), ((1.4, ("dead",)),)),
-    ("ASCE 7-22 2.3.1 (2)", ("live",),
-     ((1.2, ("dead",)), (1.6, ("live",)), (0.5, ("roof_live", "snow", "rain")))),
-    ("ASCE 7-22 2.3.1 (3)", ("roof_live", "snow", "rain"),
-     ((1.2, ("dead",)), (1.6, ("roof_live", "snow", "rain")), (1.0, ("live",)))),
-    ("ASCE 7-22 2.3.1 (3)", ("roof_live", "snow", "rain"),
-     ((1.2, ("dead",)), (1.6, ("roof_live", "snow", "rain")), (0.5, ("wind",)))),
-    ("ASCE 7-22 2.3.1 (4)", ("wind",),
-     ((1.2, ("dead",)), (1.0, ("wind",)), (1.0, ("live",)),
-      (0.5, ("roof_live", "snow", "rain")))),
+    (
+        "ASCE 7-22 2.3.1 (2)",
+        ("live",),
+        ((1.2, ("dead",)), (1.6, ("live",)), (0.5, ("roof_live", "snow", "rain"))),
+    ),
+    (
+        "ASCE 7-22 2.3.1 (3)",
+        ("roof_live", "snow", "rain"),
+        ((1.2, ("dead",)), (1.6, ("roof_live", "snow", "rain")), (1.0, ("live",))),
+    ),
+    (
+        "ASCE 7-22 2.3.1 (3)",
+        ("roof_live", "snow", "rain"),
+        ((1.2, ("dead",)), (1.6, ("roof_live", "snow", "rain")), (0.5, ("wind",))),
+    ),
+    (
+        "ASCE 7-22 2.3.1 (4)",
+        ("wind",),
+        (
+            (1.2, ("dead",)),
+            (1.0, ("wind",)),
+            (1.0, ("live",)),
+            (0.5, ("roof_live", "snow", "rain")),
+        ),
+    ),
     ("ASCE 7-22 2.3.1 (5)", ("wind",), ((0.9, ("dead",)), (1.0, ("wind",)))),
-    ("ASCE 7-22 2.3.6 (6)", ("earthquake",),
-     ((1.2, ("dead",)), (1.0, ("earthquake",)), (1.0, ("live",)), (0.15, ("snow",)))),
+    (
+        "ASCE 7-22 2.3.6 (6)",
+        ("earthquake",),
+        ((1.2, ("dead",)), (1.0, ("earthquake",)), (1.0, ("live",)), (0.15, ("snow",))),
+    ),
     ("ASCE 7-22 2.3.6 (7)", ("earthquake",), ((0.9, ("dead",)), (1.0, ("earthquake",)))),
 )
 #: ASCE/SEI 7-22 §2.4.1 allowable-stress combinations (from memory), as above.
-ASCE_ALLOWABLE: tuple[tuple[str, tuple[str, ...], tuple[tuple[float, tuple[str, ...]], ...]],
-                      ...] = (
+ASCE_ALLOWABLE: tuple[
+    tuple[str, tuple[str, ...], tuple[tuple[float, tuple[str, ...]], ...]], ...
+] = (
     ("ASCE 7-22 2.4.1 (1)", ("dead",), ((1.0, ("dead",)),)),
     ("ASCE 7-22 2.4.1 (2)", ("live",), ((1.0, ("dead",)), (1.0, ("live",)))),
-    ("ASCE 7-22 2.4.1 (3)", ("roof_live", "snow", "rain"),
-     ((1.0, ("dead",)), (1.0, ("roof_live", "snow", "rain")))),
-    ("ASCE 7-22 2.4.1 (4)", ("live", "roof_live", "snow", "rain"),
-     ((1.0, ("dead",)), (0.75, ("live",)), (0.75, ("roof_live", "snow", "rain")))),
+    (
+        "ASCE 7-22 2.4.1 (3)",
+        ("roof_live", "snow", "rain"),
+        ((1.0, ("dead",)), (1.0, ("roof_live", "snow", "rain"))),
+    ),
+    (
+        "ASCE 7-22 2.4.1 (4)",
+        ("live", "roof_live", "snow", "rain"),
+        ((1.0, ("dead",)), (0.75, ("live",)), (0.75, ("roof_live", "snow", "rain"))),
+    ),
     ("ASCE 7-22 2.4.1 (5)", ("wind",), ((1.0, ("dead",)), (0.6, ("wind",)))),
     ("ASCE 7-22 2.4.1 (5)", ("earthquake",), ((1.0, ("dead",)), (0.7, ("earthquake",)))),
-    ("ASCE 7-22 2.4.1 (6a)", ("wind",),
-     ((1.0, ("dead",)), (0.75, ("live",)), (0.45, ("wind",)),
-      (0.75, ("roof_live", "snow", "rain")))),
-    ("ASCE 7-22 2.4.1 (6b)", ("earthquake",),
-     ((1.0, ("dead",)), (0.75, ("live",)), (0.525, ("earthquake",)), (0.75, ("snow",)))),
+    (
+        "ASCE 7-22 2.4.1 (6a)",
+        ("wind",),
+        (
+            (1.0, ("dead",)),
+            (0.75, ("live",)),
+            (0.45, ("wind",)),
+            (0.75, ("roof_live", "snow", "rain")),
+        ),
+    ),
+    (
+        "ASCE 7-22 2.4.1 (6b)",
+        ("earthquake",),
+        ((1.0, ("dead",)), (0.75, ("live",)), (0.525, ("earthquake",)), (0.75, ("snow",))),
+    ),
     ("ASCE 7-22 2.4.1 (7)", ("wind",), ((0.6, ("dead",)), (0.6, ("wind",)))),
     ("ASCE 7-22 2.4.1 (8)", ("earthquake",), ((0.6, ("dead",)), (0.7, ("earthquake",)))),
 )
@@ -123,8 +159,9 @@ def category_of(name: str) -> str | None:
     return None
 
 
-def generate(generator: str, cases: Sequence[tuple[str, str]], *, method: str = "lrfd",
-             category: str = "A") -> tuple[Combination, ...]:
+def generate(
+    generator: str, cases: Sequence[tuple[str, str]], *, method: str = "lrfd", category: str = "A"
+) -> tuple[Combination, ...]:
     """The basic combinations of a standard for the given cases.
 
     Args:
@@ -146,11 +183,14 @@ def generate(generator: str, cases: Sequence[tuple[str, str]], *, method: str = 
         raw = list(_from_table(table, cases))
     elif generator == "en1990":
         if method == "asd":
-            raise ValueError("EN 1990 eq. 6.10 gives factored combinations; ASD takes service "
-                             "loads: use combinations = \"asce7-22\" or method = \"lrfd\"")
+            raise ValueError(
+                "EN 1990 eq. 6.10 gives factored combinations; ASD takes service "
+                'loads: use combinations = "asce7-22" or method = "lrfd"'
+            )
         if category not in EN_CATEGORIES:
-            raise ValueError(f"unknown EN 1990 category '{category}'; known: "
-                             f"{', '.join(EN_CATEGORIES)}")
+            raise ValueError(
+                f"unknown EN 1990 category '{category}'; known: {', '.join(EN_CATEGORIES)}"
+            )
         level = "factored"
         raw = list(_en_610(cases, category))
     else:
@@ -182,8 +222,14 @@ def _named(raw: list[tuple[str, dict[str, float]]], level: str) -> tuple[Combina
         eq = _equation_label(source)
         done[source] = done.get(source, 0) + 1
         name = eq if counts[source] == 1 else f"{eq}-{done[source]}"
-        out.append(Combination(name=name, factors=tuple(factors.items()), level=level,
-                               source=source + " (from memory)"))
+        out.append(
+            Combination(
+                name=name,
+                factors=tuple(factors.items()),
+                level=level,
+                source=source + " (from memory)",
+            )
+        )
     return tuple(out)
 
 
@@ -195,9 +241,10 @@ def _equation_label(source: str) -> str:
     return match.group(1) + (f"-{match.group(2)}" if match.group(2) else "")
 
 
-def _from_table(table: Sequence[tuple[str, tuple[str, ...],
-                                      tuple[tuple[float, tuple[str, ...]], ...]]],
-                cases: Sequence[tuple[str, str]]) -> Iterator[tuple[str, dict[str, float]]]:
+def _from_table(
+    table: Sequence[tuple[str, tuple[str, ...], tuple[tuple[float, tuple[str, ...]], ...]]],
+    cases: Sequence[tuple[str, str]],
+) -> Iterator[tuple[str, dict[str, float]]]:
     """Expand table equations: the product over terms of their alternatives."""
     by_cat: dict[str, list[str]] = {}
     for name, cat in cases:
@@ -209,9 +256,11 @@ def _from_table(table: Sequence[tuple[str, tuple[str, ...],
         variable = [(f, cats) for f, cats in terms if cats != ("dead",)]
         # A companion may also be absent (ASCE 7 §2.3.1, §2.4.1: the effects of one
         # or more loads not acting are investigated); a principal term may not.
-        choices = [[(f, n) for c in cats for n in by_cat.get(c, [])]
-                   + ([] if _is_principal(cats, principal) else [None])
-                   for f, cats in variable]
+        choices = [
+            [(f, n) for c in cats for n in by_cat.get(c, [])]
+            + ([] if _is_principal(cats, principal) else [None])
+            for f, cats in variable
+        ]
         for pick in itertools.product(*choices):
             factors: dict[str, float] = {}
             for f, _ in dead:
@@ -243,8 +292,9 @@ def psi0(category: str, building: str) -> float:
     return {"snow": PSI0_SNOW, "wind": PSI0_WIND}[category]
 
 
-def _en_610(cases: Sequence[tuple[str, str]], building: str
-            ) -> Iterator[tuple[str, dict[str, float]]]:
+def _en_610(
+    cases: Sequence[tuple[str, str]], building: str
+) -> Iterator[tuple[str, dict[str, float]]]:
     """EN 1990 eq. 6.10 with Table A1.2(B): each variable case leading in turn.
 
     Permanent actions at γG,sup = 1.35 and, for each leading action, also at
@@ -261,8 +311,9 @@ def _en_610(cases: Sequence[tuple[str, str]], building: str
     yield "EN 1990 6.10", {n: GAMMA_G_SUP for n in dead}
     for lead_cat in EN_VARIABLE:
         for lead in by_cat.get(lead_cat, []):
-            others = [[(c, n) for n in by_cat[c]] for c in EN_VARIABLE
-                      if c != lead_cat and c in by_cat]
+            others = [
+                [(c, n) for n in by_cat[c]] for c in EN_VARIABLE if c != lead_cat and c in by_cat
+            ]
             for gamma_g in (GAMMA_G_SUP, GAMMA_G_INF):
                 for pick in itertools.product(*[[*o, None] for o in others]):
                     factors = {n: gamma_g for n in dead}

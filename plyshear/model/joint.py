@@ -408,9 +408,10 @@ class Joint:
 
     def with_loads(self, loads: tuple[tuple[float, float], ...]) -> Joint:
         """Return a copy with every member's load replaced (in :attr:`members` order)."""
-        members = tuple(dataclasses.replace(m, load=(0.0, 0.0) if m.support
-                                            else (float(f[0]), float(f[1])))
-                        for m, f in zip(self.members, loads, strict=True))
+        members = tuple(
+            dataclasses.replace(m, load=(0.0, 0.0) if m.support else (float(f[0]), float(f[1])))
+            for m, f in zip(self.members, loads, strict=True)
+        )
         return dataclasses.replace(self, members=members)
 
     def for_combination(self, name: str) -> Joint:
@@ -432,8 +433,9 @@ class Joint:
         """Return a copy whose member loads are the case ``name`` alone (factor 1)."""
         if name not in {c.name for c in self.cases}:
             raise KeyError(f"no load case '{name}'")
-        return dataclasses.replace(self.with_loads(self.combined_loads({name: 1.0})),
-                                   combination="")
+        return dataclasses.replace(
+            self.with_loads(self.combined_loads({name: 1.0})), combination=""
+        )
 
     def with_ply(self, index: int, **changes: Any) -> Joint:
         """Return a copy with ply ``index`` (0-based) changed."""
@@ -457,8 +459,10 @@ class Joint:
         """
         plies = list(reversed(self.plies))
         gaps = [p.gap for p in self.plies[1:]][::-1]
-        new = [dataclasses.replace(p, gap=(0.0 if i == 0 else gaps[i - 1])) for i, p in
-               enumerate(plies)]
+        new = [
+            dataclasses.replace(p, gap=(0.0 if i == 0 else gaps[i - 1]))
+            for i, p in enumerate(plies)
+        ]
         new[0] = dataclasses.replace(new[0], gap=self.plies[0].gap)
         bolt = dataclasses.replace(self.bolt, length=None, thread_length=None)
         return dataclasses.replace(self, plies=tuple(new), bolt=bolt)

@@ -33,10 +33,14 @@ def strength_level(check: CheckSettings) -> str:
     return "service" if check.standard == "aisc360-22" and check.method == "asd" else "factored"
 
 
-def read(r: _Reader, data: Mapping[str, Any], check_raw: Mapping[str, Any],
-         check: CheckSettings, members: tuple[Member, ...],
-         case_loads: dict[str, dict[str, tuple[float, float]]]
-         ) -> tuple[tuple[LoadCase, ...], tuple[Combination, ...]]:
+def read(
+    r: _Reader,
+    data: Mapping[str, Any],
+    check_raw: Mapping[str, Any],
+    check: CheckSettings,
+    members: tuple[Member, ...],
+    case_loads: dict[str, dict[str, tuple[float, float]]],
+) -> tuple[tuple[LoadCase, ...], tuple[Combination, ...]]:
     """The model's load cases and combinations (both empty for plain loads).
 
     Args:
@@ -55,33 +59,47 @@ def read(r: _Reader, data: Mapping[str, Any], check_raw: Mapping[str, Any],
     generator = check_raw.get("combinations")
     if not case_loads:
         if table_combos is not None:
-            raise r.fail("combination", "combinations need named load cases: give a member "
-                         "load = { dead = 40, live = 65 }")
+            raise r.fail(
+                "combination",
+                "combinations need named load cases: give a member load = { dead = 40, live = 65 }",
+            )
         if generator is not None:
-            raise r.fail("check.combinations", "generated combinations need named load cases: "
-                         "give a member load = { dead = 40, live = 65 }")
+            raise r.fail(
+                "check.combinations",
+                "generated combinations need named load cases: "
+                "give a member load = { dead = 40, live = 65 }",
+            )
         if "category" in check_raw:
-            raise r.fail("check.category", "applies with [check] combinations = \"en1990\" only")
+            raise r.fail("check.category", 'applies with [check] combinations = "en1990" only')
         return (), ()
     plain = [m.name for m in members if m.is_loaded]
     if plain:
-        raise r.fail(f"member.{plain[0]}.load", "a plain load beside load cases: give it as a "
-                     "table of cases too, e.g. { dead = 40 }")
+        raise r.fail(
+            f"member.{plain[0]}.load",
+            "a plain load beside load cases: give it as a table of cases too, e.g. { dead = 40 }",
+        )
     if len(case_loads) > MAX_CASES:
         raise r.fail("member", f"at most {MAX_CASES} load cases (got {len(case_loads)})")
     cases = tuple(
-        LoadCase(name=name, loads=tuple(by_member.get(m.name, (0.0, 0.0)) for m in members),
-                 category=gen.category_of(name))
-        for name, by_member in case_loads.items())
+        LoadCase(
+            name=name,
+            loads=tuple(by_member.get(m.name, (0.0, 0.0)) for m in members),
+            category=gen.category_of(name),
+        )
+        for name, by_member in case_loads.items()
+    )
     combos = list(_tables(r, table_combos, cases, check)) if table_combos is not None else []
     if generator is not None:
         combos += _generated(r, generator, check_raw, check, cases)
     elif "category" in check_raw:
-        raise r.fail("check.category", "applies with [check] combinations = \"en1990\" only")
+        raise r.fail("check.category", 'applies with [check] combinations = "en1990" only')
     if not combos:
-        raise r.fail("combination", "the loads are load cases but no combination is given: "
-                     "add [[combination]] tables or [check] combinations = \"asce7-22\" or "
-                     "\"en1990\"")
+        raise r.fail(
+            "combination",
+            "the loads are load cases but no combination is given: "
+            'add [[combination]] tables or [check] combinations = "asce7-22" or '
+            '"en1990"',
+        )
     seen: set[str] = set()
     for c in combos:
         if c.name in seen:
@@ -90,8 +108,9 @@ def read(r: _Reader, data: Mapping[str, Any], check_raw: Mapping[str, Any],
     return cases, tuple(combos)
 
 
-def _tables(r: _Reader, raw: Any, cases: tuple[LoadCase, ...], check: CheckSettings
-            ) -> list[Combination]:
+def _tables(
+    r: _Reader, raw: Any, cases: tuple[LoadCase, ...], check: CheckSettings
+) -> list[Combination]:
     """The ``[[combination]]`` tables."""
     if not isinstance(raw, list):
         raise r.fail("combination", "must be an array of tables [[combination]]")
@@ -129,31 +148,46 @@ def _tables(r: _Reader, raw: Any, cases: tuple[LoadCase, ...], check: CheckSetti
 
 
 def _level_message(level: str, need: str, check: CheckSettings) -> str:
-    method = "EN 1993-1-8" if check.standard == "en1993-1-8" else \
-        f"AISC 360-22 {check.method.upper()}"
+    method = (
+        "EN 1993-1-8" if check.standard == "en1993-1-8" else f"AISC 360-22 {check.method.upper()}"
+    )
     return f"{level} loads contradict the check's method: {method} takes {need} combinations"
 
 
-def _generated(r: _Reader, generator: Any, check_raw: Mapping[str, Any], check: CheckSettings,
-               cases: tuple[LoadCase, ...]) -> list[Combination]:
+def _generated(
+    r: _Reader,
+    generator: Any,
+    check_raw: Mapping[str, Any],
+    check: CheckSettings,
+    cases: tuple[LoadCase, ...],
+) -> list[Combination]:
     """The combinations of ``[check] combinations``."""
     name = r.choice(generator, "check.combinations", gen.GENERATORS)
     category = "A"
     if "category" in check_raw:
         if name != "en1990":
-            raise r.fail("check.category", "applies with combinations = \"en1990\" only "
-                         "(the EN 1990 Table A1.1 building category)")
+            raise r.fail(
+                "check.category",
+                'applies with combinations = "en1990" only '
+                "(the EN 1990 Table A1.1 building category)",
+            )
         category = r.choice(check_raw["category"], "check.category", gen.EN_CATEGORIES)
     known = gen.EN_KNOWN if name == "en1990" else tuple(gen.CATEGORY_NAMES)
     for case in cases:
         if case.category is None or case.category not in known:
             words = ", ".join(n for c in known for n in gen.CATEGORY_NAMES[c][:1])
-            raise r.fail("check.combinations", f"cannot tell what load case '{case.name}' is: "
-                         f"{name} combines cases named (or starting with) {words}; rename it "
-                         "or give [[combination]] tables")
+            raise r.fail(
+                "check.combinations",
+                f"cannot tell what load case '{case.name}' is: "
+                f"{name} combines cases named (or starting with) {words}; rename it "
+                "or give [[combination]] tables",
+            )
     method = "asd" if strength_level(check) == "service" else "lrfd"
     try:
-        return list(gen.generate(name, [(c.name, c.category or "") for c in cases],
-                                 method=method, category=category))
+        return list(
+            gen.generate(
+                name, [(c.name, c.category or "") for c in cases], method=method, category=category
+            )
+        )
     except ValueError as exc:
         raise r.fail("check.combinations", str(exc)) from None

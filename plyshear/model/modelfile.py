@@ -60,30 +60,82 @@ MIN_LENGTH = 1e-6
 #: Faying-surface classes: AISC 360-22 J3.8 (A, B); EN 1993-1-8 Table 3.7 (A to D).
 SLIP_CLASSES = {"aisc360-22": ("A", "B"), "en1993-1-8": ("A", "B", "C", "D")}
 
-TOP_KEYS = ("format", "title", "project", "units", "bolt", "ply", "member", "analysis", "check",
-            "pattern", "combination", *TITLE_BLOCK_KEYS)
+TOP_KEYS = (
+    "format",
+    "title",
+    "project",
+    "units",
+    "bolt",
+    "ply",
+    "member",
+    "analysis",
+    "check",
+    "pattern",
+    "combination",
+    *TITLE_BLOCK_KEYS,
+)
 COMBINATION_KEYS = ("name", "factors", "level")
 PATTERN_KEYS = ("positions", "count", "pitch")
 MAX_STATIONS = 500
 BOLT_KEYS = (
-    "diameter", "grade", "length", "thread_length", "threads", "ends", "pretension",
-    "tension", "hole", "E", "poisson", "stress_area",
+    "diameter",
+    "grade",
+    "length",
+    "thread_length",
+    "threads",
+    "ends",
+    "pretension",
+    "tension",
+    "hole",
+    "E",
+    "poisson",
+    "stress_area",
 )
 PLY_KEYS = (
-    "name", "member", "thickness", "steel", "fy", "fu", "gap", "edge", "width",
-    "foundation_modulus", "link_stiffness", "E", "hole_offset",
+    "name",
+    "member",
+    "thickness",
+    "steel",
+    "fy",
+    "fu",
+    "gap",
+    "edge",
+    "width",
+    "foundation_modulus",
+    "link_stiffness",
+    "E",
+    "hole_offset",
 )
 MEMBER_KEYS = ("support", "load", "enters")
-ANALYSIS_KEYS = ("bearing", "elements_per_ply", "beam", "clearance", "hole_clearance", "bolt",
-                 "deformation_limits")
-CHECK_KEYS = ("standard", "method", "connector", "deformation_considered", "fillers",
-              "slip_critical", "slip_class", "joint_length", "loads", "allow_unloaded",
-              "pin_interaction", "replaceable", "combinations", "category")
+ANALYSIS_KEYS = (
+    "bearing",
+    "elements_per_ply",
+    "beam",
+    "clearance",
+    "hole_clearance",
+    "bolt",
+    "deformation_limits",
+)
+CHECK_KEYS = (
+    "standard",
+    "method",
+    "connector",
+    "deformation_considered",
+    "fillers",
+    "slip_critical",
+    "slip_class",
+    "joint_length",
+    "loads",
+    "allow_unloaded",
+    "pin_interaction",
+    "replaceable",
+    "combinations",
+    "category",
+)
 #: What the file's loads are: design (factored) or service level.
 #: EN 1993-1-8 Table 3.10 pin bending with shear: the maxima wherever they occur, or
 #: the moment and the shear of one section.
 PIN_INTERACTIONS = ("max-max", "same-section")
-
 
 
 class _Reader:
@@ -111,8 +163,9 @@ class _Reader:
     def quantity(self, value: Any, key: str, dimension: str) -> float:
         number = self._quantity(value, key, dimension)
         if abs(number) > MAX_MAGNITUDE:
-            raise self.fail(key, f"out of range (|value| must be at most {MAX_MAGNITUDE:g} in "
-                                 "N, mm and MPa)")
+            raise self.fail(
+                key, f"out of range (|value| must be at most {MAX_MAGNITUDE:g} in N, mm and MPa)"
+            )
         return number
 
     def _quantity(self, value: Any, key: str, dimension: str) -> float:
@@ -147,13 +200,19 @@ class _Reader:
     def positive(self, value: Any, key: str, dimension: str, *, zero_ok: bool = False) -> float:
         number = self.quantity(value, key, dimension)
         if number < 0 or (number == 0 and not zero_ok):
-            shown = self.system.from_internal(number, dimension) if not isinstance(value, str) \
+            shown = (
+                self.system.from_internal(number, dimension)
+                if not isinstance(value, str)
                 else value
+            )
             rule = "≥ 0" if zero_ok else "> 0"
             raise self.fail(key, f"must be {rule} (got {_fmt(shown)})")
         if dimension == "length" and 0 < number < MIN_LENGTH:
-            raise self.fail(key, f"too small: a nonzero length must be at least {MIN_LENGTH:g} mm "
-                                 f"(got {number:g} mm)")
+            raise self.fail(
+                key,
+                f"too small: a nonzero length must be at least {MIN_LENGTH:g} mm "
+                f"(got {number:g} mm)",
+            )
         return number
 
     def choice(self, value: Any, key: str, allowed: tuple[str, ...]) -> str:
@@ -170,8 +229,14 @@ class _Reader:
 
 
 def _kind(value: Any) -> str:
-    return {dict: "a table", list: "an array", str: "a string", bool: "a boolean",
-            int: "an integer", float: "a number"}.get(type(value), type(value).__name__)
+    return {
+        dict: "a table",
+        list: "an array",
+        str: "a string",
+        bool: "a boolean",
+        int: "an integer",
+        float: "a number",
+    }.get(type(value), type(value).__name__)
 
 
 def _fmt(value: Any) -> str:
@@ -248,14 +313,14 @@ def _precheck(text: str, path: str) -> None:
     """
     for number, line in enumerate(text.splitlines(), start=1):
         if len(line) > MAX_LINE_CHARS:
-            raise ModelError(path, "", f"line {number} is longer than {MAX_LINE_CHARS} "
-                                       "characters")
+            raise ModelError(path, "", f"line {number} is longer than {MAX_LINE_CHARS} characters")
         if line.count(".") < MAX_KEY_PARTS:
             continue  # cheap: most lines cannot hold a long key at all
         parts = _key_parts(line)
         if parts > MAX_KEY_PARTS:
-            raise ModelError(path, "", f"line {number}: a key of {parts} dotted parts "
-                                       f"(at most {MAX_KEY_PARTS})")
+            raise ModelError(
+                path, "", f"line {number}: a key of {parts} dotted parts (at most {MAX_KEY_PARTS})"
+            )
 
 
 def _key_parts(line: str) -> int:
@@ -329,19 +394,23 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
     seen: dict[str, int] = {}
     for i, ply in enumerate(plies, start=1):
         if ply.name in seen:
-            raise r.fail(f"ply[{i}].name",
-                         f"'{ply.name}' is already the name of ply[{seen[ply.name]}]")
+            raise r.fail(
+                f"ply[{i}].name", f"'{ply.name}' is already the name of ply[{seen[ply.name]}]"
+            )
         seen[ply.name] = i
 
     case_loads: dict[str, dict[str, tuple[float, float]]] = {}
     members = _members(r, data.get("member", {}), plies, case_loads)
-    stations = _pattern(r, r.table(data.get("pattern", {}), "pattern")) \
-        if "pattern" in data else (0.0,)
+    stations = (
+        _pattern(r, r.table(data.get("pattern", {}), "pattern")) if "pattern" in data else (0.0,)
+    )
     if len(stations) > 1:
         for i, ply in enumerate(plies, start=1):
             if ply.width is None:
-                raise r.fail(f"ply[{i}].width", "missing; a bolt row needs every ply's width "
-                             "for its axial stiffness")
+                raise r.fail(
+                    f"ply[{i}].width",
+                    "missing; a bolt row needs every ply's width for its axial stiffness",
+                )
     analysis = _analysis(r, r.table(data.get("analysis", {}), "analysis"))
     check_raw = r.table(data.get("check", {}), "check")
     check = _check(r, check_raw)
@@ -350,15 +419,26 @@ def from_dict(data: Mapping[str, Any], path: str = "<model>") -> Joint:
 
     cases, combos = loadcases.read(r, data, check_raw, check, members, case_loads)
     if cases:
-        first = Joint(bolt=bolt, plies=plies, members=members, cases=cases,
-                      combinations=combos)
+        first = Joint(bolt=bolt, plies=plies, members=members, cases=cases, combinations=combos)
         members = first.with_loads(first.combined_loads(dict(combos[0].factors))).members
         check = dataclasses.replace(check, loads=combos[0].level)
     _require_load(r, members, check, cases)
-    return Joint(bolt=bolt, plies=plies, members=members, title=title, units=units_name,
-                 analysis=analysis, check=check, source=path, project=project,
-                 stations=stations, cases=cases, combinations=combos,
-                 combination=combos[0].name if combos else "", title_block=title_block)
+    return Joint(
+        bolt=bolt,
+        plies=plies,
+        members=members,
+        title=title,
+        units=units_name,
+        analysis=analysis,
+        check=check,
+        source=path,
+        project=project,
+        stations=stations,
+        cases=cases,
+        combinations=combos,
+        combination=combos[0].name if combos else "",
+        title_block=title_block,
+    )
 
 
 def _title_block(r: _Reader, data: Mapping[str, Any]) -> TitleBlock:
@@ -378,20 +458,30 @@ def _require_reach(r: _Reader, bolt: Bolt, plies: tuple[Ply, ...]) -> None:
     if bolt.length is not None and grip > bolt.length * (1 + 1e-12):
         shown = r.system.from_internal
         unit = r.system.label("length")
-        raise r.fail("bolt.length", f"{_fmt(shown(bolt.length, 'length'))} {unit} is shorter "
-                     f"than the grip {_fmt(shown(grip, 'length'))} {unit}: the bolt does not "
-                     "reach through the stack; give the under-head length of a longer bolt")
+        raise r.fail(
+            "bolt.length",
+            f"{_fmt(shown(bolt.length, 'length'))} {unit} is shorter "
+            f"than the grip {_fmt(shown(grip, 'length'))} {unit}: the bolt does not "
+            "reach through the stack; give the under-head length of a longer bolt",
+        )
 
 
-def _require_load(r: _Reader, members: tuple[Member, ...], check: CheckSettings,
-                  cases: tuple[LoadCase, ...] = ()) -> None:
+def _require_load(
+    r: _Reader, members: tuple[Member, ...], check: CheckSettings, cases: tuple[LoadCase, ...] = ()
+) -> None:
     """Refuse a joint whose members carry no load (in any case), unless the file allows it."""
-    if check.allow_unloaded or any(m.is_loaded for m in members) or any(
-            f != (0.0, 0.0) for c in cases for f in c.loads):
+    if (
+        check.allow_unloaded
+        or any(m.is_loaded for m in members)
+        or any(f != (0.0, 0.0) for c in cases for f in c.loads)
+    ):
         return
-    raise r.fail("member", "no member carries a load, so every check would pass with "
-                 "utilization 0; give a loaded member a load (or set [check] "
-                 "allow_unloaded = true, e.g. for a sweep that sets the loads)")
+    raise r.fail(
+        "member",
+        "no member carries a load, so every check would pass with "
+        "utilization 0; give a loaded member a load (or set [check] "
+        "allow_unloaded = true, e.g. for a sweep that sets the loads)",
+    )
 
 
 #: Bolts and plies already read, by their table's exact content (a sweep reads the
@@ -445,8 +535,7 @@ def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
     if "thread_length" in b:
         if length is None:
             raise r.fail("bolt.thread_length", "needs bolt.length to place the threads")
-        thread_length = r.positive(b["thread_length"], "bolt.thread_length", "length",
-                                   zero_ok=True)
+        thread_length = r.positive(b["thread_length"], "bolt.thread_length", "length", zero_ok=True)
         if thread_length > length:
             raise r.fail("bolt.thread_length", "must not exceed bolt.length")
     elif length is not None:
@@ -467,8 +556,11 @@ def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
             if threads == "excluded" or thread_length == 0.0:
                 found = math.pi * d * d / 4
             else:
-                raise r.fail("bolt.diameter", f"no thread data for a {_fmt(d)} mm diameter; "
-                             "give bolt.stress_area, or threads = \"excluded\" for a pin")
+                raise r.fail(
+                    "bolt.diameter",
+                    f"no thread data for a {_fmt(d)} mm diameter; "
+                    'give bolt.stress_area, or threads = "excluded" for a pin',
+                )
         stress_area = found
     e_mod = r.positive(b["E"], "bolt.E", "stress") if "E" in b else grade.E
     nu = r.number(b["poisson"], "bolt.poisson") if "poisson" in b else 0.3
@@ -476,10 +568,22 @@ def _bolt(r: _Reader, b: Mapping[str, Any]) -> Bolt:
         raise r.fail("bolt.poisson", f"must lie in (-1, 0.5) (got {nu:g})")
     pretension = r.positive(b.get("pretension", 0), "bolt.pretension", "force", zero_ok=True)
     tension = r.positive(b.get("tension", 0), "bolt.tension", "force", zero_ok=True)
-    return Bolt(diameter=d, grade=grade.key, fyb=grade.fyb, fub=grade.fub,
-                stress_area=stress_area, E=e_mod, poisson=nu, length=length,
-                thread_length=thread_length, threads=threads, ends=ends,
-                pretension=pretension, tension=tension, hole=hole)
+    return Bolt(
+        diameter=d,
+        grade=grade.key,
+        fyb=grade.fyb,
+        fub=grade.fub,
+        stress_area=stress_area,
+        E=e_mod,
+        poisson=nu,
+        length=length,
+        thread_length=thread_length,
+        threads=threads,
+        ends=ends,
+        pretension=pretension,
+        tension=tension,
+        hole=hole,
+    )
 
 
 def _ply(r: _Reader, raw: Any, i: int) -> Ply:
@@ -511,30 +615,48 @@ def _ply(r: _Reader, raw: Any, i: int) -> Ply:
         e_mod = e_mod if e_mod is not None else grade.E
     if fy is None or fu is None:
         missing = "fy" if fy is None else "fu"
-        raise r.fail(f"{key}.{missing}", f"missing; give {key}.steel "
-                     f"(known: {', '.join(catalog.steel_keys())}) or both fy and fu")
+        raise r.fail(
+            f"{key}.{missing}",
+            f"missing; give {key}.steel "
+            f"(known: {', '.join(catalog.steel_keys())}) or both fy and fu",
+        )
     if fu < fy:
         raise r.fail(f"{key}.fu", "must not be less than fy")
     gap = r.positive(p.get("gap", 0), f"{key}.gap", "length", zero_ok=True)
     edge = r.positive(p["edge"], f"{key}.edge", "length") if "edge" in p else None
     width = r.positive(p["width"], f"{key}.width", "length") if "width" in p else None
-    k = r.positive(p.get("foundation_modulus", 0), f"{key}.foundation_modulus", "stress",
-                   zero_ok=True)
-    link = r.positive(p.get("link_stiffness", 0), f"{key}.link_stiffness", "stiffness",
-                      zero_ok=True)
+    k = r.positive(
+        p.get("foundation_modulus", 0), f"{key}.foundation_modulus", "stress", zero_ok=True
+    )
+    link = r.positive(
+        p.get("link_stiffness", 0), f"{key}.link_stiffness", "stiffness", zero_ok=True
+    )
     offset = r.quantity(p.get("hole_offset", 0), f"{key}.hole_offset", "length")
     if link > 0 and member is None:
         raise r.fail(f"{key}.link_stiffness", "a filler ply (no member) has no link")
-    return Ply(name=name, member=member, thickness=t, fy=fy, fu=fu,
-               E=e_mod if e_mod is not None else 210000.0, steel=steel_key, gap=gap,
-               edge=edge,
-               width=width, foundation_modulus=k if k > 0 else None,
-               link_stiffness=link if link > 0 else None, hole_offset=offset)
+    return Ply(
+        name=name,
+        member=member,
+        thickness=t,
+        fy=fy,
+        fu=fu,
+        E=e_mod if e_mod is not None else 210000.0,
+        steel=steel_key,
+        gap=gap,
+        edge=edge,
+        width=width,
+        foundation_modulus=k if k > 0 else None,
+        link_stiffness=link if link > 0 else None,
+        hole_offset=offset,
+    )
 
 
-def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...],
-             case_loads: dict[str, dict[str, tuple[float, float]]] | None = None
-             ) -> tuple[Member, ...]:
+def _members(
+    r: _Reader,
+    raw: Any,
+    plies: tuple[Ply, ...],
+    case_loads: dict[str, dict[str, tuple[float, float]]] | None = None,
+) -> tuple[Member, ...]:
     """Read the members.
 
     A load given as a table of cases goes into ``case_loads`` (case → member →
@@ -546,8 +668,10 @@ def _members(r: _Reader, raw: Any, plies: tuple[Ply, ...],
         if ply.member is not None and ply.member not in table:
             hint = difflib.get_close_matches(ply.member, list(table), n=1)
             extra = f"; did you mean '{hint[0]}'?" if hint else ""
-            raise r.fail(f"ply[{i}].member",
-                         f"member '{ply.member}' is not declared as [member.{ply.member}]{extra}")
+            raise r.fail(
+                f"ply[{i}].member",
+                f"member '{ply.member}' is not declared as [member.{ply.member}]{extra}",
+            )
     members = []
     for name, body in table.items():
         key = f"member.{name}"
@@ -610,8 +734,9 @@ def _pattern(r: _Reader, p: Mapping[str, Any]) -> tuple[float, ...]:
             raise r.fail("pattern.positions", f"must be a non-empty array (got {_kind(raw)})")
         if len(raw) > MAX_STATIONS:
             raise r.fail("pattern.positions", f"at most {MAX_STATIONS} bolts (got {len(raw)})")
-        xs = [r.quantity(v, f"pattern.positions[{i}]", "length")
-              for i, v in enumerate(raw, start=1)]
+        xs = [
+            r.quantity(v, f"pattern.positions[{i}]", "length") for i, v in enumerate(raw, start=1)
+        ]
     else:
         if "count" not in p or "pitch" not in p:
             raise r.fail("pattern", "give positions, or both count and pitch")
@@ -633,18 +758,29 @@ def _analysis(r: _Reader, a: Mapping[str, Any]) -> Analysis:
     if isinstance(n, bool) or not isinstance(n, int):
         raise r.fail("analysis.elements_per_ply", f"must be an integer (got {_kind(n)})")
     if not 1 <= n <= MAX_ELEMENTS_PER_PLY:
-        raise r.fail("analysis.elements_per_ply",
-                     f"must lie in 1..{MAX_ELEMENTS_PER_PLY} (got {n})")
+        raise r.fail(
+            "analysis.elements_per_ply", f"must lie in 1..{MAX_ELEMENTS_PER_PLY} (got {n})"
+        )
     beam = r.choice(a.get("beam", "timoshenko"), "analysis.beam", BEAM_THEORIES)
     clearance = r.choice(a.get("clearance", "fitted"), "analysis.clearance", CLEARANCE_MODES)
-    hole = r.positive(a["hole_clearance"], "analysis.hole_clearance", "length", zero_ok=True) \
-        if "hole_clearance" in a else None
+    hole = (
+        r.positive(a["hole_clearance"], "analysis.hole_clearance", "length", zero_ok=True)
+        if "hole_clearance" in a
+        else None
+    )
     bolt = r.choice(a.get("bolt", "strain-hardening"), "analysis.bolt", BOLT_MODELS)
     limits = a.get("deformation_limits", True)
     if not isinstance(limits, bool):
         raise r.fail("analysis.deformation_limits", f"must be true or false (got {_kind(limits)})")
-    return Analysis(bearing=bearing, elements_per_ply=n, beam=beam, clearance=clearance,
-                    hole_clearance=hole, bolt=bolt, deformation_limits=limits)
+    return Analysis(
+        bearing=bearing,
+        elements_per_ply=n,
+        beam=beam,
+        clearance=clearance,
+        hole_clearance=hole,
+        bolt=bolt,
+        deformation_limits=limits,
+    )
 
 
 def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
@@ -652,26 +788,40 @@ def _check(r: _Reader, c: Mapping[str, Any]) -> CheckSettings:
     standard = r.choice(c.get("standard", "aisc360-22"), "check.standard", STANDARDS)
     method = r.choice(c.get("method", "lrfd"), "check.method", METHODS)
     connector = r.choice(c.get("connector", "bolt"), "check.connector", ("bolt", "pin"))
-    fillers = r.choice(c.get("fillers", "undeveloped"), "check.fillers",
-                       ("undeveloped", "developed"))
+    fillers = r.choice(
+        c.get("fillers", "undeveloped"), "check.fillers", ("undeveloped", "developed")
+    )
     flags = {}
-    for key, default in (("deformation_considered", True), ("slip_critical", False),
-                         ("replaceable", False)):
+    for key, default in (
+        ("deformation_considered", True),
+        ("slip_critical", False),
+        ("replaceable", False),
+    ):
         value = c.get(key, default)
         if not isinstance(value, bool):
             raise r.fail(f"check.{key}", f"must be true or false (got {_kind(value)})")
         flags[key] = value
     classes = SLIP_CLASSES[standard]
-    slip_class = r.choice(c["slip_class"], "check.slip_class", classes) \
-        if "slip_class" in c else None
+    slip_class = (
+        r.choice(c["slip_class"], "check.slip_class", classes) if "slip_class" in c else None
+    )
     length = r.positive(c.get("joint_length", 0), "check.joint_length", "length", zero_ok=True)
     unloaded = c.get("allow_unloaded", False)
     if not isinstance(unloaded, bool):
         raise r.fail("check.allow_unloaded", f"must be true or false (got {_kind(unloaded)})")
     loads = r.choice(c["loads"], "check.loads", LOAD_LEVELS) if "loads" in c else None
-    interaction = r.choice(c.get("pin_interaction", "max-max"), "check.pin_interaction",
-                           PIN_INTERACTIONS)
-    return CheckSettings(standard=standard, method=method, connector=connector,
-                         fillers=fillers, slip_class=slip_class, joint_length=length,
-                         loads=loads, allow_unloaded=unloaded, pin_interaction=interaction,
-                         **flags)
+    interaction = r.choice(
+        c.get("pin_interaction", "max-max"), "check.pin_interaction", PIN_INTERACTIONS
+    )
+    return CheckSettings(
+        standard=standard,
+        method=method,
+        connector=connector,
+        fillers=fillers,
+        slip_class=slip_class,
+        joint_length=length,
+        loads=loads,
+        allow_unloaded=unloaded,
+        pin_interaction=interaction,
+        **flags,
+    )

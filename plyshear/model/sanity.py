@@ -123,14 +123,19 @@ def _pin_plates(joint: Joint) -> list[str]:
     """A pin's plies without ``edge`` or ``width``: their pin-plate rules cannot be checked."""
     if joint.check.connector != "pin":
         return []
-    rules = ("AISC 360-22 D5 net tension, shear-out and D5.2 dimensions"
-             if joint.check.standard == "aisc360-22" else "EN 1993-1-8 Table 3.9 geometry")
+    rules = (
+        "AISC 360-22 D5 net tension, shear-out and D5.2 dimensions"
+        if joint.check.standard == "aisc360-22"
+        else "EN 1993-1-8 Table 3.9 geometry"
+    )
     out = []
     for i, ply in enumerate(joint.plies):
         missing = [k for k in ("edge", "width") if getattr(ply, k) is None]
         if missing and not ply.is_filler:
-            out.append(f"{_ply_key(i, ply)}.{missing[0]}: a pin plate without "
-                       f"{' and '.join(missing)}: its plate checks ({rules}) cannot be made")
+            out.append(
+                f"{_ply_key(i, ply)}.{missing[0]}: a pin plate without "
+                f"{' and '.join(missing)}: its plate checks ({rules}) cannot be made"
+            )
     return out
 
 
@@ -153,10 +158,12 @@ def notes(joint: Joint) -> list[str]:
     out = []
     for i, ply in enumerate(joint.plies):
         if ply.width is None and not ply.is_filler:
-            out.append(f"{_ply_key(i, ply)}.width: not given; EN 1993-1-8 bearing takes k1 "
-                       f"from the minimum edge distance across the load, e2 = "
-                       f"{EN_E_MIN_FACTOR:g} d0 (Table 3.3): k1 = "
-                       f"{2.8 * EN_E_MIN_FACTOR - 1.7:.2f}, conservative")
+            out.append(
+                f"{_ply_key(i, ply)}.width: not given; EN 1993-1-8 bearing takes k1 "
+                f"from the minimum edge distance across the load, e2 = "
+                f"{EN_E_MIN_FACTOR:g} d0 (Table 3.3): k1 = "
+                f"{2.8 * EN_E_MIN_FACTOR - 1.7:.2f}, conservative"
+            )
     return out
 
 
@@ -173,12 +180,16 @@ def _grip(joint: Joint, u: _units.UnitSystem) -> list[str]:
     bolt = joint.bolt
     grip = joint.grip
     if bolt.length is not None and grip > bolt.length + _TOL:
-        out.append(f"bolt.length: the grip {_len(grip, u)} is longer than the bolt "
-                   f"({_len(bolt.length, u)}): the bolt cannot pass the stack")
+        out.append(
+            f"bolt.length: the grip {_len(grip, u)} is longer than the bolt "
+            f"({_len(bolt.length, u)}): the bolt cannot pass the stack"
+        )
     ratio = grip / bolt.diameter
     if ratio > LONG_GRIP_RATIO:
-        out.append(f"bolt.diameter: very long grip, grip/d = {ratio:.3g} > {LONG_GRIP_RATIO:g} "
-                   "(common practice): bending governs and the solve may be ill-conditioned")
+        out.append(
+            f"bolt.diameter: very long grip, grip/d = {ratio:.3g} > {LONG_GRIP_RATIO:g} "
+            "(common practice): bending governs and the solve may be ill-conditioned"
+        )
     return out
 
 
@@ -194,17 +205,19 @@ def _protrusion(joint: Joint, u: _units.UnitSystem) -> list[str]:
     need = nut + PROTRUSION_PITCHES * pitch
     if past < 0 or past >= need - _TOL:
         return []  # shorter than the grip: refused by the model file, warned by _grip
-    return [f"bolt.length: the bolt protrudes {_len(past, u)} past the grip, less than a nut "
-            f"({_len(nut, u)}) plus {PROTRUSION_PITCHES} thread pitches ({_len(pitch, u)} "
-            f"each) = {_len(need, u)} (common practice): choose a bolt at least "
-            f"{_len(joint.grip + need, u)} long"]
+    return [
+        f"bolt.length: the bolt protrudes {_len(past, u)} past the grip, less than a nut "
+        f"({_len(nut, u)}) plus {PROTRUSION_PITCHES} thread pitches ({_len(pitch, u)} "
+        f"each) = {_len(need, u)} (common practice): choose a bolt at least "
+        f"{_len(joint.grip + need, u)} long"
+    ]
 
 
 def _as_read(value: float, dimension: str, u: _units.UnitSystem) -> str:
     """A length as the file gave it, with its system, and in mm when that differs."""
     shown = f"{u.from_internal(value, dimension):.4g} {u.label(dimension)}"
     mm = "" if u.label(dimension) == "mm" else f" = {value:.4g} mm"
-    return f"{shown} as read with units = \"{u.name}\"{mm}"
+    return f'{shown} as read with units = "{u.name}"{mm}'
 
 
 def _unit_ranges(joint: Joint, u: _units.UnitSystem) -> list[str]:
@@ -212,14 +225,18 @@ def _unit_ranges(joint: Joint, u: _units.UnitSystem) -> list[str]:
     lo, hi = BOLT_DIAMETER_RANGE
     d = joint.bolt.diameter
     if not lo <= d <= hi:
-        out.append(f"bolt.diameter: {_as_read(d, 'length', u)} is outside {lo:g} to {hi:g} mm, "
-                   "the range of bolts and pins: is the file's units right?")
+        out.append(
+            f"bolt.diameter: {_as_read(d, 'length', u)} is outside {lo:g} to {hi:g} mm, "
+            "the range of bolts and pins: is the file's units right?"
+        )
     lo, hi = PLY_THICKNESS_RANGE
     for i, ply in enumerate(joint.plies):
         if not lo <= ply.thickness <= hi:
-            out.append(f"{_ply_key(i, ply)}.thickness: {_as_read(ply.thickness, 'length', u)} "
-                       f"is outside {lo:g} to {hi:g} mm, the range of plates: is the file's "
-                       "units right?")
+            out.append(
+                f"{_ply_key(i, ply)}.thickness: {_as_read(ply.thickness, 'length', u)} "
+                f"is outside {lo:g} to {hi:g} mm, the range of plates: is the file's "
+                "units right?"
+            )
     return out
 
 
@@ -237,9 +254,11 @@ def _threads_in_thin_plies(joint: Joint, u: _units.UnitSystem) -> list[str]:
         # is past the start (a ply that only touches the start is not)
         threaded = bolt.threaded_at(0.5 * (z0 + z1)) or bolt.threaded_at(z1 - _TOL * 10)
         if threaded and ply.thickness < pitch - _TOL:
-            out.append(f"{_ply_key(i, ply)}.thickness: {_len(ply.thickness, u)} is thinner "
-                       f"than the thread pitch {_len(pitch, u)} and lies in the threaded "
-                       "length: it bears on less than one thread turn")
+            out.append(
+                f"{_ply_key(i, ply)}.thickness: {_len(ply.thickness, u)} is thinner "
+                f"than the thread pitch {_len(pitch, u)} and lies in the threaded "
+                "length: it bears on less than one thread turn"
+            )
     return out
 
 
@@ -248,17 +267,18 @@ def _shims(joint: Joint, u: _units.UnitSystem) -> list[str]:
     out = []
     for i, ply in enumerate(joint.plies):
         if ply.thickness < SHIM_RATIO * d - _TOL:
-            out.append(f"{_ply_key(i, ply)}.thickness: {_len(ply.thickness, u)} is less than "
-                       f"{SHIM_RATIO:g} d = {_len(SHIM_RATIO * d, u)} (common practice): a shim "
-                       "rather than a bearing plate; its bearing model is doubtful")
+            out.append(
+                f"{_ply_key(i, ply)}.thickness: {_len(ply.thickness, u)} is less than "
+                f"{SHIM_RATIO:g} d = {_len(SHIM_RATIO * d, u)} (common practice): a shim "
+                "rather than a bearing plate; its bearing model is doubtful"
+            )
     return out
 
 
 def _aisc_min_edge(d: float) -> float | None:
     """AISC 360-22 Table J3.4 / J3.4M minimum edge distance, mm, or None if not covered."""
     if catalog.is_inch_size(d):
-        table = tuple((a * catalog.MM_PER_IN, b * catalog.MM_PER_IN)
-                      for a, b in AISC_MIN_EDGE_IN)
+        table = tuple((a * catalog.MM_PER_IN, b * catalog.MM_PER_IN) for a, b in AISC_MIN_EDGE_IN)
     else:
         table = AISC_MIN_EDGE_MM
     for d_tab, e_tab in table:
@@ -291,8 +311,10 @@ def _edges(joint: Joint, u: _units.UnitSystem) -> list[str]:
     out = []
     for i, ply in enumerate(joint.plies):
         if ply.edge is not None and ply.edge < e_min - _TOL:
-            out.append(f"{_ply_key(i, ply)}.edge: {_len(ply.edge, u)} is below the minimum "
-                       f"edge distance {_len(e_min, u)} ({rule})")
+            out.append(
+                f"{_ply_key(i, ply)}.edge: {_len(ply.edge, u)} is below the minimum "
+                f"edge distance {_len(e_min, u)} ({rule})"
+            )
     return out
 
 
@@ -310,14 +332,18 @@ def _contrasts(joint: Joint) -> list[str]:
         r = _ratio(a.thickness, b.thickness)
         if r >= CONTRAST_RATIO:
             thin = i + 1 if a.thickness > b.thickness else i
-            out.append(f"ply[{thin + 1}].thickness: {pair} differ {r:.3g}-fold in thickness "
-                       f"(≥ {CONTRAST_RATIO:g}): the solve may be ill-conditioned")
+            out.append(
+                f"ply[{thin + 1}].thickness: {pair} differ {r:.3g}-fold in thickness "
+                f"(≥ {CONTRAST_RATIO:g}): the solve may be ill-conditioned"
+            )
         ka, kb = a.foundation_modulus, b.foundation_modulus
         if ka is not None and kb is not None:
             r = _ratio(ka, kb)
             if r >= CONTRAST_RATIO:
                 soft = i + 1 if ka > kb else i
-                out.append(f"ply[{soft + 1}].foundation_modulus: {pair} differ {r:.3g}-fold "
-                           f"in bearing stiffness (≥ {CONTRAST_RATIO:g}): the solve may be "
-                           "ill-conditioned")
+                out.append(
+                    f"ply[{soft + 1}].foundation_modulus: {pair} differ {r:.3g}-fold "
+                    f"in bearing stiffness (≥ {CONTRAST_RATIO:g}): the solve may be "
+                    "ill-conditioned"
+                )
     return out

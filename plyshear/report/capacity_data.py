@@ -65,20 +65,25 @@ def mechanism_parts(summary: CapacitySummary, joint: Joint) -> list[str]:
 
     parts = [f"{bolt(h.bolt)}hinge at z = {h.z / ln:.4g} {ll}" for h in m.hinges]
     lugs = lug_rules(joint, summary.strengths)
-    parts += [f"{bolt(b)}ply {name} at full bearing"
-              + (f" ({lugs[name]})" if name in lugs else "") for b, name in m.bearing]
+    parts += [
+        f"{bolt(b)}ply {name} at full bearing" + (f" ({lugs[name]})" if name in lugs else "")
+        for b, name in m.bearing
+    ]
     parts += [f"{bolt(b)}plane {i} ruptured" for b, i in m.planes]
-    parts += [f"ply {name} net section between bolts {i + 1} and {i + 2}"
-              for name, i in m.net_sections]
+    parts += [
+        f"ply {name} net section between bolts {i + 1} and {i + 2}" for name, i in m.net_sections
+    ]
     return parts
 
 
 def mechanism_short(summary: CapacitySummary) -> str:
     """The collapse mechanism counted: hinges, plies at full bearing, planes ruptured."""
     m = summary.mechanism.mechanism
-    out = [f"{len(m.hinges)} hinge{'s' * (len(m.hinges) != 1)}",
-           f"{len(m.bearing)} ply bearing{'s' * (len(m.bearing) != 1)}",
-           f"{len(m.planes)} plane{'s' * (len(m.planes) != 1)} ruptured"]
+    out = [
+        f"{len(m.hinges)} hinge{'s' * (len(m.hinges) != 1)}",
+        f"{len(m.bearing)} ply bearing{'s' * (len(m.bearing) != 1)}",
+        f"{len(m.planes)} plane{'s' * (len(m.planes) != 1)} ruptured",
+    ]
     if m.net_sections:
         out.append(f"{len(m.net_sections)} net section{'s' * (len(m.net_sections) != 1)}")
     return ", ".join(out)
@@ -87,14 +92,22 @@ def mechanism_short(summary: CapacitySummary) -> str:
 def _end_reason(summary: CapacitySummary, joint: Joint) -> str:
     """What ended the nonlinear analysis, and the rigid-plastic mechanism, in words."""
     a = summary.nonlinear
-    out = (f"the analysis ended at {a.event} ({where(a, joint)}); its rigid-plastic "
-           f"mechanism: {'; '.join(mechanism_parts(summary, joint)) or 'none'}")
+    out = (
+        f"the analysis ended at {a.event} ({where(a, joint)}); its rigid-plastic "
+        f"mechanism: {'; '.join(mechanism_parts(summary, joint)) or 'none'}"
+    )
     if a.event in ("bolt fibre strain at elongation", "bolt bending and shear"):
         out += "; the check does not limit the bolt's bending"
-    if joint.bolt.ends == "free" and summary.mechanism.mechanism.hinges == () and \
-            not summary.mechanism.mechanism.planes and summary.planes == len(joint.stations):
-        out += ("; a single-shear bolt with free ends tips in its holes: a headed, tightened "
-                "bolt may be nearer [bolt] ends = \"clamped\"")
+    if (
+        joint.bolt.ends == "free"
+        and summary.mechanism.mechanism.hinges == ()
+        and not summary.mechanism.mechanism.planes
+        and summary.planes == len(joint.stations)
+    ):
+        out += (
+            "; a single-shear bolt with free ends tips in its holes: a headed, tightened "
+            'bolt may be nearer [bolt] ends = "clamped"'
+        )
     return out
 
 
@@ -107,39 +120,55 @@ def verdict(summary: CapacitySummary, joint: Joint, result: CheckResult | None) 
     load = summary.model_load
     level = load_level(joint, joint.check.standard, joint.check.method)
     holds = design >= load
-    numbers = (f"the nonlinear design capacity {fmt(design / fu)} {lf} ({basis}) against the "
-               f"model's {level} load {fmt(load / fu)} {lf}")
+    numbers = (
+        f"the nonlinear design capacity {fmt(design / fu)} {lf} ({basis}) against the "
+        f"model's {level} load {fmt(load / fu)} {lf}"
+    )
     if result is None:
         return Verdict(True, f"{numbers}: {'enough' if holds else 'NOT enough'}.")
     if result.passes and not holds:
-        return Verdict(False, f"The check passes, but {numbers} is not enough: "
-                              f"{_end_reason(summary, joint)}.")
+        return Verdict(
+            False, f"The check passes, but {numbers} is not enough: {_end_reason(summary, joint)}."
+        )
     if not result.passes and holds:
-        return Verdict(False, f"The check fails, but {numbers} is enough: the check takes the "
-                              "linear split, while the analysis lets the plies and the bolt yield "
-                              "and share the load; the standard's check governs the design.")
+        return Verdict(
+            False,
+            f"The check fails, but {numbers} is enough: the check takes the "
+            "linear split, while the analysis lets the plies and the bolt yield "
+            "and share the load; the standard's check governs the design.",
+        )
     word = "passes" if result.passes else "fails"
     return Verdict(True, f"The check {word} and {numbers} agrees.")
 
 
-def capacity_dict(summary: CapacitySummary, joint: Joint,
-                  result: CheckResult | None = None) -> dict[str, Any]:
+def capacity_dict(
+    summary: CapacitySummary, joint: Joint, result: CheckResult | None = None
+) -> dict[str, Any]:
     """The JSON ``capacity`` section, in the joint's units."""
     u = _units.system(joint.units)
     f, ln, mo = u.factor("force"), u.factor("length"), u.factor("moment")
     k, basis = factor(joint)
 
     def answer(a: Answer) -> dict[str, Any]:
-        return {"load": a.load / f, "design_load": a.load * k / f, "event": a.event,
-                "where": where(a, joint)}
+        return {
+            "load": a.load / f,
+            "design_load": a.load * k / f,
+            "event": a.event,
+            "where": where(a, joint),
+        }
 
     s = summary.strengths
     hist = summary.analysis.history
     lp = summary.mechanism
     nonlinear = answer(summary.nonlinear)
-    nonlinear["events"] = [{"event": e.event, "load": e.load / f,
-                            "where": where(Answer(e.load, e.event, e.where, e.z), joint)}
-                           for e in summary.analysis.events]
+    nonlinear["events"] = [
+        {
+            "event": e.event,
+            "load": e.load / f,
+            "where": where(Answer(e.load, e.event, e.where, e.z), joint),
+        }
+        for e in summary.analysis.events
+    ]
     nonlinear["peak"] = summary.analysis.peak / f
     out: dict[str, Any] = {
         "planes": summary.planes,
@@ -148,37 +177,50 @@ def capacity_dict(summary: CapacitySummary, joint: Joint,
         "design_factor": {"value": k, "basis": basis},
         "strengths": {
             "bolt_plastic_moment": s.shank_moment / mo,
-            "planes": [{"index": i + 1, "shear_strength": float(v) / f,
-                        "threads": t}
-                       for i, (v, t) in enumerate(zip(s.plane, s.plane_threaded, strict=True))],
-            "plies": [{"name": p.name, "bearing_strength": float(q) / f, "rule": r}
-                      for p, q, r in zip(joint.plies, s.ply_force, s.bearing_rule, strict=True)],
+            "planes": [
+                {"index": i + 1, "shear_strength": float(v) / f, "threads": t}
+                for i, (v, t) in enumerate(zip(s.plane, s.plane_threaded, strict=True))
+            ],
+            "plies": [
+                {"name": p.name, "bearing_strength": float(q) / f, "rule": r}
+                for p, q, r in zip(joint.plies, s.ply_force, s.bearing_rule, strict=True)
+            ],
         },
         "elastic": answer(summary.elastic),
         "nonlinear": nonlinear,
         "collapse": {
-            "load": summary.collapse.load / f, "design_load": summary.collapse.load * k / f,
+            "load": summary.collapse.load / f,
+            "design_load": summary.collapse.load * k / f,
             "efficiency": summary.efficiency(summary.collapse.load),
             "mechanism": {
                 "hinges": [h.z / ln for h in lp.mechanism.hinges],
                 "bearing": [name for _, name in lp.mechanism.bearing],
-                "lugs": [{"ply": name, "rule": rule}
-                         for name, rule in governing_lugs(joint, s, lp)],
+                "lugs": [
+                    {"ply": name, "rule": rule} for name, rule in governing_lugs(joint, s, lp)
+                ],
                 "planes": [i for _, i in lp.mechanism.planes],
-                "net_sections": [f"{name} between bolts {i + 1} and {i + 2}"
-                                 for name, i in lp.mechanism.net_sections],
+                "net_sections": [
+                    f"{name} between bolts {i + 1} and {i + 2}"
+                    for name, i in lp.mechanism.net_sections
+                ],
             },
             "elements_per_ply": lp.elements,
         },
-        "plastic": {"load": summary.plastic.load / f, "design_load": summary.plastic.load * k / f,
-                    "cut": list(summary.cut)},
+        "plastic": {
+            "load": summary.plastic.load / f,
+            "design_load": summary.plastic.load * k / f,
+            "cut": list(summary.cut),
+        },
         "efficiency": {name: summary.efficiency(a.load) for name, a in summary.answers.items()},
         "bearing": joint.analysis.bearing,
         "bolt": joint.analysis.bolt,
         "deformation_limits": joint.analysis.deformation_limits,
         "clearance": joint.analysis.clearance,
-        "curve": {"slip": [st.slip / ln for st in hist], "load": [st.load / f for st in hist],
-                  "plane_shear": [(st.plane_shear / f).tolist() for st in hist]},
+        "curve": {
+            "slip": [st.slip / ln for st in hist],
+            "load": [st.load / f for st in hist],
+            "plane_shear": [(st.plane_shear / f).tolist() for st in hist],
+        },
     }
     if len(joint.stations) > 1:
         out["collapse"]["mechanism"]["hinges_bolt"] = [h.bolt + 1 for h in lp.mechanism.hinges]
@@ -192,18 +234,24 @@ def notes(summary: CapacitySummary, joint: Joint) -> list[str]:
     """What the engineer must know to read the answers."""
     out = []
     if not summary.analysis.elongation_known and joint.analysis.bolt != "elastic":
-        out.append(f"the elongation of bolt grade {joint.bolt.grade!r} is not tabulated: the "
-                   "smallest tabulated one (8 %) was used")
+        out.append(
+            f"the elongation of bolt grade {joint.bolt.grade!r} is not tabulated: the "
+            "smallest tabulated one (8 %) was used"
+        )
     if joint.analysis.bolt == "strain-hardening":
-        out.append("the nonlinear analysis lets the bolt harden to fub; the collapse load uses "
-                   "the plastic moment at fyb, so the nonlinear answer may exceed it")
+        out.append(
+            "the nonlinear analysis lets the bolt harden to fub; the collapse load uses "
+            "the plastic moment at fyb, so the nonlinear answer may exceed it"
+        )
     if joint.analysis.bearing == "component":
-        out.append("bearing: the linear component stiffness, capped at each ply's bearing "
-                   "strength")
+        out.append("bearing: the linear component stiffness, capped at each ply's bearing strength")
     if summary.elastic.load > summary.nonlinear.load:
-        out.append("the elastic answer scales the linear split (the stiffness law of the check); "
-                   "the nonlinear bearing law is softer, so its ultimate can lie below it")
+        out.append(
+            "the elastic answer scales the linear split (the stiffness law of the check); "
+            "the nonlinear bearing law is softer, so its ultimate can lie below it"
+        )
     if not joint.analysis.deformation_limits:
-        out.append("deformation limits off: the analysis runs to its peak or a slip of one "
-                   "bolt diameter")
+        out.append(
+            "deformation limits off: the analysis runs to its peak or a slip of one bolt diameter"
+        )
     return out

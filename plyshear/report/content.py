@@ -30,7 +30,6 @@ CAUTION_LONG = (
 )
 
 
-
 @dataclass(frozen=True)
 class Table:
     """A table: headers, rows of text cells, one alignment letter per column.
@@ -139,24 +138,49 @@ def load_rows(data: ReportData) -> Table:
     for case, loads in load_cases(joint):
         for m, load, res in zip(joint.members, loads, sol.members, strict=True):
             role = "support" if m.support else ("loaded" if m.is_loaded else "free")
-            applied = ["-", "-", "-"] if m.support else \
-                [fmt(load[0] / f), fmt(load[1] / f), fmt(float((load[0]**2 + load[1]**2)**0.5)
-                                                         / f)]
-            reaction = [fmt(res.reaction_xy[0] / f), fmt(res.reaction_xy[1] / f)] \
-                if m.support else ["-", "-"]
+            applied = (
+                ["-", "-", "-"]
+                if m.support
+                else [
+                    fmt(load[0] / f),
+                    fmt(load[1] / f),
+                    fmt(float((load[0] ** 2 + load[1] ** 2) ** 0.5) / f),
+                ]
+            )
+            reaction = (
+                [fmt(res.reaction_xy[0] / f), fmt(res.reaction_xy[1] / f)]
+                if m.support
+                else ["-", "-"]
+            )
             plies = ", ".join(p.name for p in joint.plies if p.member == m.name)
             rows.append([m.name, role, case, *applied, *reaction, plies])
-    return Table(["member", "role", "case", f"Fx [{lf}]", f"Fy [{lf}]", f"|F| [{lf}]",
-                  f"Rx [{lf}]", f"Ry [{lf}]", "plies"], rows, "lllrrrrrl",
-                 "members, applied loads and reactions")
+    return Table(
+        [
+            "member",
+            "role",
+            "case",
+            f"Fx [{lf}]",
+            f"Fy [{lf}]",
+            f"|F| [{lf}]",
+            f"Rx [{lf}]",
+            f"Ry [{lf}]",
+            "plies",
+        ],
+        rows,
+        "lllrrrrrl",
+        "members, applied loads and reactions",
+    )
 
 
 def loads_text(data: ReportData) -> list[str]:
     """The load level, the units, the sign rule and the equal-split line."""
     joint, res = data.joint, data.check
     level = load_level(joint, res.standard, res.method)
-    declared = "declared in [check] loads" if joint.check.loads else \
-        "the method's default; declare [check] loads to be sure"
+    declared = (
+        "declared in [check] loads"
+        if joint.check.loads
+        else "the method's default; declare [check] loads to be sure"
+    )
     fx = data.units.label("force")
     return [
         f"Load level: {level} ({declared}). Units: forces in {fx}, lengths in "
@@ -179,13 +203,16 @@ def equal_split(data: ReportData) -> str:
     if equal is None:
         return "Equal split: not applicable (no load or no plane between members)."
     nb = len(sol.bolts)
-    k, worst = max(((k, p) for k, b in enumerate(sol.bolts) for p in b.planes),
-                   key=lambda kp: kp[1].shear)
+    k, worst = max(
+        ((k, p) for k, b in enumerate(sol.bolts) for p in b.planes), key=lambda kp: kp[1].shear
+    )
     where = f"bolt {k + 1} plane {worst.index}" if nb > 1 else f"plane {worst.index}"
     per = f"{member_planes(data.joint)} planes" + (f" x {nb} bolts" if nb > 1 else "")
-    return (f"Worst {where}: {fmt(worst.shear / f)} {lf} = {worst.shear / equal:.2f} x the "
-            f"equal split {fmt(total_load(data.joint) / f)} {lf} / {per} = "
-            f"{fmt(equal / f)} {lf}.")
+    return (
+        f"Worst {where}: {fmt(worst.shear / f)} {lf} = {worst.shear / equal:.2f} x the "
+        f"equal split {fmt(total_load(data.joint) / f)} {lf} / {per} = "
+        f"{fmt(equal / f)} {lf}."
+    )
 
 
 def model_rows(data: ReportData) -> list[Table]:
@@ -195,32 +222,68 @@ def model_rows(data: ReportData) -> list[Table]:
     ll, ls, lf = u.label("length"), u.label("stress"), u.label("force")
     b = joint.bolt
     bolt_rows = [
-        ["diameter", f"{fmt(b.diameter / ln)} {ll}"], ["grade", b.grade],
+        ["diameter", f"{fmt(b.diameter / ln)} {ll}"],
+        ["grade", b.grade],
         ["fyb / fub", f"{fmt(b.fyb / st)} / {fmt(b.fub / st)} {ls}"],
         ["stress area", f"{fmt(b.stress_area / u.factor('area'))} {u.label('area')}"],
-        ["length / thread length",
-         "unknown" if b.length is None else
-         f"{fmt(b.length / ln)} / {fmt((b.thread_length or 0) / ln)} {ll}"],
+        [
+            "length / thread length",
+            "unknown"
+            if b.length is None
+            else f"{fmt(b.length / ln)} / {fmt((b.thread_length or 0) / ln)} {ll}",
+        ],
         ["threads", b.threads + (" (assumed in every plane)" if b.threads_assumed else "")],
-        ["ends", b.ends], ["hole", b.hole],
+        ["ends", b.ends],
+        ["hole", b.hole],
         ["pretension / tension", f"{fmt(b.pretension / f)} / {fmt(b.tension / f)} {lf}"],
     ]
     starts = joint.ply_starts()
     stack = []
     for j, p in enumerate(joint.plies):
-        stack.append([str(j + 1), p.name, p.member or "(filler)", fmt(p.thickness / ln),
-                      fmt(p.gap / ln), p.steel or "-", f"{fmt(p.fy / st)} / {fmt(p.fu / st)}",
-                      "-" if p.edge is None else fmt(p.edge / ln), fmt(starts[j] / ln),
-                      "rigid" if p.link_stiffness is None else
-                      f"{fmt(p.link_stiffness / u.factor('stiffness'))} "
-                      f"{u.label('stiffness')}"])
-    planes = [[str(p.index), fmt(p.z / ln), f"{joint.plies[p.above].name} / "
-               f"{joint.plies[p.below].name}", "included" if p.threads else "excluded"]
-              for p in sol.first_bolt_planes]
+        stack.append(
+            [
+                str(j + 1),
+                p.name,
+                p.member or "(filler)",
+                fmt(p.thickness / ln),
+                fmt(p.gap / ln),
+                p.steel or "-",
+                f"{fmt(p.fy / st)} / {fmt(p.fu / st)}",
+                "-" if p.edge is None else fmt(p.edge / ln),
+                fmt(starts[j] / ln),
+                "rigid"
+                if p.link_stiffness is None
+                else f"{fmt(p.link_stiffness / u.factor('stiffness'))} {u.label('stiffness')}",
+            ]
+        )
+    planes = [
+        [
+            str(p.index),
+            fmt(p.z / ln),
+            f"{joint.plies[p.above].name} / {joint.plies[p.below].name}",
+            "included" if p.threads else "excluded",
+        ]
+        for p in sol.first_bolt_planes
+    ]
     return [
         Table(["property", "value"], bolt_rows, "ll", "bolt"),
-        Table(["#", "ply", "member", f"t [{ll}]", f"gap [{ll}]", "steel", f"fy / fu [{ls}]",
-               f"edge [{ll}]", f"z [{ll}]", "link"], stack, "rlllrrlrrr", "stack"),
+        Table(
+            [
+                "#",
+                "ply",
+                "member",
+                f"t [{ll}]",
+                f"gap [{ll}]",
+                "steel",
+                f"fy / fu [{ls}]",
+                f"edge [{ll}]",
+                f"z [{ll}]",
+                "link",
+            ],
+            stack,
+            "rlllrrlrrr",
+            "stack",
+        ),
         Table(["plane", f"z [{ll}]", "between", "threads"], planes, "rrll", "planes"),
     ]
 
@@ -238,20 +301,45 @@ def result_rows(data: ReportData) -> list[Table]:
     util = data.check.plane_utilization()
     row = len(sol.bolts) > 1
     first = ["bolt"] if row else []
-    planes = [[*([str(k + 1)] if row else []), str(p.index), fmt(p.shear / f),
-               fmt(p.shear_xy[0] / f), fmt(p.shear_xy[1] / f), fmt(p.moment / mo),
-               f"{util[(k, p.index)]:.3f}" if (k, p.index) in util else "-"]
-              for k, b in enumerate(sol.bolts) for p in b.planes]
-    plies = [[*([str(k + 1)] if row else []), joint.plies[pb.ply].name,
-              joint.plies[pb.ply].member or "(filler)",
-              fmt(pb.force / f), fmt(pb.force_xy[0] / f), fmt(pb.force_xy[1] / f)]
-             for k, b in enumerate(sol.bolts) for pb in b.plies]
+    planes = [
+        [
+            *([str(k + 1)] if row else []),
+            str(p.index),
+            fmt(p.shear / f),
+            fmt(p.shear_xy[0] / f),
+            fmt(p.shear_xy[1] / f),
+            fmt(p.moment / mo),
+            f"{util[(k, p.index)]:.3f}" if (k, p.index) in util else "-",
+        ]
+        for k, b in enumerate(sol.bolts)
+        for p in b.planes
+    ]
+    plies = [
+        [
+            *([str(k + 1)] if row else []),
+            joint.plies[pb.ply].name,
+            joint.plies[pb.ply].member or "(filler)",
+            fmt(pb.force / f),
+            fmt(pb.force_xy[0] / f),
+            fmt(pb.force_xy[1] / f),
+        ]
+        for k, b in enumerate(sol.bolts)
+        for pb in b.plies
+    ]
     lead = "r" * len(first)
     return [
-        Table([*first, "plane", f"V [{lf}]", f"Vx [{lf}]", f"Vy [{lf}]", f"M [{lm}]",
-               "utilization"], planes, lead + "rrrrrr", "plane shears"),
-        Table([*first, "ply", "member", f"bearing [{lf}]", f"x [{lf}]", f"y [{lf}]"], plies,
-              lead + "llrrr", "ply bearings (force the bolt applies to the ply)"),
+        Table(
+            [*first, "plane", f"V [{lf}]", f"Vx [{lf}]", f"Vy [{lf}]", f"M [{lm}]", "utilization"],
+            planes,
+            lead + "rrrrrr",
+            "plane shears",
+        ),
+        Table(
+            [*first, "ply", "member", f"bearing [{lf}]", f"x [{lf}]", f"y [{lf}]"],
+            plies,
+            lead + "llrrr",
+            "ply bearings (force the bolt applies to the ply)",
+        ),
     ]
 
 
@@ -265,15 +353,34 @@ def check_rows(data: ReportData) -> Table:
             demand, capacity, unit = fmt(item.demand, 3), fmt(item.capacity, 3), ""
         else:
             k = u.factor(item.dimension)
-            demand, capacity, unit = (fmt(item.demand / k), fmt(item.capacity / k),
-                                      u.label(item.dimension))
+            demand, capacity, unit = (
+                fmt(item.demand / k),
+                fmt(item.capacity / k),
+                u.label(item.dimension),
+            )
         if item is gov:
             marked = i
         flag = "governing" if item is gov else ("informative" if item.informative else "")
-        rows.append([item.what, item.place(res.units), demand, capacity, unit,
-                     f"{item.utilization:.3f}", item.clause, flag, item.note])
-    return Table(["check", "where", "demand", "capacity", "unit", "utilization", "clause", "",
-                  "note"], rows, "llrrlrlll", "", marked)
+        rows.append(
+            [
+                item.what,
+                item.place(res.units),
+                demand,
+                capacity,
+                unit,
+                f"{item.utilization:.3f}",
+                item.clause,
+                flag,
+                item.note,
+            ]
+        )
+    return Table(
+        ["check", "where", "demand", "capacity", "unit", "utilization", "clause", "", "note"],
+        rows,
+        "llrrlrlll",
+        "",
+        marked,
+    )
 
 
 def check_verdict(data: ReportData) -> list[Para]:
@@ -285,9 +392,13 @@ def check_verdict(data: ReportData) -> list[Para]:
         out.append(Para(f"({res.unverified}): the demands cannot be trusted.", UNVERIFIED))
     elif gov is not None:
         verdict = "passes" if res.passes else "FAILS"
-        out.append(Para(f"The joint {verdict}: governing {gov.what} at "
-                        f"{gov.place(res.units)}, utilization {gov.utilization:.3f} "
-                        f"({gov.clause})."))
+        out.append(
+            Para(
+                f"The joint {verdict}: governing {gov.what} at "
+                f"{gov.place(res.units)}, utilization {gov.utilization:.3f} "
+                f"({gov.clause})."
+            )
+        )
     out += [Para(w, "Warning:") for w in res.warnings]
     return out
 
@@ -333,19 +444,38 @@ def sections(data: ReportData) -> list[Section]:
     length = data.units.label("length")
     out = [
         Section("Model", model_rows(data)),
-        Section("Loads, supports and reactions", [load_rows(data),
-                                                  *[Para(t) for t in loads_text(data)]]),
-        Section("Stack, shear, moment and bearing pressure along the bolt", [Graphic(
-            "stack", lambda: diagrams.solution_figure(data.solution,
-                                                      plane_utilization(res), pressure=True),
-            f"Elevation of the stack (dimensions in {length}) beside the bolt's shear (plane "
-            "shears with their utilization), bending moment and bearing pressure.",
-            landscape=True)]),
+        Section(
+            "Loads, supports and reactions", [load_rows(data), *[Para(t) for t in loads_text(data)]]
+        ),
+        Section(
+            "Stack, shear, moment and bearing pressure along the bolt",
+            [
+                Graphic(
+                    "stack",
+                    lambda: diagrams.solution_figure(
+                        data.solution, plane_utilization(res), pressure=True
+                    ),
+                    f"Elevation of the stack (dimensions in {length}) beside the bolt's shear "
+                    "(plane shears with their utilization), bending moment and bearing "
+                    "pressure.",
+                    landscape=True,
+                )
+            ],
+        ),
         Section("Results", result_rows(data)),
-        Section("Hand methods beside the model", [hand_table(data), Para(
-            "Ratio = model / hand method: above 1 the hand method understates the demand.")]),
-        Section(f"Design check: {res.edition}, {method_name(res)}; loads: {res.loads}",
-                [check_rows(data), *check_verdict(data)]),
+        Section(
+            "Hand methods beside the model",
+            [
+                hand_table(data),
+                Para(
+                    "Ratio = model / hand method: above 1 the hand method understates the demand."
+                ),
+            ],
+        ),
+        Section(
+            f"Design check: {res.edition}, {method_name(res)}; loads: {res.loads}",
+            [check_rows(data), *check_verdict(data)],
+        ),
         Section("Capacity and plane efficiency", capacity_blocks(data)),
         Section("Assumptions", [Items(assumptions(data))]),
     ]
@@ -368,44 +498,85 @@ def capacity_blocks(data: ReportData) -> list[Block]:
     f, lf = u.factor("force"), u.label("force")
     k, basis = cd.factor(joint)
     a = joint.analysis
-    answer = [Para(last_plane_line(data), "Does the last plane pay?")] \
-        if data.last_plane is not None else []
+    answer = (
+        [Para(last_plane_line(data), "Does the last plane pay?")]
+        if data.last_plane is not None
+        else []
+    )
     rows = []
     for name, label in cd.ANSWERS:
         ans = cap.answers[name]
         what = {"collapse": cd.mechanism_short(cap), "plastic": f"cut: {ans.where}"}.get(
-            name, f"{ans.event}, {cd.where(ans, joint)}")
-        rows.append([label, fmt(ans.load / f), fmt(ans.load * k / f),
-                     f"{cap.efficiency(ans.load):.2f}", what])
-    events = [[fmt(e.load / f), e.event, cd.where(Answer(e.load, e.event, e.where, e.z), joint)]
-              for e in cap.analysis.events]
+            name, f"{ans.event}, {cd.where(ans, joint)}"
+        )
+        rows.append(
+            [
+                label,
+                fmt(ans.load / f),
+                fmt(ans.load * k / f),
+                f"{cap.efficiency(ans.load):.2f}",
+                what,
+            ]
+        )
+    events = [
+        [fmt(e.load / f), e.event, cd.where(Answer(e.load, e.event, e.where, e.z), joint)]
+        for e in cap.analysis.events
+    ]
     s = cap.strengths
-    strengths = [[f"ply {p.name}", fmt(float(q) / f), r]
-                 for p, q, r in zip(joint.plies, s.ply_force, s.bearing_rule, strict=True)]
-    strengths += [[f"plane {i + 1}", fmt(float(v) / f),
-                   "0.62 fub As (threads)" if t else "0.62 fub Ab (shank)"]
-                  for i, (v, t) in enumerate(zip(s.plane, s.plane_threaded, strict=True))]
-    strengths.append(["bolt plastic moment (shank) fyb d³/6",
-                      f"{fmt(s.shank_moment / u.factor('moment'))} {u.label('moment')}", ""])
+    strengths = [
+        [f"ply {p.name}", fmt(float(q) / f), r]
+        for p, q, r in zip(joint.plies, s.ply_force, s.bearing_rule, strict=True)
+    ]
+    strengths += [
+        [
+            f"plane {i + 1}",
+            fmt(float(v) / f),
+            "0.62 fub As (threads)" if t else "0.62 fub Ab (shank)",
+        ]
+        for i, (v, t) in enumerate(zip(s.plane, s.plane_threaded, strict=True))
+    ]
+    strengths.append(
+        [
+            "bolt plastic moment (shank) fyb d³/6",
+            f"{fmt(s.shank_moment / u.factor('moment'))} {u.label('moment')}",
+            "",
+        ]
+    )
     return [
         *answer,
-        Para(f"Bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; nominal "
-             f"strengths; design = nominal × {k:.3g} ({basis}). {cap.planes} planes between "
-             f"members; one plane's rupture strength 0.62 fub A = "
-             f"{fmt(cap.plane_strength / f)} {lf}."),
-        Table(["answer", f"nominal [{lf}]", f"design [{lf}]", "efficiency",
-               "end event / mechanism"], rows, "lrrrl", "capacity answers"),
-        Para("Efficiency = load / (planes × one plane's strength): 1.00 means every plane "
-             "pulls its full weight. Collapse mechanism: "
-             + ("; ".join(cd.mechanism_parts(cap, joint)) or "no active constraint") + "."),
-        Table([f"load [{lf}]", "event", "where"], events, "rll",
-              f"nonlinear analysis, in order ({len(cap.analysis.history)} states, peak load "
-              f"{fmt(cap.analysis.peak / f)} {lf})"),
+        Para(
+            f"Bearing law {a.bearing}, bolt {a.bolt}, clearance {a.clearance}; nominal "
+            f"strengths; design = nominal × {k:.3g} ({basis}). {cap.planes} planes between "
+            f"members; one plane's rupture strength 0.62 fub A = "
+            f"{fmt(cap.plane_strength / f)} {lf}."
+        ),
+        Table(
+            ["answer", f"nominal [{lf}]", f"design [{lf}]", "efficiency", "end event / mechanism"],
+            rows,
+            "lrrrl",
+            "capacity answers",
+        ),
+        Para(
+            "Efficiency = load / (planes × one plane's strength): 1.00 means every plane "
+            "pulls its full weight. Collapse mechanism: "
+            + ("; ".join(cd.mechanism_parts(cap, joint)) or "no active constraint")
+            + "."
+        ),
+        Table(
+            [f"load [{lf}]", "event", "where"],
+            events,
+            "rll",
+            f"nonlinear analysis, in order ({len(cap.analysis.history)} states, peak load "
+            f"{fmt(cap.analysis.peak / f)} {lf})",
+        ),
         Table(["strength", f"nominal [{lf}]", "rule"], strengths, "lrl", "nominal strengths"),
         Para(cd.verdict(cap, joint, data.check).text),
         *[Para(n, "Note:") for n in cd.notes(cap, joint)],
-        Graphic("capacity", lambda: diagrams.capacity_figure(cap, joint),
-                "Load against slip and the plane shears against load."),
+        Graphic(
+            "capacity",
+            lambda: diagrams.capacity_figure(cap, joint),
+            "Load against slip and the plane shears against load.",
+        ),
     ]
 
 
@@ -415,10 +586,22 @@ def hand_table(data: ReportData) -> Table:
     rows = []
     for r in hand_rows(data.solution):
         k, unit = u.factor(r.dimension), u.label(r.dimension)
-        rows.append([r.method, "-" if r.hand is None else fmt(r.hand / k), fmt(r.model / k),
-                     unit, "-" if r.ratio is None else f"{r.ratio:.2f}", r.note])
-    return Table(["hand method", "hand", "model", "unit", "ratio", "how"], rows, "lrrlrl",
-                 "worst plane shear and largest bolt moment")
+        rows.append(
+            [
+                r.method,
+                "-" if r.hand is None else fmt(r.hand / k),
+                fmt(r.model / k),
+                unit,
+                "-" if r.ratio is None else f"{r.ratio:.2f}",
+                r.note,
+            ]
+        )
+    return Table(
+        ["hand method", "hand", "model", "unit", "ratio", "how"],
+        rows,
+        "lrrlrl",
+        "worst plane shear and largest bolt moment",
+    )
 
 
 def last_plane_line(data: ReportData) -> str:
@@ -431,8 +614,10 @@ def last_plane_line(data: ReportData) -> str:
     pct = 100.0 * lp.gain / lp.one_fewer
     share = 100.0 * lp.gain / lp.plane_strength
     word = "pays" if lp.pays else "does NOT pay"
-    return (f"plane {lp.planes} {word}: it adds {fmt(lp.gain / f)} {lf} ({pct:+.1f} %) to the "
-            f"nonlinear ultimate, {fmt(lp.with_all / f)} {lf} with {lp.planes} planes against "
-            f"{fmt(lp.one_fewer / f)} {lf} with the stack rebuilt with {lp.planes - 1} (each "
-            f"member keeping its total thickness): {share:.0f} % of one plane's rupture "
-            f"strength, {fmt(lp.plane_strength / f)} {lf}.")
+    return (
+        f"plane {lp.planes} {word}: it adds {fmt(lp.gain / f)} {lf} ({pct:+.1f} %) to the "
+        f"nonlinear ultimate, {fmt(lp.with_all / f)} {lf} with {lp.planes} planes against "
+        f"{fmt(lp.one_fewer / f)} {lf} with the stack rebuilt with {lp.planes - 1} (each "
+        f"member keeping its total thickness): {share:.0f} % of one plane's rupture "
+        f"strength, {fmt(lp.plane_strength / f)} {lf}."
+    )

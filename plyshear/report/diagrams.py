@@ -64,8 +64,7 @@ def _pin_plate_dimensions(joint: Joint, ply: Ply, ln: float) -> str:
     if joint.check.connector != "pin" or ply.edge is None or ply.width is None:
         return ""
     dh = pin_hole(joint)
-    return (f"  a {fmt((ply.edge - dh / 2.0) / ln, 3)}, "
-            f"c {fmt((ply.width - dh) / 2.0 / ln, 3)}")
+    return f"  a {fmt((ply.edge - dh / 2.0) / ln, 3)}, c {fmt((ply.width - dh) / 2.0 / ln, 3)}"
 
 
 def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) -> Axes:
@@ -88,12 +87,27 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
     width = 6.0 * d
     for j, ply in enumerate(joint.plies):
         fill, hatch = styles[ply.member]
-        ax.add_patch(Rectangle((-width / 2, starts[j]), width, ply.thickness / ln,
-                               facecolor=fill, edgecolor=INK, hatch=hatch, linewidth=0.8))
+        ax.add_patch(
+            Rectangle(
+                (-width / 2, starts[j]),
+                width,
+                ply.thickness / ln,
+                facecolor=fill,
+                edgecolor=INK,
+                hatch=hatch,
+                linewidth=0.8,
+            )
+        )
         label = ply.name if ply.member is None else f"{ply.name} ({ply.member})"
         label += _pin_plate_dimensions(joint, ply, ln) if dimensions else ""
-        ax.text(width / 2 + 0.3 * d, starts[j] + ply.thickness / ln / 2, label,
-                va="center", fontsize=7, color=INK)
+        ax.text(
+            width / 2 + 0.3 * d,
+            starts[j] + ply.thickness / ln / 2,
+            label,
+            va="center",
+            fontsize=7,
+            color=INK,
+        )
     grip = joint.grip / ln
     _draw_bolt(joint, ax, d, ln)
     _stack_legend(joint, ax, styles)
@@ -105,10 +119,22 @@ def plot_stack(joint: Joint, ax: Axes | None = None, dimensions: bool = True) ->
             if e - edges[-1] > 1e-9 * max(grip, 1.0):
                 edges.append(e)
         for a, b in zip(edges, edges[1:], strict=False):
-            ax.annotate("", (x_dim, a), (x_dim, b),
-                        arrowprops={"arrowstyle": "<->", "color": INK, "linewidth": 0.6})
-            ax.text(x_dim - 0.15 * d, 0.5 * (a + b), fmt(b - a, 3), rotation=90, fontsize=6,
-                    ha="right", va="center", color=INK)
+            ax.annotate(
+                "",
+                (x_dim, a),
+                (x_dim, b),
+                arrowprops={"arrowstyle": "<->", "color": INK, "linewidth": 0.6},
+            )
+            ax.text(
+                x_dim - 0.15 * d,
+                0.5 * (a + b),
+                fmt(b - a, 3),
+                rotation=90,
+                fontsize=6,
+                ha="right",
+                va="center",
+                color=INK,
+            )
     ax.axvline(0.0, color=INK, linewidth=0.5, linestyle="-.")
     ax.set_xlim(-width / 2 - (2.0 if dimensions else 1.0) * d, width / 2 + 4 * d)
     ax.set_ylim(*stack_ylim(joint))
@@ -137,35 +163,95 @@ def _draw_bolt(joint: Joint, ax: Axes, d: float, ln: float) -> None:
     grip = joint.grip / ln
     known = b.length is not None
     length = b.length / ln if b.length is not None else grip + 0.2 * d
-    ax.add_patch(Rectangle((-d / 2, 0.0), d, length, facecolor="none", edgecolor=INK,
-                           linewidth=1.2, linestyle="-" if known else "--"))
-    ax.add_patch(Rectangle((-0.8 * d, -0.6 * d), 1.6 * d, 0.6 * d, facecolor="#ffffff",
-                           edgecolor=INK, linewidth=1.0))  # the head (or the pin's collar)
+    ax.add_patch(
+        Rectangle(
+            (-d / 2, 0.0),
+            d,
+            length,
+            facecolor="none",
+            edgecolor=INK,
+            linewidth=1.2,
+            linestyle="-" if known else "--",
+        )
+    )
+    ax.add_patch(
+        Rectangle(
+            (-0.8 * d, -0.6 * d),
+            1.6 * d,
+            0.6 * d,
+            facecolor="#ffffff",
+            edgecolor=INK,
+            linewidth=1.0,
+        )
+    )  # the head (or the pin's collar)
     if known and b.thread_length:
         start = length - b.thread_length / ln
         ax.plot([-d / 2, d / 2], [start, start], color=INK, linewidth=1.0)
         for x in (-0.4 * d, 0.4 * d):
             ax.plot([x, x], [start, length], color=INK, linewidth=0.5, linestyle=":")
-        ax.text(0.0, start, "thread", fontsize=6, ha="center", va="bottom", color=INK,
-                bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.5})
+        ax.text(
+            0.0,
+            start,
+            "thread",
+            fontsize=6,
+            ha="center",
+            va="bottom",
+            color=INK,
+            bbox={"facecolor": "white", "edgecolor": "none", "pad": 0.5},
+        )
 
 
 def _stack_legend(joint: Joint, ax: Axes, styles: dict[str | None, tuple[str, str]]) -> None:
     """What each fill and hatching of the stack means: a member each, loose fillers/packs."""
     from matplotlib.lines import Line2D
 
-    handles: list[Any] = [Rectangle((0, 0), 1, 1, facecolor=styles[m.name][0],
-                                    hatch=styles[m.name][1], edgecolor=INK, linewidth=0.6,
-                                    label=f"member {m.name}") for m in joint.members]
+    handles: list[Any] = [
+        Rectangle(
+            (0, 0),
+            1,
+            1,
+            facecolor=styles[m.name][0],
+            hatch=styles[m.name][1],
+            edgecolor=INK,
+            linewidth=0.6,
+            label=f"member {m.name}",
+        )
+        for m in joint.members
+    ]
     if any(p.member is None for p in joint.plies):
         fill, hatch = styles[None]
-        handles.append(Rectangle((0, 0), 1, 1, facecolor=fill, hatch=hatch, edgecolor=INK,
-                                 linewidth=0.6, label="loose filler / pack (no member)"))
+        handles.append(
+            Rectangle(
+                (0, 0),
+                1,
+                1,
+                facecolor=fill,
+                hatch=hatch,
+                edgecolor=INK,
+                linewidth=0.6,
+                label="loose filler / pack (no member)",
+            )
+        )
     known = joint.bolt.length is not None
-    handles.append(Line2D([], [], color=INK, linewidth=1.2, linestyle="-" if known else "--",
-                          label="bolt to its length" if known else "bolt (length not given)"))
-    ax.legend(handles=handles, fontsize=6, frameon=False, loc="upper center",
-              bbox_to_anchor=(0.5, -0.02), ncol=1, handlelength=1.5)
+    handles.append(
+        Line2D(
+            [],
+            [],
+            color=INK,
+            linewidth=1.2,
+            linestyle="-" if known else "--",
+            label="bolt to its length" if known else "bolt (length not given)",
+        )
+    )
+    ax.legend(
+        handles=handles,
+        fontsize=6,
+        frameon=False,
+        loc="upper center",
+        bbox_to_anchor=(0.5, -0.02),
+        ncol=1,
+        handlelength=1.5,
+    )
 
 
 #: The sign rule printed on each diagram (the result records' own conventions).
@@ -177,9 +263,17 @@ SIGN_RULES = {
 
 
 def _sign_rule(ax: Axes, which: str) -> None:
-    ax.text(0.02, 0.01, SIGN_RULES[which], transform=ax.transAxes, fontsize=6, va="bottom",
-            ha="left", color="#444444",
-            bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.8, "pad": 0.5})
+    ax.text(
+        0.02,
+        0.01,
+        SIGN_RULES[which],
+        transform=ax.transAxes,
+        fontsize=6,
+        va="bottom",
+        ha="left",
+        color="#444444",
+        bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.8, "pad": 0.5},
+    )
 
 
 def _components(ax: Axes, joint: Joint, arr: np.ndarray, z: np.ndarray, k: float) -> None:
@@ -217,8 +311,13 @@ def _diagram(sol: Solution, which: str, ax: Axes | None, bolt: int, **kw: Any) -
     return ax
 
 
-def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0,
-               utilization: dict[int, float] | None = None, **kw: Any) -> Axes:
+def plot_shear(
+    solution: Solution,
+    ax: Axes | None = None,
+    bolt: int = 0,
+    utilization: dict[int, float] | None = None,
+    **kw: Any,
+) -> Axes:
     """Draw the bolt shear V(z) (signed resultant); plane shears are labelled.
 
     Args:
@@ -239,11 +338,17 @@ def plot_shear(solution: Solution, ax: Axes | None = None, bolt: int = 0,
         if utilization and p.index in utilization:
             label += f" ({utilization[p.index]:.2f})"
         right = v >= 0.0  # the label sits outside the curve: right of a positive peak
-        ax.annotate(label, (v / u.factor("force"), p.z / u.factor("length")), fontsize=7,
-                    xytext=(3 if right else -3, -3), textcoords="offset points", color=INK,
-                    ha="left" if right else "right", va="top",
-                    bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.85,
-                          "pad": 0.3})
+        ax.annotate(
+            label,
+            (v / u.factor("force"), p.z / u.factor("length")),
+            fontsize=7,
+            xytext=(3 if right else -3, -3),
+            textcoords="offset points",
+            color=INK,
+            ha="left" if right else "right",
+            va="top",
+            bbox={"facecolor": "white", "edgecolor": "none", "alpha": 0.85, "pad": 0.3},
+        )
     return ax
 
 
@@ -256,8 +361,9 @@ def plot_moment(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw:
     return _diagram(solution, "moment", ax, bolt, **kw)
 
 
-def plot_bearing_pressure(solution: Solution, ax: Axes | None = None, bolt: int = 0,
-                          **kw: Any) -> Axes:
+def plot_bearing_pressure(
+    solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: Any
+) -> Axes:
     """Draw the bearing pressure on the bolt, q(z) / d (force per unit length over d).
 
     The pressure is the bearing of the bolt on the plies (the ply-bearing table's
@@ -296,12 +402,16 @@ def _bearing_strengths(joint: Joint, ax: Axes, ln: float, st: float) -> None:
     for p, z0, qs in zip(joint.plies, starts, strength, strict=True):
         level = qs / joint.bolt.diameter / st
         for sign in (1.0, -1.0):
-            ax.plot([sign * level] * 2, [z0 / ln, (z0 + p.thickness) / ln], color=INK,
-                    linewidth=0.7, linestyle="--")
+            ax.plot(
+                [sign * level] * 2,
+                [z0 / ln, (z0 + p.thickness) / ln],
+                color=INK,
+                linewidth=0.7,
+                linestyle="--",
+            )
 
 
-def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0,
-                    **kw: Any) -> Axes:
+def plot_deflection(solution: Solution, ax: Axes | None = None, bolt: int = 0, **kw: Any) -> Axes:
     """Draw the bolt deflection w(z).
 
     Returns:
@@ -314,8 +424,9 @@ def _as_row(v: tuple[float, float]) -> Any:
     return np.array([v])
 
 
-def solution_figure(solution: Solution, utilization: dict[int, float] | None = None,
-                    pressure: bool = False) -> Figure:
+def solution_figure(
+    solution: Solution, utilization: dict[int, float] | None = None, pressure: bool = False
+) -> Figure:
     """Return the stack beside the bolt's shear and moment diagrams, on one z axis.
 
     Args:
@@ -389,12 +500,15 @@ def plot_load_slip(summary: CapacitySummary, joint: Joint, ax: Axes | None = Non
     slip = [s.slip / u.factor("length") for s in hist]
     load = [s.load / u.factor("force") for s in hist]
     ax.plot(slip, load, color=INK, linewidth=1.4, marker=".", markersize=3)
-    for answer, label, style in ((summary.collapse, "collapse (LP)", "-."),
-                                 (summary.plastic, "shear-only bound", "--")):
+    for answer, label, style in (
+        (summary.collapse, "collapse (LP)", "-."),
+        (summary.plastic, "shear-only bound", "--"),
+    ):
         level = answer.load / u.factor("force")
         ax.axhline(level, color=INK, linestyle=style, linewidth=0.8)
-        ax.annotate(label, (slip[-1], level), fontsize=7, xytext=(-70, 3),
-                    textcoords="offset points")
+        ax.annotate(
+            label, (slip[-1], level), fontsize=7, xytext=(-70, 3), textcoords="offset points"
+        )
     ax.plot([slip[-1]], [load[-1]], marker="x", color=INK)
     ax.set_xlabel(f"slip along the load [{u.label('length')}]")
     ax.set_ylabel(f"load [{u.label('force')}]")
@@ -419,10 +533,14 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
     for b in range(shear.shape[1]):
         for k in range(shear.shape[2]):
             label = f"bolt {b + 1} plane {k + 1}" if many else f"plane {k + 1}"
-            ax.plot(load, shear[:, b, k], color=INK,
-                    linestyle=LINESTYLES[k % len(LINESTYLES)],
-                    linewidth=1.2 if b in (0, shear.shape[1] - 1) else 0.5,
-                    label=label if (not many or b in (0, shear.shape[1] - 1)) else None)
+            ax.plot(
+                load,
+                shear[:, b, k],
+                color=INK,
+                linestyle=LINESTYLES[k % len(LINESTYLES)],
+                linewidth=1.2 if b in (0, shear.shape[1] - 1) else 0.5,
+                label=label if (not many or b in (0, shear.shape[1] - 1)) else None,
+            )
     ax.axhline(summary.plane_strength / f, color="#777777", linewidth=0.8)
     ax.set_xlabel(f"joint load [{u.label('force')}]")
     ax.set_ylabel(f"plane shear [{u.label('force')}]")
@@ -432,8 +550,7 @@ def plot_plane_shares(summary: CapacitySummary, joint: Joint, ax: Axes | None = 
     return ax
 
 
-def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
-                         ax: Axes | None = None) -> Axes:
+def plot_row_at_capacity(summary: CapacitySummary, joint: Joint, ax: Axes | None = None) -> Axes:
     """Each plane's shear along a bolt row at the first step and at capacity (scaled).
 
     Returns:
@@ -447,8 +564,15 @@ def plot_row_at_capacity(summary: CapacitySummary, joint: Joint,
     for state, style, when in ((hist[0], ":", "service"), (hist[-1], "-", "capacity")):
         share = state.plane_shear / state.load
         for k in range(share.shape[1]):
-            ax.plot(x, share[:, k], color=INK, linestyle=style, marker="os^vD"[k % 5],
-                    markersize=3, label=f"plane {k + 1}, {when}")
+            ax.plot(
+                x,
+                share[:, k],
+                color=INK,
+                linestyle=style,
+                marker="os^vD"[k % 5],
+                markersize=3,
+                label=f"plane {k + 1}, {when}",
+            )
     ax.set_xlabel(f"bolt position x [{u.label('length')}]")
     ax.set_ylabel("plane shear / joint load [-]")
     ax.set_title("share along the row", fontsize=9)
@@ -482,9 +606,12 @@ def planes_figure(rows: list[PlanesRow], joint: Joint) -> Figure:
     n = [r.planes for r in rows]
     fig = Figure(figsize=(10, 4.2), layout="constrained")
     axs = fig.subplots(1, 2)
-    marks = {"elastic": ("o", ":", "elastic"), "nonlinear": ("s", "-", "nonlinear"),
-             "collapse": ("D", "-.", "collapse (LP)"),
-             "plastic": ("^", "--", "shear-only bound")}
+    marks = {
+        "elastic": ("o", ":", "elastic"),
+        "nonlinear": ("s", "-", "nonlinear"),
+        "collapse": ("D", "-.", "collapse (LP)"),
+        "plastic": ("^", "--", "shear-only bound"),
+    }
     for key, (marker, style, label) in marks.items():
         loads = [r.summary.answers[key].load / f for r in rows]
         eff = [r.summary.efficiency(r.summary.answers[key].load) for r in rows]
@@ -521,26 +648,40 @@ def scatter_figure(result: ScatterResult, joint: Joint) -> Figure:
     fig = Figure(figsize=(10, 4.0), layout="constrained")
     axs = fig.subplots(1, 2)
     load = result.service_load / f
-    panels = ((axs[0], result.service_shear, "worst plane shear at the model's load",
-               load / result.planes, f"equal split {load / result.planes:.4g} {lf}"),
-              (axs[1], result.capacity, "capacity", load, f"model load {load:.4g} {lf}"))
+    panels = (
+        (
+            axs[0],
+            result.service_shear,
+            "worst plane shear at the model's load",
+            load / result.planes,
+            f"equal split {load / result.planes:.4g} {lf}",
+        ),
+        (axs[1], result.capacity, "capacity", load, f"model load {load:.4g} {lf}"),
+    )
     for ax, values, label, mark, mark_label in panels:
         finite = values[np.isfinite(values)] / f
         if finite.size:
-            ax.hist(finite, bins=min(30, max(5, finite.size // 10)), color="#bbbbbb",
-                    edgecolor=INK, linewidth=0.6)
+            ax.hist(
+                finite,
+                bins=min(30, max(5, finite.size // 10)),
+                color="#bbbbbb",
+                edgecolor=INK,
+                linewidth=0.6,
+            )
         ax.axvline(mark, color=INK, linestyle="--", linewidth=1.0, label=mark_label)
         ax.legend(fontsize=7, frameon=False)
         off = values.size - finite.size
         if off:
-            ax.set_title(f"{off} of {values.size} samples not drawn (no finite value)",
-                         fontsize=8)
+            ax.set_title(f"{off} of {values.size} samples not drawn (no finite value)", fontsize=8)
         ax.set_xlabel(f"{label} [{lf}]")
         ax.set_ylabel("samples [-]")
         style_axes(ax)
         ax.yaxis.set_major_locator(MaxNLocator(integer=True))
-    fig.suptitle(f"hole positions scattered within {result.clearance:.3g} mm clearance "
-                 f"({result.service_shear.size} samples)", fontsize=10)
+    fig.suptitle(
+        f"hole positions scattered within {result.clearance:.3g} mm clearance "
+        f"({result.service_shear.size} samples)",
+        fontsize=10,
+    )
     return fig
 
 
@@ -556,9 +697,15 @@ def plot_row(solution: Solution, ax: Axes | None = None) -> Axes:
     x = np.array([b.x for b in solution.bolts]) / u.factor("length")
     shear = np.array([[p.shear for p in b.planes] for b in solution.bolts]) / u.factor("force")
     for k in range(shear.shape[1]):
-        ax.plot(x, shear[:, k], color=INK, marker="os^vD"[k % 5],
-                linestyle=LINESTYLES[k % len(LINESTYLES)], linewidth=1.2,
-                label=f"plane {k + 1}")
+        ax.plot(
+            x,
+            shear[:, k],
+            color=INK,
+            marker="os^vD"[k % 5],
+            linestyle=LINESTYLES[k % len(LINESTYLES)],
+            linewidth=1.2,
+            label=f"plane {k + 1}",
+        )
     ax.set_xlabel(f"bolt position x [{u.label('length')}]")
     ax.set_ylabel(f"plane shear [{u.label('force')}]")
     ax.set_title("plane shears along the row", fontsize=9)

@@ -37,7 +37,6 @@ from plyshear.report.text import CAUTION
 __all__ = ["CAUTION_LONG", "ReportData", "build", "to_html", "to_pdf"]
 
 
-
 def build(sol: Solution) -> ReportData:
     """Check a solved joint and (where it converges) find its capacity, on this one solve."""
     joint = sol.joint
@@ -72,8 +71,10 @@ def html_table(t: Table) -> str:
     body = []
     for i, r in enumerate(t.rows):
         cls = ' class="governing"' if i == t.marked else ""
-        cells = "".join(f'<td class="{"num" if a == "r" else "txt"}">{_esc(c)}</td>'
-                        for c, a in zip(r, t.align, strict=True))
+        cells = "".join(
+            f'<td class="{"num" if a == "r" else "txt"}">{_esc(c)}</td>'
+            for c, a in zip(r, t.align, strict=True)
+        )
         body.append(f"<tr{cls}>{cells}</tr>")
     cap = f"<caption>{_esc(t.caption)}</caption>" if t.caption else ""
     return f"<table>{cap}<thead><tr>{head}</tr></thead><tbody>{''.join(body)}</tbody></table>"
@@ -86,7 +87,7 @@ def svg_inline(fig: Figure, name: str) -> str:
     input gives the same bytes, and two figures never share an id.
     """
     text = diagrams.figure_bytes(fig, "svg", salt=f"plyshear-{name}").decode("utf-8")
-    text = re.sub(r"<metadata>.*?</metadata>", "", text[text.find("<svg"):], flags=re.S)
+    text = re.sub(r"<metadata>.*?</metadata>", "", text[text.find("<svg") :], flags=re.S)
     # every id and reference prefixed: matplotlib names glyphs and groups alike in
     # every figure ("DejaVuSans-48", "figure_1"), and a page may hold one id once
     text = re.sub(r'\bid="([^"]+)"', rf'id="{name}-\1"', text)
@@ -99,8 +100,10 @@ def html_block(block: Block) -> str:
     if isinstance(block, Table):
         return html_table(block)
     if isinstance(block, Graphic):
-        return (f"<figure>{svg_inline(block.draw(), block.name)}"
-                f"<figcaption>{_esc(block.caption)}</figcaption></figure>")
+        return (
+            f"<figure>{svg_inline(block.draw(), block.name)}"
+            f"<figcaption>{_esc(block.caption)}</figcaption></figure>"
+        )
     if isinstance(block, Items):
         return "<ul>" + "".join(f"<li>{_esc(i)}</li>" for i in block.items) + "</ul>"
     if block.strong == "pre":
@@ -127,14 +130,17 @@ def to_html(data: ReportData) -> str:
     """Return the report as one self-contained HTML document."""
     joint = data.joint
     title = joint.title or str(joint.source)
-    parts = ["<!DOCTYPE html>", '<html lang="en"><head><meta charset="utf-8">',
-             f"<title>{_esc(title)}</title><style>{CSS}</style></head><body>",
-             f"<h1>{_esc(title)}</h1>"]
+    parts = [
+        "<!DOCTYPE html>",
+        '<html lang="en"><head><meta charset="utf-8">',
+        f"<title>{_esc(title)}</title><style>{CSS}</style></head><body>",
+        f"<h1>{_esc(title)}</h1>",
+    ]
     if joint.project:
-        parts.append(f"<p class=\"project\">{_esc(joint.project)}</p>")
+        parts.append(f'<p class="project">{_esc(joint.project)}</p>')
     parts.append(f'<p class="caution"><strong>Caution.</strong> {_esc(CAUTION_LONG)}</p>')
     for n, section in enumerate(sections(data), start=1):
-        parts.append(f'<section><h2>{n} {_esc(section.heading)}</h2>')
+        parts.append(f"<section><h2>{n} {_esc(section.heading)}</h2>")
         parts += [html_block(b) for b in section.blocks]
         parts.append("</section>")
     parts.append(f'<p class="caution">{_esc(CAUTION)}</p></body></html>')

@@ -15,13 +15,35 @@ from typing import Any
 #: Every table's columns, in order. A CSV has the union, with ``table`` first.
 COLUMNS: dict[str, tuple[str, ...]] = {
     "units": ("quantity", "unit"),
-    "plane": ("bolt", "x", "index", "z", "above", "below", "shear", "shear_x", "shear_y",
-              "moment", "moment_x", "moment_y", "threads"),
+    "plane": (
+        "bolt",
+        "x",
+        "index",
+        "z",
+        "above",
+        "below",
+        "shear",
+        "shear_x",
+        "shear_y",
+        "moment",
+        "moment_x",
+        "moment_y",
+        "threads",
+    ),
     "ply": ("bolt", "x", "name", "member", "bearing", "bearing_x", "bearing_y"),
-    "member": ("name", "support", "reaction_x", "reaction_y", "displacement_x",
-               "displacement_y"),
-    "check": ("what", "where", "demand", "capacity", "unit", "utilization", "clause",
-              "informative", "governing", "note"),
+    "member": ("name", "support", "reaction_x", "reaction_y", "displacement_x", "displacement_y"),
+    "check": (
+        "what",
+        "where",
+        "demand",
+        "capacity",
+        "unit",
+        "utilization",
+        "clause",
+        "informative",
+        "governing",
+        "note",
+    ),
     "capacity": ("answer", "load", "design_load", "efficiency", "event", "where"),
 }
 #: The capacity answers exported, in order.
@@ -33,38 +55,75 @@ def tables(result: dict[str, Any]) -> dict[str, list[dict[str, Any]]]:
     """The JSON result as tables of rows (a dict per row), only those it has."""
     out: dict[str, list[dict[str, Any]]] = {
         "units": [{"quantity": k, "unit": v} for k, v in result["units"].items()],
-        "plane": [], "ply": [],
-        "member": [{"name": m["name"], "support": m.get("support", False),
-                    "reaction_x": m["reaction_xy"][0], "reaction_y": m["reaction_xy"][1],
-                    "displacement_x": m["displacement_xy"][0],
-                    "displacement_y": m["displacement_xy"][1]} for m in result["members"]],
+        "plane": [],
+        "ply": [],
+        "member": [
+            {
+                "name": m["name"],
+                "support": m.get("support", False),
+                "reaction_x": m["reaction_xy"][0],
+                "reaction_y": m["reaction_xy"][1],
+                "displacement_x": m["displacement_xy"][0],
+                "displacement_y": m["displacement_xy"][1],
+            }
+            for m in result["members"]
+        ],
     }
     for k, b in enumerate(result["bolts"], start=1):
         for p in b["planes"]:
-            out["plane"].append({
-                "bolt": k, "x": b["x"], "index": p["index"], "z": p["z"], "above": p["above"],
-                "below": p["below"], "shear": p["shear"], "shear_x": p["shear_xy"][0],
-                "shear_y": p["shear_xy"][1], "moment": p["moment"],
-                "moment_x": p["moment_xy"][0], "moment_y": p["moment_xy"][1],
-                "threads": p["threads"]})
+            out["plane"].append(
+                {
+                    "bolt": k,
+                    "x": b["x"],
+                    "index": p["index"],
+                    "z": p["z"],
+                    "above": p["above"],
+                    "below": p["below"],
+                    "shear": p["shear"],
+                    "shear_x": p["shear_xy"][0],
+                    "shear_y": p["shear_xy"][1],
+                    "moment": p["moment"],
+                    "moment_x": p["moment_xy"][0],
+                    "moment_y": p["moment_xy"][1],
+                    "threads": p["threads"],
+                }
+            )
         for p in b["plies"]:
-            out["ply"].append({"bolt": k, "x": b["x"], "name": p["name"],
-                               "member": p["member"] or "", "bearing": p["bearing"],
-                               "bearing_x": p["bearing_xy"][0], "bearing_y": p["bearing_xy"][1]})
+            out["ply"].append(
+                {
+                    "bolt": k,
+                    "x": b["x"],
+                    "name": p["name"],
+                    "member": p["member"] or "",
+                    "bearing": p["bearing"],
+                    "bearing_x": p["bearing_xy"][0],
+                    "bearing_y": p["bearing_xy"][1],
+                }
+            )
     if "check" in result:
         gov = result["check"]["governing"]
-        out["check"] = [{**{c: item.get(c) for c in COLUMNS["check"]},
-                         "governing": gov is not None and item["what"] == gov["what"]
-                         and item["where"] == gov["where"]}
-                        for item in result["check"]["items"]]
+        out["check"] = [
+            {
+                **{c: item.get(c) for c in COLUMNS["check"]},
+                "governing": gov is not None
+                and item["what"] == gov["what"]
+                and item["where"] == gov["where"],
+            }
+            for item in result["check"]["items"]
+        ]
     if "capacity" in result:
         cap = result["capacity"]
-        out["capacity"] = [{"answer": name, "load": cap[name]["load"],
-                            "design_load": cap[name]["design_load"],
-                            "efficiency": cap["efficiency"][name],
-                            "event": cap[name].get("event", ""),
-                            "where": cap[name].get("where", "; ".join(cap[name].get("cut", [])))}
-                           for name in ANSWERS]
+        out["capacity"] = [
+            {
+                "answer": name,
+                "load": cap[name]["load"],
+                "design_load": cap[name]["design_load"],
+                "efficiency": cap["efficiency"][name],
+                "event": cap[name].get("event", ""),
+                "where": cap[name].get("where", "; ".join(cap[name].get("cut", []))),
+            }
+            for name in ANSWERS
+        ]
     return out
 
 

@@ -23,5 +23,6 @@ def require(module: str, extra: str) -> ModuleType:
     try:
         return importlib.import_module(module)
     except ImportError:
-        raise MissingExtraError(f"this needs the optional package {module!r}: "
-                           f"pip install 'plyshear[{extra}]'") from None
+        raise MissingExtraError(
+            f"this needs the optional package {module!r}: pip install 'plyshear[{extra}]'"
+        ) from None

@@ -80,8 +80,9 @@ def thickness_split(sol: Solution) -> float | None:
         forces[m.name] = np.array(res.reaction_xy if m.support else m.load, dtype=float)
     if not any(np.hypot(*f) > 0 for f in forces.values()):
         return None
-    thick = {m.name: sum(p.thickness for p in joint.plies if p.member == m.name)
-             for m in joint.members}
+    thick = {
+        m.name: sum(p.thickness for p in joint.plies if p.member == m.name) for m in joint.members
+    }
     running, worst = np.zeros(2), 0.0
     for ply in joint.plies[:-1]:
         if ply.member is not None:
@@ -97,8 +98,14 @@ def fork_geometry(joint: Joint) -> tuple[float, float, float] | str:
     them); c: the larger gap between an outer ply and the inner member.
     """
     runs = [(m, list(g)) for m, g in groupby(joint.plies, key=lambda p: p.member)]
-    if len(runs) != 3 or runs[0][0] != runs[2][0] or runs[0][0] is None or runs[1][0] is None \
-            or len(runs[0][1]) != 1 or len(runs[2][1]) != 1:
+    if (
+        len(runs) != 3
+        or runs[0][0] != runs[2][0]
+        or runs[0][0] is None
+        or runs[1][0] is None
+        or len(runs[0][1]) != 1
+        or len(runs[2][1]) != 1
+    ):
         return "the stack is not one inner member between two outer plies"
     inner = runs[1][1]
     a = max(runs[0][1][0].thickness, runs[2][1][0].thickness)
@@ -122,19 +129,44 @@ def hand_rows(sol: Solution) -> list[HandRow]:
     worst = max(p.shear for b in sol.bolts for p in b.planes)
     largest = max(b.max_moment for b in sol.bolts)
     n = member_planes(joint)
-    rows = [HandRow("equal split (total / planes)", "force", equal_split(joint), worst,
-                    f"{n} planes between members"),
-            HandRow("split in proportion to ply thickness", "force", thickness_split(sol),
-                    worst, "each member's force shared by its plies' thickness")]
+    rows = [
+        HandRow(
+            "equal split (total / planes)",
+            "force",
+            equal_split(joint),
+            worst,
+            f"{n} planes between members",
+        ),
+        HandRow(
+            "split in proportion to ply thickness",
+            "force",
+            thickness_split(sol),
+            worst,
+            "each member's force shared by its plies' thickness",
+        ),
+    ]
     moment = table_3_10_moment(joint)
     if isinstance(moment, str):
-        rows.append(HandRow("EN 1993-1-8 Table 3.10 moment F(b + 4c + 2a)/8", "moment", None,
-                            largest, f"not applicable: {moment}"))
+        rows.append(
+            HandRow(
+                "EN 1993-1-8 Table 3.10 moment F(b + 4c + 2a)/8",
+                "moment",
+                None,
+                largest,
+                f"not applicable: {moment}",
+            )
+        )
     else:
         a, b, c = fork_geometry(joint)  # type: ignore[misc, str-unpack]
-        rows.append(HandRow("EN 1993-1-8 Table 3.10 moment F(b + 4c + 2a)/8", "moment", moment,
-                            largest, f"a = {a:g}, b = {b:g}, c = {c:g} mm (a: the thicker "
-                                     "outer ply)"))
+        rows.append(
+            HandRow(
+                "EN 1993-1-8 Table 3.10 moment F(b + 4c + 2a)/8",
+                "moment",
+                moment,
+                largest,
+                f"a = {a:g}, b = {b:g}, c = {c:g} mm (a: the thicker outer ply)",
+            )
+        )
     return rows
 
 

@@ -42,8 +42,9 @@ def _today() -> str:
 def _solution_rows(sol: Solution, table: str) -> list[dict[str, Any]]:
     from plyshear.report.export import tables
 
-    return tables(sol.to_dict(diagram=False))[{"planes": "plane", "plies": "ply",
-                                                "members": "member"}[table]]
+    return tables(sol.to_dict(diagram=False))[
+        {"planes": "plane", "plies": "ply", "members": "member"}[table]
+    ]
 
 
 def _check_rows(res: CheckResult) -> list[dict[str, Any]]:
@@ -51,9 +52,14 @@ def _check_rows(res: CheckResult) -> list[dict[str, Any]]:
 
     data = res.to_dict()
     gov = data["governing"]
-    return [{**{c: item.get(c) for c in COLUMNS["check"]},
-             "governing": gov is not None and (item["what"], item["where"]) ==
-             (gov["what"], gov["where"])} for item in data["items"]]
+    return [
+        {
+            **{c: item.get(c) for c in COLUMNS["check"]},
+            "governing": gov is not None
+            and (item["what"], item["where"]) == (gov["what"], gov["where"]),
+        }
+        for item in data["items"]
+    ]
 
 
 def _capacity_rows(cap: CapacitySummary, table: str) -> list[dict[str, Any]]:
@@ -86,8 +92,9 @@ def to_frame(obj: Solution | CheckResult | CapacitySummary, table: str | None = 
     names = FRAMES[kind]
     table = table or names[0]
     if table not in names:
-        raise ValueError(f"{kind}.to_frame: table must be one of {', '.join(names)} "
-                         f"(got {table!r})")
+        raise ValueError(
+            f"{kind}.to_frame: table must be one of {', '.join(names)} (got {table!r})"
+        )
     if isinstance(obj, Solution):
         rows = _solution_rows(obj, table)
     elif isinstance(obj, CheckResult):
@@ -97,14 +104,12 @@ def to_frame(obj: Solution | CheckResult | CapacitySummary, table: str | None = 
     return pd.DataFrame(rows)
 
 
-def _data(sol: Solution, res: CheckResult | None = None,
-          cap: CapacitySummary | None = None) -> Any:
+def _data(sol: Solution, res: CheckResult | None = None, cap: CapacitySummary | None = None) -> Any:
     from plyshear.codes.check import check
     from plyshear.report.content import ReportData
 
     joint = sol.joint
-    return ReportData(joint, sol, res if res is not None else check(sol), cap, "",
-                      _today())
+    return ReportData(joint, sol, res if res is not None else check(sol), cap, "", _today())
 
 
 def solution_html(sol: Solution) -> str:
@@ -125,14 +130,28 @@ def check_html(res: CheckResult) -> str:
     from plyshear.report.content import Table
     from plyshear.report.document import html_table
 
-    rows = [[r["what"], r["where"], f"{r['demand']:.4g}", f"{r['capacity']:.4g}", r["unit"],
-             f"{r['utilization']:.3f}", r["clause"]] for r in _check_rows(res)]
+    rows = [
+        [
+            r["what"],
+            r["where"],
+            f"{r['demand']:.4g}",
+            f"{r['capacity']:.4g}",
+            r["unit"],
+            f"{r['utilization']:.3f}",
+            r["clause"],
+        ]
+        for r in _check_rows(res)
+    ]
     order = sorted(range(len(rows)), key=lambda i: -float(rows[i][5]))
     gov = next((k for k, i in enumerate(order) if _check_rows(res)[i]["governing"]), None)
     verdict = "passes" if res.passes else "FAILS"
-    table = Table(["check", "where", "demand", "capacity", "unit", "utilization", "clause"],
-                  [rows[i] for i in order], "llrrlrl", f"{res.edition}: the joint {verdict}",
-                  gov)
+    table = Table(
+        ["check", "where", "demand", "capacity", "unit", "utilization", "clause"],
+        [rows[i] for i in order],
+        "llrrlrl",
+        f"{res.edition}: the joint {verdict}",
+        gov,
+    )
     return html_table(table)
 
 
@@ -152,8 +171,11 @@ def _esc(text: object) -> str:
 
 def _attach() -> None:
     """Give the result classes their notebook methods."""
-    for cls, render in ((Solution, solution_html), (CheckResult, check_html),
-                        (CapacitySummary, capacity_html)):
+    for cls, render in (
+        (Solution, solution_html),
+        (CheckResult, check_html),
+        (CapacitySummary, capacity_html),
+    ):
         setattr(cls, "_repr_html_", render)  # noqa: B010 (the classes are not report's)
         setattr(cls, "to_frame", to_frame)  # noqa: B010
 

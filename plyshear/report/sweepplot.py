@@ -35,8 +35,15 @@ def response_dimension(response: str) -> str | None:
     return None
 
 
-def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
-                 fixed: dict[str, Any], response: str, units: str, title: str = "") -> Figure:
+def sweep_figure(
+    rows: Sequence[dict[str, Any]],
+    x: str,
+    series: str | None,
+    fixed: dict[str, Any],
+    response: str,
+    units: str,
+    title: str = "",
+) -> Figure:
     """Plot ``response`` against key ``x``, one line per value of key ``series``.
 
     Args:
@@ -57,33 +64,53 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
         raise ValueError(f"cannot plot {response!r}")
     u = _units.system(units)
     label = response.replace("_", " ") + ("" if dim == "ratio" else f" [{u.label(dim)}]")
-    keep = [r for r in rows if not r.get("error") and r.get(response) is not None
-            and all(r.get(k) == v for k, v in fixed.items())]
+    keep = [
+        r
+        for r in rows
+        if not r.get("error")
+        and r.get(response) is not None
+        and all(r.get(k) == v for k, v in fixed.items())
+    ]
     xs = _distinct((r[x] for r in keep), key_dimension(x))
     numeric = all(isinstance(v, int | float) and not isinstance(v, bool) for v in xs)
     pos = {v: (v if numeric else i) for i, v in enumerate(xs)}
     fig = Figure(figsize=(7.0, 4.2), layout="constrained")
     ax = fig.subplots()
     groups = _distinct((r[series] for r in keep), key_dimension(series)) if series else [None]
-    if series and len(groups) > MAX_LINES and numeric and \
-            all(isinstance(v, int | float) for v in groups):
+    if (
+        series
+        and len(groups) > MAX_LINES
+        and numeric
+        and all(isinstance(v, int | float) for v in groups)
+    ):
         import numpy as np
 
         grid = np.full((len(groups), len(xs)), np.nan)
         for r in keep:
             grid[groups.index(r[series]), xs.index(r[x])] = r[response]
-        mesh = ax.pcolormesh(np.array(xs, dtype=float), np.array(groups, dtype=float), grid,
-                             shading="nearest", cmap="viridis")
+        mesh = ax.pcolormesh(
+            np.array(xs, dtype=float),
+            np.array(groups, dtype=float),
+            grid,
+            shading="nearest",
+            cmap="viridis",
+        )
         fig.colorbar(mesh, ax=ax, label=label)
         ax.set_ylabel(key_label(series, units))
     else:
         for n, g in enumerate(groups):
-            pts = sorted((pos[r[x]], r[response]) for r in keep
-                         if series is None or r[series] == g)
-            ax.plot([p[0] for p in pts], [p[1] for p in pts], color=INK,
-                     marker=_MARKERS[n % len(_MARKERS)], linestyle="-", linewidth=1.0,
-                     markersize=4, alpha=1.0 - 0.6 * n / max(len(groups), 1),
-                     label=None if series is None else f"{series} = {g}")
+            pts = sorted((pos[r[x]], r[response]) for r in keep if series is None or r[series] == g)
+            ax.plot(
+                [p[0] for p in pts],
+                [p[1] for p in pts],
+                color=INK,
+                marker=_MARKERS[n % len(_MARKERS)],
+                linestyle="-",
+                linewidth=1.0,
+                markersize=4,
+                alpha=1.0 - 0.6 * n / max(len(groups), 1),
+                label=None if series is None else f"{series} = {g}",
+            )
         ax.set_ylabel(label)
         if response == "utilization":
             ax.axhline(1.0, color="#aa0000", linewidth=0.8, linestyle="--")
@@ -101,12 +128,27 @@ def sweep_figure(rows: Sequence[dict[str, Any]], x: str, series: str | None,
 
 
 #: The dimension of the values of a key, by its last part (for the axis label).
-KEY_DIMENSIONS = {"diameter": "length", "length": "length", "thread_length": "length",
-                  "thickness": "length", "gap": "length", "edge": "length", "width": "length",
-                  "pitch": "length", "hole_offset": "length", "hole_clearance": "length",
-                  "joint_length": "length", "load": "force", "pretension": "force",
-                  "tension": "force", "fy": "stress", "fu": "stress", "E": "stress",
-                  "foundation_modulus": "stress", "link_stiffness": "stiffness"}
+KEY_DIMENSIONS = {
+    "diameter": "length",
+    "length": "length",
+    "thread_length": "length",
+    "thickness": "length",
+    "gap": "length",
+    "edge": "length",
+    "width": "length",
+    "pitch": "length",
+    "hole_offset": "length",
+    "hole_clearance": "length",
+    "joint_length": "length",
+    "load": "force",
+    "pretension": "force",
+    "tension": "force",
+    "fy": "stress",
+    "fu": "stress",
+    "E": "stress",
+    "foundation_modulus": "stress",
+    "link_stiffness": "stiffness",
+}
 
 
 def key_label(key: str, units: str) -> str:

@@ -27,9 +27,15 @@ PAPERS = {"letter": "us-letter", "a4": "a4"}
 #: Page margins, mm (the title block sits in the top margin).
 MARGIN_X, MARGIN_TOP, MARGIN_BOTTOM = 18.0, 38.0, 16.0
 #: The title block's fields, from the model's top-level keys, in print order.
-TITLE_FIELDS = (("project", "Project"), ("job", "Job"), ("subject", "Subject"),
-                ("prepared_by", "Prepared by"), ("checked_by", "Checked by"),
-                ("revision", "Revision"), ("date", "Date"))
+TITLE_FIELDS = (
+    ("project", "Project"),
+    ("job", "Job"),
+    ("subject", "Subject"),
+    ("prepared_by", "Prepared by"),
+    ("checked_by", "Checked by"),
+    ("revision", "Revision"),
+    ("date", "Date"),
+)
 
 
 def paper_for(units: str, paper: str | None = None) -> str:
@@ -71,14 +77,23 @@ def _header(data: ReportData) -> str:
     title = data.joint.title or str(data.joint.source)
 
     def cell(key: str, label: str, span: int = 1) -> str:
-        return (f"grid.cell(colspan: {span})[#text(size: 6pt, fill: luma(90))[#{lit(label)}]"
-                f" \\ #{lit(values[key])}]")
+        return (
+            f"grid.cell(colspan: {span})[#text(size: 6pt, fill: luma(90))[#{lit(label)}]"
+            f" \\ #{lit(values[key])}]"
+        )
 
-    page = ('grid.cell[#text(size: 6pt, fill: luma(90))[#"Page"] \\ '
-            '#context [#counter(page).display() #" of " #counter(page).final().first()]]')
-    cells = [f"grid.cell(colspan: 3)[#strong({lit(title)})]", page,
-             cell("project", "Project", 2), cell("job", "Job"), cell("subject", "Subject"),
-             *(cell(k, label) for k, label in TITLE_FIELDS[3:])]
+    page = (
+        'grid.cell[#text(size: 6pt, fill: luma(90))[#"Page"] \\ '
+        '#context [#counter(page).display() #" of " #counter(page).final().first()]]'
+    )
+    cells = [
+        f"grid.cell(colspan: 3)[#strong({lit(title)})]",
+        page,
+        cell("project", "Project", 2),
+        cell("job", "Job"),
+        cell("subject", "Subject"),
+        *(cell(k, label) for k, label in TITLE_FIELDS[3:]),
+    ]
     return (
         "#set page(header: [#set text(size: 8pt)\n"
         f"#grid(columns: (1fr,) * 4, stroke: 0.5pt, inset: 3pt, {', '.join(cells)})\n], "
@@ -93,12 +108,13 @@ def _table(t: Table) -> str:
     for i, row in enumerate(t.rows):
         for c in row:
             cells.append(f"strong({lit(c)})" if i == t.marked else lit(c))
-    fill = f"(x, y) => if y == {t.marked + 1} {{ luma(225) }}" if t.marked is not None else \
-        "none"
+    fill = f"(x, y) => if y == {t.marked + 1} {{ luma(225) }}" if t.marked is not None else "none"
     cap = f"#block(above: 0.8em, below: 0.3em)[#strong({lit(t.caption)})]\n" if t.caption else ""
-    return (f"{cap}#table(columns: {len(t.headers)}, align: ({cols},), fill: {fill}, "
-            f"stroke: 0.4pt + luma(120), inset: (x: 3pt, y: 2pt), "
-            f"table.header({head}), {', '.join(cells)})\n")
+    return (
+        f"{cap}#table(columns: {len(t.headers)}, align: ({cols},), fill: {fill}, "
+        f"stroke: 0.4pt + luma(120), inset: (x: 3pt, y: 2pt), "
+        f"table.header({head}), {', '.join(cells)})\n"
+    )
 
 
 def _block(block: Block, files: dict[str, bytes]) -> str:
@@ -110,8 +126,10 @@ def _block(block: Block, files: dict[str, bytes]) -> str:
         name = f"{block.name}.svg"
         files[name] = diagrams.figure_bytes(block.draw(), "svg", salt=f"plyshear-{block.name}")
         height = "80%" if block.landscape else "40%"
-        return (f"#figure(image({lit(name)}, width: 100%, height: {height}, fit: \"contain\"), "
-                f"caption: [#{lit(block.caption)}])\n")
+        return (
+            f'#figure(image({lit(name)}, width: 100%, height: {height}, fit: "contain"), '
+            f"caption: [#{lit(block.caption)}])\n"
+        )
     if isinstance(block, Items):
         return "".join(f"- #{lit(i)}\n" for i in block.items) + "\n"
     if block.strong == "pre":
@@ -139,14 +157,12 @@ def markup(data: ReportData, paper: str | None = None) -> tuple[str, dict[str, b
         "#show table: set text(size: 8pt)",
         "#show raw: set text(size: 7pt)",
         "#show heading: set block(above: 1.2em, below: 0.6em)",
-        "#set heading(numbering: \"1\")",
+        '#set heading(numbering: "1")',
         _header(data),
-        f"#block(stroke: 1pt, inset: 6pt, width: 100%)[#strong(\"Caution.\") "
-        f"#{lit(CAUTION_LONG)}]",
+        f'#block(stroke: 1pt, inset: 6pt, width: 100%)[#strong("Caution.") #{lit(CAUTION_LONG)}]',
     ]
     for section in sections(data):
-        body = f"= #{lit(section.heading)}\n" + "".join(_block(b, files)
-                                                      for b in section.blocks)
+        body = f"= #{lit(section.heading)}\n" + "".join(_block(b, files) for b in section.blocks)
         wide = any(isinstance(b, Graphic) and b.landscape for b in section.blocks)
         out.append(f"#page(flipped: true)[\n{body}]\n" if wide else body)
     out.append(f"#block(stroke: 1pt, inset: 6pt, width: 100%)[#{lit(CAUTION)}]")
@@ -173,8 +189,9 @@ def to_pdf(data: ReportData, paper: str | None = None) -> bytes:
             (root / name).write_bytes(payload)
         main = root / "report.typ"
         main.write_text(text, encoding="utf-8")
-        return typst.compile(str(main), root=str(root), ignore_system_fonts=True,
-                             timestamp=_timestamp(data.created))
+        return typst.compile(
+            str(main), root=str(root), ignore_system_fonts=True, timestamp=_timestamp(data.created)
+        )
 
 
 def _timestamp(created: str) -> int:

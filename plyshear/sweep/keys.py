@@ -54,9 +54,25 @@ MAX_CASES_BYTES = 64_000_000
 RANGE_TOL = 1e-9
 
 #: Keys whose values are names: ``8.8`` stays the text "8.8", not a number.
-NAME_KEYS = frozenset({"grade", "steel", "threads", "ends", "hole", "bearing", "beam",
-                       "clearance", "standard", "method", "connector", "slip_class",
-                       "fillers", "enters", "member"})
+NAME_KEYS = frozenset(
+    {
+        "grade",
+        "steel",
+        "threads",
+        "ends",
+        "hole",
+        "bearing",
+        "beam",
+        "clearance",
+        "standard",
+        "method",
+        "connector",
+        "slip_class",
+        "fillers",
+        "enters",
+        "member",
+    }
+)
 
 _PLY_INDEX = re.compile(r"^ply\[([0-9]{1,9})\]$")
 _NUMBER = re.compile(r"^[+-]?([0-9]+\.?[0-9]*|\.[0-9]+)([eE][+-]?[0-9]+)?$")
@@ -111,8 +127,11 @@ def parse_key(text: str, data: Mapping[str, Any]) -> Key:
         return Key(text, ("ply", index - 1, *_leaf(text, rest, "ply")))
     if head not in TABLE_KEYS:
         hint = difflib.get_close_matches(head, [*TABLE_KEYS, "ply[1]"], n=1)
-        extra = f"; did you mean '{hint[0]}'?" if hint else \
-            f"; vary one of {', '.join(TABLE_KEYS)} (ply as ply[N] or ply.NAME)"
+        extra = (
+            f"; did you mean '{hint[0]}'?"
+            if hint
+            else f"; vary one of {', '.join(TABLE_KEYS)} (ply as ply[N] or ply.NAME)"
+        )
         raise SweepError(f"{text}: unknown table '{head}'{extra}")
     if head == "ply":
         if len(rest) != 2:
@@ -139,8 +158,9 @@ def parse_key(text: str, data: Mapping[str, Any]) -> Key:
 def _leaf(text: str, rest: list[str], table: str) -> tuple[str]:
     allowed = TABLE_KEYS[table]
     if len(rest) != 1:
-        raise SweepError(f"{text}: expected one key after the {table} table "
-                         f"(one of {', '.join(allowed)})")
+        raise SweepError(
+            f"{text}: expected one key after the {table} table (one of {', '.join(allowed)})"
+        )
     if rest[0] == "name" and table == "ply":
         raise SweepError(f"{text}: a ply's name cannot be varied")
     if rest[0] not in allowed:
@@ -198,8 +218,12 @@ def _split(text: str) -> list[str]:
 
 
 def _is_range(key: Key, text: str) -> bool:
-    return (":" in text and "[" not in text and not any(q in text for q in "\"'")
-            and key.path[-1] not in NAME_KEYS)
+    return (
+        ":" in text
+        and "[" not in text
+        and not any(q in text for q in "\"'")
+        and key.path[-1] not in NAME_KEYS
+    )
 
 
 def count_values(key: Key, text: str) -> int:
@@ -231,8 +255,10 @@ def _range_spec(key: str, text: str) -> tuple[float, float, int, bool]:
     """``(start, step, count, integral)`` of a range ``start:stop[:step]``."""
     parts = text.split(":")
     if len(parts) not in (2, 3) or not all(_NUMBER.match(p.strip()) for p in parts):
-        raise SweepError(f"{key}: a range is start:stop or start:stop:step with plain "
-                         f"numbers (got {_cut(text)!r})")
+        raise SweepError(
+            f"{key}: a range is start:stop or start:stop:step with plain "
+            f"numbers (got {_cut(text)!r})"
+        )
     nums = [float(p) for p in parts]
     start, stop = nums[0], nums[1]
     step = nums[2] if len(nums) == 3 else (1.0 if stop >= start else -1.0)
@@ -245,8 +271,7 @@ def _range_spec(key: str, text: str) -> tuple[float, float, int, bool]:
         raise SweepError(f"{key}: the range {text!r} has more than {MAX_CASES} values")
     count = int(math.floor(steps + RANGE_TOL)) + 1
     if count > MAX_CASES:
-        raise SweepError(f"{key}: the range {text!r} has {count} values "
-                         f"(at most {MAX_CASES})")
+        raise SweepError(f"{key}: the range {text!r} has {count} values (at most {MAX_CASES})")
     return start, step, count, all(_INTEGER.match(p.strip()) for p in parts)
 
 
@@ -257,8 +282,9 @@ def _cut(text: str, most: int = 60) -> str:
 def _range(key: str, text: str) -> list[float | int]:
     start, step, count, integral = _range_spec(key, text)
     values = [start + i * step for i in range(count)]
-    return [int(round(v)) for v in values] if integral else \
-        [float(f"{v:.12g}") for v in values]  # 0.1 steps print as 0.3, not 0.30000000000000004
+    return (
+        [int(round(v)) for v in values] if integral else [float(f"{v:.12g}") for v in values]
+    )  # 0.1 steps print as 0.3, not 0.30000000000000004
 
 
 def parse_vary(spec: str, data: Mapping[str, Any]) -> tuple[Key, list[Any]]:
@@ -278,8 +304,9 @@ def _split_vary(spec: str, data: Mapping[str, Any]) -> tuple[Key, str]:
     return parse_key(key_text, data), values
 
 
-def parse_varies(specs: Sequence[str], data: Mapping[str, Any],
-                 rows: int = 1) -> list[tuple[Key, list[Any]]]:
+def parse_varies(
+    specs: Sequence[str], data: Mapping[str, Any], rows: int = 1
+) -> list[tuple[Key, list[Any]]]:
     """Parse every ``--vary``, counting the combinations before any range is expanded.
 
     Args:
@@ -295,8 +322,9 @@ def parse_varies(specs: Sequence[str], data: Mapping[str, Any],
     for key, text in split:
         count *= count_values(key, text)
         if count > MAX_CASES:
-            raise SweepError(f"--vary: more than {MAX_CASES} cases; vary fewer keys "
-                             "or fewer values")
+            raise SweepError(
+                f"--vary: more than {MAX_CASES} cases; vary fewer keys or fewer values"
+            )
     return [(key, parse_values(key, text)) for key, text in split]
 
 
@@ -334,8 +362,9 @@ def read_cases(path: str | Path, data: Mapping[str, Any]) -> tuple[list[Key], li
         if len(row) != len(keys):
             raise SweepError(f"{name}: line {line}: {len(row)} cells for {len(keys)} keys")
         try:
-            cases.append([parse_value(c, k) if c.strip() else None
-                          for c, k in zip(row, keys, strict=True)])
+            cases.append(
+                [parse_value(c, k) if c.strip() else None for c, k in zip(row, keys, strict=True)]
+            )
         except SweepError as exc:
             raise SweepError(f"{name}: line {line}: {exc}") from None
     if not cases:
@@ -378,9 +407,9 @@ def _no_repeats(keys: Sequence[Key], where: str) -> None:
         seen[k.path] = k.text
 
 
-def cases(varies: Sequence[tuple[Key, list[Any]]],
-          table: tuple[list[Key], list[list[Any]]] | None = None
-          ) -> tuple[list[Key], list[list[Any]]]:
+def cases(
+    varies: Sequence[tuple[Key, list[Any]]], table: tuple[list[Key], list[list[Any]]] | None = None
+) -> tuple[list[Key], list[list[Any]]]:
     """The full factorial of the varied keys, crossed with the rows of a case table.
 
     Args:
@@ -400,8 +429,9 @@ def cases(varies: Sequence[tuple[Key, list[Any]]],
         count *= len(table[1])
     _no_repeats(keys, "--vary/--cases")
     if count > MAX_CASES:
-        raise SweepError(f"--vary: {count} cases (at most {MAX_CASES}); vary fewer keys "
-                         "or fewer values")
+        raise SweepError(
+            f"--vary: {count} cases (at most {MAX_CASES}); vary fewer keys or fewer values"
+        )
     rows = [list(c) for c in itertools.product(*(v for _, v in varies))]
     if table is not None:
         rows = [[*t, *r] for t in table[1] for r in rows]
@@ -420,9 +450,12 @@ def apply(data: Mapping[str, Any], keys: Sequence[Key], values: Sequence[Any]) -
     out = dict(data)
     given = {tuple(k.path): v for k, v in zip(keys, values, strict=True) if v is not None}
     bolt = out.get("bolt")
-    if isinstance(bolt, Mapping) and "stress_area" in bolt and ("bolt", "stress_area") not in \
-            given and given.get(("bolt", "diameter"), bolt.get("diameter")) != \
-            bolt.get("diameter"):
+    if (
+        isinstance(bolt, Mapping)
+        and "stress_area" in bolt
+        and ("bolt", "stress_area") not in given
+        and given.get(("bolt", "diameter"), bolt.get("diameter")) != bolt.get("diameter")
+    ):
         out["bolt"] = {k: v for k, v in bolt.items() if k != "stress_area"}
     for key, value in zip(keys, values, strict=True):
         if value is None:

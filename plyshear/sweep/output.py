@@ -12,9 +12,22 @@ from typing import Any
 from plyshear import units as _units
 
 #: Columns shown on the terminal (the files carry them all).
-TERMINAL = ("case", "error", "max_shear", "worst_bolt", "worst_plane", "max_moment", "utilization",
-            "passes", "informative", "capacity_elastic", "load_factor", "capacity_nonlinear",
-            "capacity_collapse", "capacity_plastic")
+TERMINAL = (
+    "case",
+    "error",
+    "max_shear",
+    "worst_bolt",
+    "worst_plane",
+    "max_moment",
+    "utilization",
+    "passes",
+    "informative",
+    "capacity_elastic",
+    "load_factor",
+    "capacity_nonlinear",
+    "capacity_collapse",
+    "capacity_plastic",
+)
 #: Rows printed on the terminal before the rest is summarised.
 TERMINAL_ROWS = 40
 
@@ -43,8 +56,9 @@ def _cell(value: Any) -> str:
 
 def to_jsonl(rows: Sequence[dict[str, Any]], cols: Sequence[str]) -> str:
     """The table as JSON lines: one object per case, every column (null: absent or not finite)."""
-    return "".join(json.dumps({c: _json(r.get(c)) for c in cols}, allow_nan=False) + "\n"
-                   for r in rows)
+    return "".join(
+        json.dumps({c: _json(r.get(c)) for c in cols}, allow_nan=False) + "\n" for r in rows
+    )
 
 
 def _json(value: Any) -> Any:
@@ -58,13 +72,16 @@ def _json(value: Any) -> Any:
 def units_line(units: str) -> str:
     """Which units the numbers of the table are in."""
     u = _units.system(units)
-    return (f"units: forces in {u.label('force')}, moments in {u.label('moment')}, "
-            f"lengths in {u.label('length')}; utilization, load factor and efficiency are "
-            "ratios; capacities use nominal strengths (as plyshear capacity)")
+    return (
+        f"units: forces in {u.label('force')}, moments in {u.label('moment')}, "
+        f"lengths in {u.label('length')}; utilization, load factor and efficiency are "
+        "ratios; capacities use nominal strengths (as plyshear capacity)"
+    )
 
 
-def text(rows: Sequence[dict[str, Any]], cols: Sequence[str], keys: Sequence[str],
-         units: str) -> str:
+def text(
+    rows: Sequence[dict[str, Any]], cols: Sequence[str], keys: Sequence[str], units: str
+) -> str:
     """A terminal table of the first rows and a summary of all of them."""
     from plyshear.report.text import fmt, table
 
@@ -102,18 +119,23 @@ def summary(rows: Sequence[dict[str, Any]]) -> str:
         passing = sum(1 for r in checked if r.get("passes"))
         lo = min(checked, key=lambda r: r["utilization"])
         hi = max(checked, key=lambda r: r["utilization"])
-        line += (f"; {passing} pass; utilization from {lo['utilization']:.3f} "
-                 f"(case {lo['case']}) to {hi['utilization']:.3f} (case {hi['case']})")
+        line += (
+            f"; {passing} pass; utilization from {lo['utilization']:.3f} "
+            f"(case {lo['case']}) to {hi['utilization']:.3f} (case {hi['case']})"
+        )
     over = sum(1 for r in rows if (r.get("informative") or 0.0) > 1.0)
     if over:
-        line += (f"\nwarning: {over} case(s) exceed 1.0 on an informative item (bolt bending, "
-                 "outside the standard's bolt clauses): see the 'informative' column")
+        line += (
+            f"\nwarning: {over} case(s) exceed 1.0 on an informative item (bolt bending, "
+            "outside the standard's bolt clauses): see the 'informative' column"
+        )
     return line
 
 
 #: Columns of text (the rest of a CSV row is numbers, or empty).
-TEXT_COLUMNS = frozenset({"case_key", "error", "governing", "capacity_event", "nonlinear_event",
-                          "status", "key"})
+TEXT_COLUMNS = frozenset(
+    {"case_key", "error", "governing", "capacity_event", "nonlinear_event", "status", "key"}
+)
 INTEGER_COLUMNS = frozenset({"case", "worst_plane", "worst_bolt", "sample"})
 
 

@@ -108,8 +108,14 @@ def context() -> Any:
         ctx = multiprocessing.get_context("forkserver")
     except ValueError:
         return multiprocessing.get_context()
-    ctx.set_forkserver_preload(["plyshear.sweep.run", "plyshear.mechanics.batch",
-                                "plyshear.codes.check", "plyshear.model.modelfile"])
+    ctx.set_forkserver_preload(
+        [
+            "plyshear.sweep.run",
+            "plyshear.mechanics.batch",
+            "plyshear.codes.check",
+            "plyshear.model.modelfile",
+        ]
+    )
     return ctx
 
 
@@ -177,10 +183,15 @@ class PoolReport:
     exits: list[int | None] = field(default_factory=list)
 
 
-def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
-             on_result: Callable[[int, Any], None], stopper: Stopper,
-             on_error: Callable[[int, str], None] | None = None,
-             grace: float = GRACE) -> PoolReport:
+def run_jobs(
+    func: Callable[[Any], Any],
+    jobs: Sequence[Any],
+    workers: int,
+    on_result: Callable[[int, Any], None],
+    stopper: Stopper,
+    on_error: Callable[[int, str], None] | None = None,
+    grace: float = GRACE,
+) -> PoolReport:
     """Run ``func(job)`` for every job on ``workers`` local processes.
 
     Args:
@@ -241,8 +252,9 @@ def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
                     attempts[s.job] += 1
                     s.conn.send((s.job, jobs[s.job]))
             busy = [s for s in slots if s.job is not None]
-            ready = set(wait([s.conn for s in busy] + [s.proc.sentinel for s in slots],
-                             timeout=POLL))
+            ready = set(
+                wait([s.conn for s in busy] + [s.proc.sentinel for s in slots], timeout=POLL)
+            )
             for k, s in enumerate(slots):
                 if s.job is not None and s.conn in ready and receive(s):
                     continue
@@ -253,8 +265,10 @@ def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
                     _close(s)
                     report.exits.append(s.proc.exitcode)
                     if not answered and len(report.exits) > STARTUP_DEATHS * len(slots):
-                        raise PoolError(f"worker processes end as they start "
-                                        f"({death_cause(s.proc.exitcode)}); none could run")
+                        raise PoolError(
+                            f"worker processes end as they start "
+                            f"({death_cause(s.proc.exitcode)}); none could run"
+                        )
                     slots[k] = spawn() if pending and not stopper.stopped else s
             slots = [s for s in slots if s.proc.is_alive() or s.job is not None]
         if stopper.stopped:
@@ -265,8 +279,13 @@ def run_jobs(func: Callable[[Any], Any], jobs: Sequence[Any], workers: int,
     return report
 
 
-def _lost_worker(s: _Slot, report: PoolReport, attempts: list[int], pending: deque[int],
-                 fail: Callable[[int, str], None]) -> None:
+def _lost_worker(
+    s: _Slot,
+    report: PoolReport,
+    attempts: list[int],
+    pending: deque[int],
+    fail: Callable[[int, str], None],
+) -> None:
     """Account for a dead worker's chunk: run it again once, then give it up."""
     s.proc.join(timeout=1.0)
     if s.job is None:

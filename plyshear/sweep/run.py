@@ -40,8 +40,18 @@ CHUNK = 250
 FULL_CHUNK = 10
 CAPACITY_MODES = ("none", "elastic", "full")
 #: Columns of every row, before the plane shears (see :func:`columns`).
-BASE_COLUMNS = ("case", "case_key", "error", "max_shear", "worst_plane", "max_moment",
-                "utilization", "governing", "passes", "informative")
+BASE_COLUMNS = (
+    "case",
+    "case_key",
+    "error",
+    "max_shear",
+    "worst_plane",
+    "max_moment",
+    "utilization",
+    "governing",
+    "passes",
+    "informative",
+)
 
 
 @dataclass(frozen=True)
@@ -78,20 +88,30 @@ def columns(keys: Sequence[Key], planes: int, options: Options, bolts: int = 1) 
     if bolts > 1:
         cols.insert(cols.index("worst_plane"), "worst_bolt")
     if not options.check:
-        cols = [c for c in cols if c not in ("utilization", "governing", "passes",
-                                             "informative")]
+        cols = [c for c in cols if c not in ("utilization", "governing", "passes", "informative")]
     cols += [f"shear_plane_{i}" for i in range(1, planes + 1)]
     if options.capacity != "none":
         cols += ["capacity_elastic", "load_factor", "capacity_event"]
     if options.capacity == "full":
-        cols += ["capacity_nonlinear", "nonlinear_event", "capacity_collapse",
-                 "capacity_plastic", "efficiency_nonlinear"]
+        cols += [
+            "capacity_nonlinear",
+            "nonlinear_event",
+            "capacity_collapse",
+            "capacity_plastic",
+            "efficiency_nonlinear",
+        ]
     return cols
 
 
-def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
-             cases: Sequence[Sequence[Any]], options: Options, first: int = 1,
-             numbers: Sequence[int] | None = None) -> list[dict[str, Any]]:
+def evaluate(
+    base: Mapping[str, Any],
+    source: str,
+    keys: Sequence[Key],
+    cases: Sequence[Sequence[Any]],
+    options: Options,
+    first: int = 1,
+    numbers: Sequence[int] | None = None,
+) -> list[dict[str, Any]]:
     """Evaluate cases in this process.
 
     Args:
@@ -115,8 +135,10 @@ def evaluate(base: Mapping[str, Any], source: str, keys: Sequence[Key],
     joints = []
     names = [k.text for k in keys]
     for n, values in enumerate(cases):
-        row: dict[str, Any] = {"case": numbers[n] if numbers is not None else first + n,
-                               "case_key": case_key(names, values)}
+        row: dict[str, Any] = {
+            "case": numbers[n] if numbers is not None else first + n,
+            "case_key": case_key(names, values),
+        }
         row.update({k.text: v for k, v in zip(keys, values, strict=True)})
         try:
             joints.append((row, from_dict(apply(base, keys, values), source)))
@@ -158,9 +180,9 @@ def _error_text(exc: Exception | str, source: str) -> str:
     """The error without the file name every row would repeat, on one line."""
     text = str(exc)
     prefix = f"{source}: "
-    text = text[len(prefix):] if text.startswith(prefix) else text
+    text = text[len(prefix) :] if text.startswith(prefix) else text
     text = "".join(ch if ch.isprintable() else ascii(ch)[1:-1] for ch in text)
-    return text if len(text) <= MAX_ERROR_CHARS else text[:MAX_ERROR_CHARS - 3] + "..."
+    return text if len(text) <= MAX_ERROR_CHARS else text[: MAX_ERROR_CHARS - 3] + "..."
 
 
 def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str, Any]:
@@ -201,7 +223,8 @@ def _responses(joint: Any, sol: Any, options: Options, source: str) -> dict[str,
                 from plyshear.codes.check import UNVERIFIED
 
                 out["governing"] = f"{UNVERIFIED} ({res.unverified})" + (
-                    f"; largest: {out['governing']}" if gov is not None else "")
+                    f"; largest: {out['governing']}" if gov is not None else ""
+                )
             out["passes"] = res.passes
             # items outside the standard's text (a bolt's bending): shown, never deciding
             info = [i.utilization for i in res.items if i.informative]
@@ -263,10 +286,17 @@ class Outcome:
     failed_chunks: list[int] = field(default_factory=list)
 
 
-def run(base: Mapping[str, Any], source: str, keys: Sequence[Key],
-        cases: Sequence[Sequence[Any]], options: Options, workers: int | None = None,
-        scheduler: str | None = None, chunk: int = CHUNK,
-        progress: Callable[[int], None] | None = None) -> list[dict[str, Any]]:
+def run(
+    base: Mapping[str, Any],
+    source: str,
+    keys: Sequence[Key],
+    cases: Sequence[Sequence[Any]],
+    options: Options,
+    workers: int | None = None,
+    scheduler: str | None = None,
+    chunk: int = CHUNK,
+    progress: Callable[[int], None] | None = None,
+) -> list[dict[str, Any]]:
     """Evaluate every case; rows come back in case order.
 
     Args:
@@ -296,20 +326,29 @@ def run(base: Mapping[str, Any], source: str, keys: Sequence[Key],
         if progress is not None:
             progress(len(part))
 
-    out = run_stream(base, source, keys, cases, options, sink, workers=workers,
-                     scheduler=scheduler, chunk=chunk)
+    out = run_stream(
+        base, source, keys, cases, options, sink, workers=workers, scheduler=scheduler, chunk=chunk
+    )
     if out.fault:
         raise RuntimeError(out.fault)
     return sorted(rows, key=lambda r: r["case"])
 
 
-def run_stream(base: Mapping[str, Any], source: str, keys: Sequence[Key],
-               cases: Sequence[Sequence[Any]], options: Options,
-               sink: Callable[[list[dict[str, Any]]], None], *,
-               skip: Callable[[str], bool] | None = None, workers: int | None = None,
-               scheduler: str | None = None, chunk: int = CHUNK,
-               stopper: _pool.Stopper | None = None,
-               worker_timeout: float = 60.0) -> Outcome:
+def run_stream(
+    base: Mapping[str, Any],
+    source: str,
+    keys: Sequence[Key],
+    cases: Sequence[Sequence[Any]],
+    options: Options,
+    sink: Callable[[list[dict[str, Any]]], None],
+    *,
+    skip: Callable[[str], bool] | None = None,
+    workers: int | None = None,
+    scheduler: str | None = None,
+    chunk: int = CHUNK,
+    stopper: _pool.Stopper | None = None,
+    worker_timeout: float = 60.0,
+) -> Outcome:
     """Evaluate the cases, handing each chunk's rows to ``sink`` as it finishes.
 
     Args:
@@ -335,11 +374,20 @@ def run_stream(base: Mapping[str, Any], source: str, keys: Sequence[Key],
             installed or the scheduler cannot be reached.
     """
     names = [k.text for k in keys]
-    todo = [n for n in range(len(cases))
-            if skip is None or not skip(case_key(names, cases[n]))]
+    todo = [n for n in range(len(cases)) if skip is None or not skip(case_key(names, cases[n]))]
     outcome = Outcome(skipped=len(cases) - len(todo))
-    jobs = [(base, source, keys, [cases[n] for n in todo[i:i + chunk]], options, 1,
-             [n + 1 for n in todo[i:i + chunk]]) for i in range(0, len(todo), chunk)]
+    jobs = [
+        (
+            base,
+            source,
+            keys,
+            [cases[n] for n in todo[i : i + chunk]],
+            options,
+            1,
+            [n + 1 for n in todo[i : i + chunk]],
+        )
+        for i in range(0, len(todo), chunk)
+    ]
     stop = stopper or _pool.Stopper()
 
     def deliver(i: int, rows: list[dict[str, Any]]) -> None:
@@ -384,8 +432,11 @@ def _fault_rows(job: tuple[Any, ...], cause: str) -> list[dict[str, Any]]:
     names = [k.text for k in keys]
     rows = []
     for n, values in zip(numbers, cases, strict=True):
-        row = {"case": n, "case_key": case_key(names, values),
-               "error": _error_text(FAULT_MARK + cause, source)}
+        row = {
+            "case": n,
+            "case_key": case_key(names, values),
+            "error": _error_text(FAULT_MARK + cause, source),
+        }
         row.update(zip(names, values, strict=True))
         rows.append(row)
     return rows
@@ -396,10 +447,15 @@ def _context() -> Any:
     return _pool.context()
 
 
-def _run_dask(address: str, jobs: list[tuple[Any, ...]],
-              deliver: Callable[[int, list[dict[str, Any]]], None],
-              lost: Callable[[int, str], None], stop: _pool.Stopper, outcome: Outcome,
-              worker_timeout: float) -> None:
+def _run_dask(
+    address: str,
+    jobs: list[tuple[Any, ...]],
+    deliver: Callable[[int, list[dict[str, Any]]], None],
+    lost: Callable[[int, str], None],
+    stop: _pool.Stopper,
+    outcome: Outcome,
+    worker_timeout: float,
+) -> None:
     """Run the chunks on a Dask cluster.
 
     A chunk lost with its worker is resubmitted by the scheduler (up to its
@@ -410,8 +466,9 @@ def _run_dask(address: str, jobs: list[tuple[Any, ...]],
     try:
         from distributed import Client, KilledWorker, wait
     except ImportError:
-        raise RuntimeError("--scheduler needs dask.distributed: "
-                           "pip install 'plyshear[dask]'") from None
+        raise RuntimeError(
+            "--scheduler needs dask.distributed: pip install 'plyshear[dask]'"
+        ) from None
     try:
         client = Client(address, timeout="10s")
     except (OSError, TimeoutError, ValueError) as exc:
@@ -442,8 +499,9 @@ def _run_dask(address: str, jobs: list[tuple[Any, ...]],
             if len(client.nthreads()):
                 last_worker = time.monotonic()
             elif time.monotonic() - last_worker > worker_timeout:
-                outcome.fault = (f"no Dask worker for {worker_timeout:g} s at {address}; "
-                                 "the run cannot finish")
+                outcome.fault = (
+                    f"no Dask worker for {worker_timeout:g} s at {address}; the run cannot finish"
+                )
                 break
         outcome.stopped = stop.signum
         for fut in futures:
@@ -463,4 +521,3 @@ def _scheduler_lost(exc: BaseException) -> bool:
     from distributed.comm.core import CommClosedError
 
     return isinstance(exc, CommClosedError | OSError | TimeoutError)
-

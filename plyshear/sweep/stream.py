@@ -84,11 +84,17 @@ class Stream:
         what: The kind of run, for messages ("sweep", "scatter").
     """
 
-    def __init__(self, path: Path, cols: Sequence[str], key_col: str = "case_key",
-                 force: bool = False, resume: bool = False,
-                 record: dict[str, Any] | None = None,
-                 redo: Callable[[dict[str, Any]], bool] | None = None,
-                 what: str = "sweep") -> None:
+    def __init__(
+        self,
+        path: Path,
+        cols: Sequence[str],
+        key_col: str = "case_key",
+        force: bool = False,
+        resume: bool = False,
+        record: dict[str, Any] | None = None,
+        redo: Callable[[dict[str, Any]], bool] | None = None,
+        what: str = "sweep",
+    ) -> None:
         self.path = path
         self.partial = path.with_name(path.name + PARTIAL)
         self.record_path = path.with_name(path.name + RECORD)
@@ -144,21 +150,26 @@ class Stream:
         except (OSError, ValueError, AttributeError):
             earlier = None
         if not isinstance(earlier, dict):
-            raise OutputError(f"{self.path}: no record of the run that wrote it "
-                              f"({self.record_path.name} is missing or unreadable); "
-                              "use --force to start again")
+            raise OutputError(
+                f"{self.path}: no record of the run that wrote it "
+                f"({self.record_path.name} is missing or unreadable); "
+                "use --force to start again"
+            )
         changed = [k for k in self.record if earlier.get(k) != self.record[k]]
         changed += [k for k in earlier if k not in self.record]
         if changed:
-            raise OutputError(f"{self.path}: written by a {self.what} with a different "
-                              f"{', '.join(changed)}; resume with the same, or use --force")
+            raise OutputError(
+                f"{self.path}: written by a {self.what} with a different "
+                f"{', '.join(changed)}; resume with the same, or use --force"
+            )
 
     def _write_record(self) -> None:
         if self.record is None:
             return
         tmp = self.record_path.with_name(f".{self.record_path.name}{PARTIAL}")
-        text = json.dumps({"format": 1, "output": self.path.name, "run": self.record},
-                          indent=2) + "\n"
+        text = (
+            json.dumps({"format": 1, "output": self.path.name, "run": self.record}, indent=2) + "\n"
+        )
         try:
             tmp.write_text(text, encoding="utf-8")
             os.replace(tmp, self.record_path)
@@ -166,8 +177,7 @@ class Stream:
             with contextlib.suppress(OSError):
                 tmp.unlink()
             self.discard()  # nothing ran: what this run created goes
-            raise OutputError(f"{self.record_path}: cannot write ({exc.strerror or exc})") \
-                from None
+            raise OutputError(f"{self.record_path}: cannot write ({exc.strerror or exc})") from None
 
     def _complete_rows(self) -> list[str] | None:
         """The records of a complete output to resume from (None: no such output)."""
@@ -183,13 +193,15 @@ class Stream:
             fd = os.open(self.path, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
         except FileExistsError:
             if not (self.force or self.resume):
-                raise OutputError(f"{self.path}: exists; use --force to replace it, or "
-                                  f"--resume to continue the {self.what} that wrote it"
-                                  ) from None
+                raise OutputError(
+                    f"{self.path}: exists; use --force to replace it, or "
+                    f"--resume to continue the {self.what} that wrote it"
+                ) from None
             return
         except OSError as exc:
-            raise OutputError(f"{self.path}: cannot create the file "
-                              f"({exc.strerror or exc})") from None
+            raise OutputError(
+                f"{self.path}: cannot create the file ({exc.strerror or exc})"
+            ) from None
         os.close(fd)
         self._reserved = True
 
@@ -198,16 +210,18 @@ class Stream:
             fd = os.open(self.partial, os.O_RDWR | os.O_CREAT, 0o666)
         except OSError as exc:
             self._unreserve()
-            raise OutputError(f"{self.partial}: cannot create the file "
-                              f"({exc.strerror or exc})") from None
+            raise OutputError(
+                f"{self.partial}: cannot create the file ({exc.strerror or exc})"
+            ) from None
         if fcntl is not None:
             try:
                 fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
             except OSError:
                 os.close(fd)
                 self._unreserve()
-                raise OutputError(f"{self.path}: another run is writing it "
-                                  f"({self.partial} is locked)") from None
+                raise OutputError(
+                    f"{self.path}: another run is writing it ({self.partial} is locked)"
+                ) from None
         self._fd = fd
         try:
             if self.resume and complete is None:
@@ -247,8 +261,10 @@ class Stream:
         if self.fmt == "csv":
             head, _, body = text.partition("\n")
             if head and next(csv.reader([head])) != self.cols:
-                raise OutputError(f"{where}: written by a sweep with other columns; resume "
-                                  "with the same model, keys and options, or use --force")
+                raise OutputError(
+                    f"{where}: written by a sweep with other columns; resume "
+                    "with the same model, keys and options, or use --force"
+                )
             return [line + "\n" for line in body.split("\n") if line]
         return [line + "\n" for line in text.split("\n") if line.strip()]
 
@@ -256,9 +272,11 @@ class Stream:
         for rec in records:
             row = self._parse(rec)
             if self.fmt == "jsonl" and sorted(row) != sorted(self.cols):
-                raise OutputError(f"{self.partial}: written by a sweep with other columns; "
-                                  "resume with the same model, keys and options, or use "
-                                  "--force")
+                raise OutputError(
+                    f"{self.partial}: written by a sweep with other columns; "
+                    "resume with the same model, keys and options, or use "
+                    "--force"
+                )
             key = row.get(self.key_col)
             if key and not (self.redo is not None and self.redo(row)):
                 self.done[str(key)] += 1
@@ -290,8 +308,11 @@ class Stream:
         """
         if not rows or self._fd is None:
             return
-        text = to_csv(rows, self.cols).split("\n", 1)[1] if self.fmt == "csv" else \
-            to_jsonl(rows, self.cols)
+        text = (
+            to_csv(rows, self.cols).split("\n", 1)[1]
+            if self.fmt == "csv"
+            else to_jsonl(rows, self.cols)
+        )
         end = os.lseek(self._fd, 0, os.SEEK_END)
         try:
             self._write_all(text.encode("utf-8"))
@@ -301,8 +322,9 @@ class Stream:
                 os.ftruncate(self._fd, end)  # no row cut short
             full = exc.errno in (errno.ENOSPC, errno.EDQUOT)
             what = "the disk is full" if full else f"cannot write ({exc.strerror or exc})"
-            raise OutputError(f"{self.partial}: {what}; the {self.rows_written} rows written "
-                              "so far are kept") from None
+            raise OutputError(
+                f"{self.partial}: {what}; the {self.rows_written} rows written so far are kept"
+            ) from None
         self.rows_written += len(rows)
         self._appended += len(rows)
 
@@ -326,8 +348,7 @@ class Stream:
             self.close()
             return
         size = os.fstat(self._fd).st_size
-        records = self._without_redone(self._records(os.pread(self._fd, size, 0),
-                                                     self.partial))
+        records = self._without_redone(self._records(os.pread(self._fd, size, 0), self.partial))
         records.sort(key=lambda r: _number(self._parse(r).get(case_col)))
         tmp = self.path.with_name(f".{self.path.name}.sorted{PARTIAL}")
         try:
@@ -340,8 +361,10 @@ class Stream:
         except OSError as exc:
             with contextlib.suppress(OSError):
                 tmp.unlink()
-            raise OutputError(f"{self.path}: cannot write ({exc.strerror or exc}); the rows "
-                              f"are kept in {self.partial}") from None
+            raise OutputError(
+                f"{self.path}: cannot write ({exc.strerror or exc}); the rows "
+                f"are kept in {self.partial}"
+            ) from None
         with contextlib.suppress(OSError):
             self.partial.unlink()
         self.close()
@@ -356,8 +379,11 @@ class Stream:
         faults = [self.redo(p) for p in parsed]
         solved = {k for k, f in zip(keys, faults, strict=True) if not f}
         last = {k: i for i, (k, f) in enumerate(zip(keys, faults, strict=True)) if f}
-        return [r for i, (r, k, f) in enumerate(zip(records, keys, faults, strict=True))
-                if not f or (k not in solved and last[k] == i)]
+        return [
+            r
+            for i, (r, k, f) in enumerate(zip(records, keys, faults, strict=True))
+            if not f or (k not in solved and last[k] == i)
+        ]
 
     def close(self) -> None:
         """Close (and unlock) the partial file; the files stay as they are."""
@@ -399,4 +425,3 @@ def _sync_folder(path: Path) -> None:
             os.fsync(fd)
         finally:
             os.close(fd)
-

@@ -20,8 +20,17 @@ from pathlib import Path
 from plyshear.verify import capacity, mechanics, standards  # noqa: F401 - registers the cases
 from plyshear.verify.case import GROUPS, Case, names, run, run_all
 
-__all__ = ["GROUPS", "HEADER", "Case", "document", "names", "render", "run", "run_all",
-           "verification_modules"]
+__all__ = [
+    "GROUPS",
+    "HEADER",
+    "Case",
+    "document",
+    "names",
+    "render",
+    "run",
+    "run_all",
+    "verification_modules",
+]
 
 
 # --- the document -------------------------------------------------------------------
@@ -35,8 +44,7 @@ def verification_modules(root: Path) -> list[tuple[str, str]]:
     out = []
     for path in sorted(folder.glob("test_*.py")):
         doc = ast.get_docstring(ast.parse(path.read_text(encoding="utf-8"))) or ""
-        out.append((path.relative_to(root).as_posix(), doc.strip().splitlines()[0] if doc
-                    else ""))
+        out.append((path.relative_to(root).as_posix(), doc.strip().splitlines()[0] if doc else ""))
     return out
 
 
@@ -46,29 +54,46 @@ def _num(x: float) -> str:
 
 def render(cases: list[Case], modules: list[tuple[str, str]]) -> str:
     """The Markdown of docs/verification.md."""
-    lines = [HEADER, "", "# Verification", "",
-             "Every row is a case of `plyshear/verify.py`: plyshear's value against a value "
-             "from outside the project, with the tolerance it must meet. The test suite runs "
-             "the same cases (`tests/test_verify.py`) and fails when this page is stale; "
-             "regenerate it with `python -m plyshear.verify`. Sources are listed in "
-             "[references.md](references.md); the method is in [theory.md](theory.md).", "",
-             f"{sum(c.passes for c in cases)} of {len(cases)} cases pass.", ""]
+    lines = [
+        HEADER,
+        "",
+        "# Verification",
+        "",
+        "Every row is a case of `plyshear/verify.py`: plyshear's value against a value "
+        "from outside the project, with the tolerance it must meet. The test suite runs "
+        "the same cases (`tests/test_verify.py`) and fails when this page is stale; "
+        "regenerate it with `python -m plyshear.verify`. Sources are listed in "
+        "[references.md](references.md); the method is in [theory.md](theory.md).",
+        "",
+        f"{sum(c.passes for c in cases)} of {len(cases)} cases pass.",
+        "",
+    ]
     for group in GROUPS:
         rows = [c for c in cases if c.group == group]
         if not rows:
             continue
-        lines += [f"## {group}", "",
-                  "| case | source | quantity | reference | plyshear | ratio | tolerance "
-                  "| pass |",
-                  "|---|---|---|---:|---:|---:|---:|---|"]
-        lines += [f"| `{c.name}` | {c.source} | {c.quantity} | {_num(c.reference)} | "
-                  f"{_num(c.value)} | {c.ratio:.5f} | {c.tol:.0e} | "
-                  f"{'yes' if c.passes else '**NO**'} |" for c in rows]
+        lines += [
+            f"## {group}",
+            "",
+            "| case | source | quantity | reference | plyshear | ratio | tolerance | pass |",
+            "|---|---|---|---:|---:|---:|---:|---|",
+        ]
+        lines += [
+            f"| `{c.name}` | {c.source} | {c.quantity} | {_num(c.reference)} | "
+            f"{_num(c.value)} | {c.ratio:.5f} | {c.tol:.0e} | "
+            f"{'yes' if c.passes else '**NO**'} |"
+            for c in rows
+        ]
         lines.append("")
-    lines += ["## The verification test modules", "",
-              "Beyond these cases, each module below checks one published source in more "
-              "depth (its docstring gives the full reference):", "",
-              "| module | subject |", "|---|---|"]
+    lines += [
+        "## The verification test modules",
+        "",
+        "Beyond these cases, each module below checks one published source in more "
+        "depth (its docstring gives the full reference):",
+        "",
+        "| module | subject |",
+        "|---|---|",
+    ]
     lines += [f"| `{path}` | {subject} |" for path, subject in modules]
     return "\n".join(lines) + "\n"
 

@@ -135,9 +135,12 @@ def item(text: str, what: str, where: str) -> CheckItem:
 def clevis(a: float, b: float, c: float, extra: str = "") -> str:
     """A stiff pin in a symmetric clevis on soft bearing (uniform bearing)."""
     soft = "fy = 355\nfu = 490\nfoundation_modulus = 50.0\n"
-    return ('format = 1\nunits = "N-mm"\n[bolt]\ndiameter = 40\ngrade = "8.8"\n'
-            'threads = "excluded"\n'
-            + ply("outer-1", "clevis", a, soft)
-            + ply("lug", "lug", b, soft + f"gap = {c}\n")
-            + ply("outer-2", "clevis", a, soft + f"gap = {c}\n")
-            + "[member.clevis]\nsupport = true\n[member.lug]\nload = 100000.0\n" + extra)
+    return (
+        'format = 1\nunits = "N-mm"\n[bolt]\ndiameter = 40\ngrade = "8.8"\n'
+        'threads = "excluded"\n'
+        + ply("outer-1", "clevis", a, soft)
+        + ply("lug", "lug", b, soft + f"gap = {c}\n")
+        + ply("outer-2", "clevis", a, soft + f"gap = {c}\n")
+        + "[member.clevis]\nsupport = true\n[member.lug]\nload = 100000.0\n"
+        + extra
+    )

@@ -27,17 +27,22 @@ CASES = [
     (_edit("thickness = 20", "thickness = -3"), "ply[2].thickness", "must be > 0 (got -3)"),
     (_edit("thickness = 20", "thickness = 0"), "ply[2].thickness", "must be > 0"),
     (_edit("diameter = 24", "diameter = 0"), "bolt.diameter", "must be > 0"),
-    (_edit('name = "lug"\nmember = "lug"', 'name = "lug"\nmember = "lug"\ngap = -1'),
-     "ply[2].gap", "must be ≥ 0"),
+    (
+        _edit('name = "lug"\nmember = "lug"', 'name = "lug"\nmember = "lug"\ngap = -1'),
+        "ply[2].gap",
+        "must be ≥ 0",
+    ),
     (_edit('name = "leg-2"', 'name = "leg-1"'), "ply[3].name", "already the name of ply[1]"),
     (_edit('member = "lug"', 'member = "lugg"'), "ply[2].member", "not declared"),
-    (FORK + '\n[member.spare]\nsupport = true\n', "member.spare", "no ply belongs to it"),
+    (FORK + "\n[member.spare]\nsupport = true\n", "member.spare", "no ply belongs to it"),
     (_edit("support = true", "support = false"), "member", "no supported member"),
-    (_edit("load = 100", "load = 100\nsupport = true"), "member.lug.load",
-     "cannot also be loaded"),
+    (_edit("load = 100", "load = 100\nsupport = true"), "member.lug.load", "cannot also be loaded"),
     (_edit("thickness = 20", "thicknes = 20"), "ply[2].thicknes", "did you mean 'thickness'"),
-    (_edit('grade = "8.8"', 'grade = "8.8"\ndiamter = 3'), "bolt.diamter",
-     "did you mean 'diameter'"),
+    (
+        _edit('grade = "8.8"', 'grade = "8.8"\ndiamter = 3'),
+        "bolt.diamter",
+        "did you mean 'diameter'",
+    ),
     (_edit('grade = "8.8"', 'grade = "8.9"'), "bolt.grade", "known: 4.6"),
     (_edit('steel = "S355"', 'steel = "S356"'), "ply[1].steel", "known:"),
     (_edit('units = "kN-mm"', 'units = "kN-m"'), "units", "must be one of"),
@@ -48,19 +53,20 @@ CASES = [
     (_edit("diameter = 24", "diameter = true"), "bolt.diameter", "boolean"),
     (_edit("load = 100", "load = [1, 2, 3]"), "member.lug.load", "[Fx, Fy]"),
     (FORK.split("[[ply]]")[0] + "[member.fork]\nsupport = true\n", "ply", "missing"),
-    (_edit("thickness = 20", "thickness = 20\nlink_stiffness = -5"), "ply[2].link_stiffness",
-     "must be ≥ 0"),
+    (
+        _edit("thickness = 20", "thickness = 20\nlink_stiffness = -5"),
+        "ply[2].link_stiffness",
+        "must be ≥ 0",
+    ),
     (FORK + "\n[analysis]\nelements_per_ply = 0\n", "analysis.elements_per_ply", "1..1000"),
     (FORK + '\n[analysis]\nbeam = "bernoulli"\n', "analysis.beam", "did you mean"),
-    (FORK + "\n[check]\nmethod = \"lsd\"\n", "check.method", "must be one of"),
-    ("format = 1\nunits = \"kN-mm\"\n[bolt\n", "", "not valid TOML"),
+    (FORK + '\n[check]\nmethod = "lsd"\n', "check.method", "must be one of"),
+    ('format = 1\nunits = "kN-mm"\n[bolt\n', "", "not valid TOML"),
 ]
 
 
-@pytest.mark.parametrize(("text", "key", "fragment"), CASES,
-                         ids=[c[1] or "toml" for c in CASES])
-def test_bad_input_is_one_line_with_exit_2(write_model, text: str, key: str,
-                                           fragment: str) -> None:
+@pytest.mark.parametrize(("text", "key", "fragment"), CASES, ids=[c[1] or "toml" for c in CASES])
+def test_bad_input_is_one_line_with_exit_2(write_model, text: str, key: str, fragment: str) -> None:
     path = write_model(text)
     result = CliRunner().invoke(main, ["solve", str(path)])
     assert result.exit_code == EXIT_BAD_INPUT
@@ -81,7 +87,7 @@ def test_missing_file_is_one_line(tmp_path) -> None:
 
 def test_non_utf8_file_is_one_line(tmp_path) -> None:
     path = tmp_path / "bad.toml"
-    path.write_bytes(b"format = 1\ntitle = \"\xff\xfe\"\n")
+    path.write_bytes(b'format = 1\ntitle = "\xff\xfe"\n')
     result = CliRunner().invoke(main, ["solve", str(path)])
     assert result.exit_code == EXIT_BAD_INPUT
     assert "not UTF-8" in result.output
@@ -92,13 +98,16 @@ def test_mechanism_names_the_unreachable_member(write_model, monkeypatch) -> Non
     # to a support: the CLI refuses it before solving, naming the member.
     from plyshear.mechanics import bearing
 
-    monkeypatch.setitem(bearing.LAWS, "component",
-                        lambda bolt, ply: 0.0 if ply.name == "lug" else 1.0e4)
+    monkeypatch.setitem(
+        bearing.LAWS, "component", lambda bolt, ply: 0.0 if ply.name == "lug" else 1.0e4
+    )
     path = write_model(FORK)
     result = CliRunner().invoke(main, ["solve", str(path)])
     assert result.exit_code == EXIT_BAD_INPUT
-    assert result.output == f"error: {path}: member.lug: is a mechanism: no path of plies " \
+    assert (
+        result.output == f"error: {path}: member.lug: is a mechanism: no path of plies "
         "and bolt reaches it from a support\n"
+    )
 
 
 def test_existing_plot_is_not_overwritten(write_model, tmp_path) -> None:

@@ -29,8 +29,10 @@ def test_three_files_one_failing_one_refused(tmp_path) -> None:
     result = CliRunner().invoke(main, ["check", str(refused), str(good), str(failing)])
     assert result.exit_code == EXIT_BAD_INPUT
     lines = result.stdout.splitlines()
-    rows = {name: next(line for line in lines if line.startswith(str(tmp_path / name)))
-            for name in ("good.toml", "failing.toml", "refused.toml")}
+    rows = {
+        name: next(line for line in lines if line.startswith(str(tmp_path / name)))
+        for name in ("good.toml", "failing.toml", "refused.toml")
+    }
     assert rows["good.toml"].endswith("passes")
     assert "bearing, ply hanger-1" in rows["good.toml"]
     assert rows["failing.toml"].endswith("FAILS")
@@ -61,7 +63,8 @@ def test_all_passing_files_give_exit_0_and_json_rows(tmp_path) -> None:
 
 def test_plot_and_output_need_one_file(tmp_path) -> None:
     good, failing, _ = _files(tmp_path)
-    result = CliRunner().invoke(main, ["check", str(good), str(failing), "-o",
-                                       str(tmp_path / "r.csv")])
+    result = CliRunner().invoke(
+        main, ["check", str(good), str(failing), "-o", str(tmp_path / "r.csv")]
+    )
     assert result.exit_code == EXIT_BAD_INPUT
     assert "one model" in result.output

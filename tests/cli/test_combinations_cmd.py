@@ -23,7 +23,8 @@ REL_EXACT = 1e-12
 MODEL = (CHAIN + COMBOS).replace("wind = -120", "wind = -60")
 #: The uplift combination typed in: b = 0.9 * 50 kN, c = -60 kN (statics of the factors).
 UPLIFT_TYPED = CHAIN.replace("load = { dead = 50, live = [0, 30] }", "load = 45").replace(
-    "load = { wind = -120 }", "load = -60")
+    "load = { wind = -120 }", "load = -60"
+)
 
 
 def run(*args: str) -> tuple[int, str]:
@@ -36,23 +37,27 @@ def test_check_names_the_governing_combination_of_every_item(write_model) -> Non
     code, out = run("check", str(path), "--json")
     assert code == EXIT_PASS, out
     data = json.loads(out)
-    per_combo = {c["name"]: {(i["what"], i["where"]): i["utilization"]
-                             for i in c["check"]["items"]} for c in data["combinations"]}
+    per_combo = {
+        c["name"]: {(i["what"], i["where"]): i["utilization"] for i in c["check"]["items"]}
+        for c in data["combinations"]
+    }
     for item in data["check"]["items"]:
         key = (item["what"], item["where"])
         best = max(per_combo, key=lambda n: per_combo[n].get(key, -1.0))
         assert item["combination"] == best
         assert item["utilization"] == pytest.approx(per_combo[best][key], rel=REL_EXACT)
-    planes = {i["where"]: i["combination"] for i in data["check"]["items"]
-              if i["what"] == "bolt shear"}
+    planes = {
+        i["where"]: i["combination"] for i in data["check"]["items"] if i["what"] == "bolt shear"
+    }
     # statics: plane 1 carries b + c (gravity: |(60, 48)| = 76.8 kN > uplift 15 kN);
     # plane 2 carries c alone (uplift 60 kN, gravity 0)
     assert planes == {"plane 1": "gravity", "plane 2": "uplift"}
     assert data["check"]["combination"] == data["check"]["governing"]["combination"]
     code, text = run("check", str(path))
     assert code == EXIT_PASS
-    row = next(line for line in text.splitlines() if line.startswith("bolt shear")
-               and "plane 2" in line)
+    row = next(
+        line for line in text.splitlines() if line.startswith("bolt shear") and "plane 2" in line
+    )
     assert "uplift" in row
     assert "governing combination" in text
 
@@ -99,14 +104,18 @@ def test_solve_shows_cases_combinations_and_envelope(write_model) -> None:
     data = json.loads(out)
     assert data["combination"] == "gravity"  # the top level: the first combination
     assert data["envelope"]["bolts"][0]["planes"][1]["shear"] == pytest.approx(
-        60.0, rel=REL_EXACT)  # kN, statics: plane 2 carries c alone
+        60.0, rel=REL_EXACT
+    )  # kN, statics: plane 2 carries c alone
 
 
-@pytest.mark.parametrize("args", [
-    ("solve", "--combination", "nope"),
-    ("check", "--combination", "nope"),
-    ("capacity", "--combination", "nope"),
-])
+@pytest.mark.parametrize(
+    "args",
+    [
+        ("solve", "--combination", "nope"),
+        ("check", "--combination", "nope"),
+        ("capacity", "--combination", "nope"),
+    ],
+)
 def test_unknown_combination_is_one_line(write_model, args: tuple[str, ...]) -> None:
     path = write_model(MODEL)
     code, out = run(args[0], str(path), *args[1:])
@@ -133,8 +142,7 @@ def test_a_plain_model_prints_no_combination(write_model) -> None:
     assert code == EXIT_PASS
     data = json.loads(out)
     assert not {"combination", "cases", "combinations", "envelope"} & set(data)
-    assert out.strip() == json.dumps(plyshear.solve(plyshear.load_model(path)).to_dict(),
-                                     indent=2)
+    assert out.strip() == json.dumps(plyshear.solve(plyshear.load_model(path)).to_dict(), indent=2)
 
 
 def test_capacity_runs_on_the_governing_combination(write_model) -> None:
@@ -151,9 +159,15 @@ EXAMPLE = MODELS.parent.parent / "docs" / "examples" / "gusset-load-cases.toml"
 
 
 def test_the_four_case_example_runs_through_every_command(tmp_path) -> None:
-    for args in (["solve"], ["solve", "--json"], ["check"], ["check", "--json"],
-                 ["validate"], ["capacity", "--json"],
-                 ["report", "-o", str(tmp_path / "r.html")]):
+    for args in (
+        ["solve"],
+        ["solve", "--json"],
+        ["check"],
+        ["check", "--json"],
+        ["validate"],
+        ["capacity", "--json"],
+        ["report", "-o", str(tmp_path / "r.html")],
+    ):
         result = CliRunner().invoke(main, [args[0], str(EXAMPLE), *args[1:]])
         assert result.exit_code == EXIT_PASS, (args, result.output)
     code, out = run("validate", str(EXAMPLE))

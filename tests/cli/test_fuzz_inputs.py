@@ -22,11 +22,48 @@ SEED = int(os.environ.get("PLYSHEAR_FUZZ_SEED", "0"))
 SECONDS_PER_CASE = 10.0  # bounded time: a hang or a runaway mesh fails the case
 
 SEEDS = [FORK] + [p.read_text(encoding="utf-8") for p in sorted(MODELS.glob("*.toml"))]
-VALUES = ["-3", "0", "nan", "inf", "-inf", "1e308", "true", '"x"', "[]", "{}", '"12 kN"',
-          '"0.5 in"', "10000000000", "3.5", '""', "[1, 2, 3]", '"N-mm"', "-0.0"]
-KEYS = ["thickness", "diameter", "gap", "load", "grade", "steel", "member", "support",
-        "elements_per_ply", "units", "format", "edge", "width", "link_stiffness",
-        "foundation_modulus", "pitch", "count", "positions", "enters", "hole_offset"]
+VALUES = [
+    "-3",
+    "0",
+    "nan",
+    "inf",
+    "-inf",
+    "1e308",
+    "true",
+    '"x"',
+    "[]",
+    "{}",
+    '"12 kN"',
+    '"0.5 in"',
+    "10000000000",
+    "3.5",
+    '""',
+    "[1, 2, 3]",
+    '"N-mm"',
+    "-0.0",
+]
+KEYS = [
+    "thickness",
+    "diameter",
+    "gap",
+    "load",
+    "grade",
+    "steel",
+    "member",
+    "support",
+    "elements_per_ply",
+    "units",
+    "format",
+    "edge",
+    "width",
+    "link_stiffness",
+    "foundation_modulus",
+    "pitch",
+    "count",
+    "positions",
+    "enters",
+    "hole_offset",
+]
 
 
 def _mutate(text: str, rng: random.Random) -> bytes:
@@ -43,12 +80,20 @@ def _mutate(text: str, rng: random.Random) -> bytes:
         lines.insert(rng.randrange(len(lines) + 1), f"{rng.choice(KEYS)} = {rng.choice(VALUES)}")
     elif kind == 3 and lines:  # duplicate a block
         i = rng.randrange(len(lines))
-        lines[i:i] = lines[i:i + rng.randrange(1, 8)]
+        lines[i:i] = lines[i : i + rng.randrange(1, 8)]
     elif kind == 4:  # huge counts
-        lines.append(rng.choice(["[analysis]\nelements_per_ply = 1000000000",
-                                 "[pattern]\ncount = 100000\npitch = 1",
-                                 "\n".join(f"[[ply]]\nname = \"q{i}\"\nthickness = 1\n"
-                                           "steel = \"S355\"" for i in range(2500))]))
+        lines.append(
+            rng.choice(
+                [
+                    "[analysis]\nelements_per_ply = 1000000000",
+                    "[pattern]\ncount = 100000\npitch = 1",
+                    "\n".join(
+                        f'[[ply]]\nname = "q{i}"\nthickness = 1\nsteel = "S355"'
+                        for i in range(2500)
+                    ),
+                ]
+            )
+        )
     elif kind == 5:  # random bytes
         data = bytearray("\n".join(lines).encode())
         for _ in range(rng.randrange(1, 6)):
@@ -80,7 +125,10 @@ def test_fuzzed_model_files_never_crash(tmp_path) -> None:
         where = f"case {case} (seed {SEED}), {command}, took {took:.1f} s"
         assert took < SECONDS_PER_CASE, where
         assert result.exception is None or isinstance(result.exception, SystemExit), (
-            where, data[:400], result.exception)
+            where,
+            data[:400],
+            result.exception,
+        )
         assert result.exit_code in (0, 1, 2), where
         if result.exit_code == 2:
             lines = result.output.strip().splitlines()

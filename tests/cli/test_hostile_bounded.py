@@ -46,24 +46,37 @@ def test_a_unit_string_with_caret_exponents_is_one_line(write_model, command: st
     assert "exponents: integers of at most two digits" in line
 
 
-@pytest.mark.parametrize(("text", "mm"), [
-    ("12 mm", 12.0), ("0.5 in", 12.7), ("3/4 in", 19.05), ("2 cm", 20.0),  # exact factors
-])
+@pytest.mark.parametrize(
+    ("text", "mm"),
+    [
+        ("12 mm", 12.0),
+        ("0.5 in", 12.7),
+        ("3/4 in", 19.05),
+        ("2 cm", 20.0),  # exact factors
+    ],
+)
 def test_the_unit_grammar_reads_plain_lengths(text: str, mm: float) -> None:
     # 1 in = 25.4 mm exactly (international inch, 1959)
     assert units.parse_quantity(text, "length") == pytest.approx(mm, rel=1e-15)
 
 
-@pytest.mark.parametrize(("text", "mpa"), [
-    ("355 N/mm^2", 355.0), ("355 N/mm**2", 355.0), ("355 N*mm^-2", 355.0),
-    ("50 ksi", 50 * 4.4482216152605e3 / 25.4**2),  # 1 ksi = 1000 lbf/in^2, exact factors
-])
+@pytest.mark.parametrize(
+    ("text", "mpa"),
+    [
+        ("355 N/mm^2", 355.0),
+        ("355 N/mm**2", 355.0),
+        ("355 N*mm^-2", 355.0),
+        ("50 ksi", 50 * 4.4482216152605e3 / 25.4**2),  # 1 ksi = 1000 lbf/in^2, exact factors
+    ],
+)
 def test_the_unit_grammar_reads_stresses_with_exponents(text: str, mpa: float) -> None:
     assert units.parse_quantity(text, "stress") == pytest.approx(mpa, rel=1e-12)
 
 
-@pytest.mark.parametrize("text", ["1 mm^999", "1 mm**2**2", "1 (mm)", "1 mm + 1 mm",
-                                  "1 mm^", "1 __class__", "1 mm/", "1/0 mm"])
+@pytest.mark.parametrize(
+    "text",
+    ["1 mm^999", "1 mm**2**2", "1 (mm)", "1 mm + 1 mm", "1 mm^", "1 __class__", "1 mm/", "1/0 mm"],
+)
 def test_the_unit_grammar_refuses_anything_else(text: str) -> None:
     with pytest.raises(ValueError, match="cannot read"):
         units.parse_quantity(text, "length")
@@ -79,8 +92,9 @@ def test_a_key_of_30000_dotted_parts_is_one_line(tmp_path: Path) -> None:
 
 def test_a_line_longer_than_a_megabyte_is_one_line(tmp_path: Path) -> None:
     path = tmp_path / "long.toml"
-    path.write_text(FORK.replace('title = "test fork"', f'title = "{"x" * 1_100_000}"'),
-                    encoding="utf-8")
+    path.write_text(
+        FORK.replace('title = "test fork"', f'title = "{"x" * 1_100_000}"'), encoding="utf-8"
+    )
     line = _one_line(["validate", str(path)])
     assert "line 2 is longer than 1000000 characters" in line
 
@@ -103,9 +117,20 @@ def test_cases_from_a_fifo_without_writer_is_one_line(write_model, tmp_path: Pat
 
 def test_twelve_ranges_of_a_million_values_are_counted_before_expanded(write_model) -> None:
     path = write_model(FORK)
-    keys = ["bolt.diameter", "bolt.length", "bolt.pretension", "bolt.tension",
-            "ply[1].thickness", "ply[2].thickness", "ply[3].thickness", "ply[1].gap",
-            "ply[2].gap", "ply[3].gap", "ply[1].edge", "ply[2].edge"]
+    keys = [
+        "bolt.diameter",
+        "bolt.length",
+        "bolt.pretension",
+        "bolt.tension",
+        "ply[1].thickness",
+        "ply[2].thickness",
+        "ply[3].thickness",
+        "ply[1].gap",
+        "ply[2].gap",
+        "ply[3].gap",
+        "ply[1].edge",
+        "ply[2].edge",
+    ]
     args = ["sweep", str(path)]
     for k in keys:
         args += ["--vary", f"{k}=1:1000000"]  # 1 000 000 values each: (1e6 - 1)/1 + 1

@@ -25,10 +25,15 @@ def solves(monkeypatch) -> list:
     return calls
 
 
-@pytest.mark.parametrize("args", [["report", str(FORK), "-o", "{tmp}/r.html"],
-                                  ["capacity", str(FORK), "--json"],
-                                  ["check", str(FORK), "--json"]],
-                         ids=["report", "capacity-json", "check-json"])
+@pytest.mark.parametrize(
+    "args",
+    [
+        ["report", str(FORK), "-o", "{tmp}/r.html"],
+        ["capacity", str(FORK), "--json"],
+        ["check", str(FORK), "--json"],
+    ],
+    ids=["report", "capacity-json", "check-json"],
+)
 def test_a_command_solves_the_joint_once(tmp_path, solves, args) -> None:
     result = CliRunner().invoke(main, [a.format(tmp=tmp_path) for a in args])
     assert result.exit_code in (0, 1), result.output  # 1: a check that fails

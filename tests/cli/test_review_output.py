@@ -23,8 +23,10 @@ def test_check_prints_a_warning_under_passes_for_an_informative_item_over_one() 
     assert result.exit_code == 0, result.output
     lines = result.output.splitlines()
     verdict = next(i for i, line in enumerate(lines) if line.startswith("PASSES"))
-    assert lines[verdict + 1].startswith("WARNING: bolt bending, bolt at z = 0.875 in: "
-                                         "utilization 1.372 > 1.0 on an informative item")
+    assert lines[verdict + 1].startswith(
+        "WARNING: bolt bending, bolt at z = 0.875 in: "
+        "utilization 1.372 > 1.0 on an informative item"
+    )
 
 
 def test_check_json_carries_the_warning() -> None:
@@ -45,8 +47,9 @@ def test_the_check_header_names_the_load_level() -> None:
 
 
 def test_asd_on_factored_loads_is_one_line_with_exit_2(write_model) -> None:
-    text = SPLICE.read_text(encoding="utf-8").replace('method = "lrfd"',
-                                                      'method = "lrfd"\nloads = "factored"')
+    text = SPLICE.read_text(encoding="utf-8").replace(
+        'method = "lrfd"', 'method = "lrfd"\nloads = "factored"'
+    )
     path = write_model(text)
     result = _run("check", str(path), "--method", "asd")
     assert result.exit_code == EXIT_BAD_INPUT
@@ -73,7 +76,8 @@ def test_an_unloaded_joint_is_refused_by_validate_and_solve(write_model) -> None
 def test_the_reviews_short_bolt_no_longer_passes(write_model) -> None:
     # a 40 mm bolt on a 56 mm grip
     text = FORK.replace('grade = "8.8"', 'grade = "8.8"\nlength = 40').replace(
-        "thickness = 10", "thickness = 18")
+        "thickness = 10", "thickness = 18"
+    )
     result = _run("check", str(write_model(text)))
     assert result.exit_code == EXIT_BAD_INPUT
     assert "bolt.length: 40 mm is shorter than the grip 56 mm" in result.output
@@ -81,8 +85,14 @@ def test_the_reviews_short_bolt_no_longer_passes(write_model) -> None:
 
 def test_a_short_protrusion_is_a_warning_in_every_command(write_model) -> None:
     path = write_model(FORK.replace('grade = "8.8"', 'grade = "8.8"\nlength = 60'))
-    for args in (["validate"], ["solve"], ["check"], ["capacity"], ["planes", "--max", "3"],
-                 ["sweep", "--vary", "bolt.grade=8.8,10.9", "--quiet"]):
+    for args in (
+        ["validate"],
+        ["solve"],
+        ["check"],
+        ["capacity"],
+        ["planes", "--max", "3"],
+        ["sweep", "--vary", "bolt.grade=8.8,10.9", "--quiet"],
+    ):
         result = CliRunner().invoke(main, [args[0], str(path), *args[1:]])
         assert "bolt.length: the bolt protrudes 20 mm past the grip" in result.output, args
 

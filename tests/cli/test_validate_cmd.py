@@ -29,9 +29,11 @@ def test_a_bolt_shorter_than_the_grip_is_refused(write_model) -> None:
     path = write_model(FORK.replace('grade = "8.8"', 'grade = "8.8"\nlength = 30'))
     result = CliRunner().invoke(main, ["validate", str(path)])
     assert result.exit_code == EXIT_BAD_INPUT
-    assert result.output == (f"error: {path}: bolt.length: 30 mm is shorter than the grip "
-                             "40 mm: the bolt does not reach through the stack; give the "
-                             "under-head length of a longer bolt\n")
+    assert result.output == (
+        f"error: {path}: bolt.length: 30 mm is shorter than the grip "
+        "40 mm: the bolt does not reach through the stack; give the "
+        "under-head length of a longer bolt\n"
+    )
 
 
 def test_a_short_protrusion_is_a_warning(write_model) -> None:

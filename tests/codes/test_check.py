@@ -620,8 +620,9 @@ def test_en_pin_bearing_uses_the_lower_yield_of_pin_and_plate() -> None:
 
 # EN 1993-1-8:2005 Table 3.4: M20 10.9 through the shank, 0.6 fub A / gamma_M2 (N);
 # 3.8(1): beta_Lf = 1 - (Lj - 15 d)/(200 d), Lj = 5 pitches of 70 mm.
-SPLICE_PLANE_RD = 0.6 * 1000.0 * math.pi * 20.0**2 / 4.0 / 1.25 * (
-    1.0 - (5 * 70.0 - 15 * 20.0) / (200 * 20.0))
+SPLICE_PLANE_RD = (
+    0.6 * 1000.0 * math.pi * 20.0**2 / 4.0 / 1.25 * (1.0 - (5 * 70.0 - 15 * 20.0) / (200 * 20.0))
+)
 
 
 def test_items_of_a_bolt_row_are_placed_by_bolt_plane_and_ply() -> None:
@@ -639,8 +640,10 @@ def test_items_of_a_bolt_row_are_placed_by_bolt_plane_and_ply() -> None:
     data = res.to_dict()
     bearing = [i for i in data["items"] if i["what"] == "bearing"]
     assert {(i["bolt"], i["ply"]) for i in bearing} == {
-        (k, name) for k in range(1, 7) for name in ("cover-outer", "chord-a", "cover-inner",
-                                                     "cover-back")}  # the pack is a filler
+        (k, name)
+        for k in range(1, 7)
+        for name in ("cover-outer", "chord-a", "cover-inner", "cover-back")
+    }  # the pack is a filler
     assert all(i["plane"] is None for i in bearing)
 
 

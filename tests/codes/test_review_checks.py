@@ -36,8 +36,9 @@ def _item(result, what: str, where: str):
 # --------------------------------------------------------------------------- item 5: k1
 
 
-def _en_bearing(k1: float, e1: float, d0: float, fub: float, fu: float, d: float,
-                t: float) -> float:
+def _en_bearing(
+    k1: float, e1: float, d0: float, fub: float, fu: float, d: float, t: float
+) -> float:
     # EN 1993-1-8:2005 Table 3.4: F_b,Rd = k1 alpha_b fu d t / gamma_M2, end bolt
     alpha_b = min(e1 / (3 * d0), fub / fu, 1.0)
     return k1 * alpha_b * fu * d * t / GAMMA_M2
@@ -45,7 +46,8 @@ def _en_bearing(k1: float, e1: float, d0: float, fub: float, fu: float, d: float
 
 def test_en_bearing_without_width_takes_k1_from_the_minimum_edge_distance() -> None:
     text = DEMO.replace("width = 100          # across the load: e2 = 50 mm\n", "").replace(
-        "width = 100\n", "")
+        "width = 100\n", ""
+    )
     assert "width" not in text.split("[member")[0].split("[[ply]]", 1)[1]
     _, result = _check(text)
     item = _item(result, "bearing", "ply hanger-1")
@@ -65,8 +67,9 @@ def test_en_bearing_with_a_width_takes_k1_from_half_of_it() -> None:
     item = _item(result, "bearing", "ply hanger-1")
     d0 = 26.0
     k1 = min(2.8 * 35.0 / d0 - 1.7, 2.5)  # EN 1993-1-8:2005 Table 3.4
-    assert item.capacity == pytest.approx(_en_bearing(k1, 50.0, d0, 800.0, 510.0, 24.0, 15.0),
-                                          rel=REL_ROUNDOFF)
+    assert item.capacity == pytest.approx(
+        _en_bearing(k1, 50.0, d0, 800.0, 510.0, 24.0, 15.0), rel=REL_ROUNDOFF
+    )
     assert "no width" not in item.note
 
 
@@ -75,8 +78,9 @@ def test_s355_bearing_uses_fu_510() -> None:
     _, result = _check(DEMO)
     item = _item(result, "bearing", "ply hanger-1")
     d0 = 26.0
-    assert item.capacity == pytest.approx(_en_bearing(2.5, 50.0, d0, 800.0, 510.0, 24.0, 15.0),
-                                          rel=REL_ROUNDOFF)
+    assert item.capacity == pytest.approx(
+        _en_bearing(2.5, 50.0, d0, 800.0, 510.0, 24.0, 15.0), rel=REL_ROUNDOFF
+    )
 
 
 # --------------------------------------------------------------------------- item 6
@@ -89,8 +93,10 @@ def test_an_informative_item_over_one_is_a_warning_beside_passes() -> None:
     assert bending.utilization > 1.0
     assert result.passes
     assert len(result.warnings) == 1
-    assert result.warnings[0].startswith(f"bolt bending, bolt at z = 0.875 in: utilization "
-                                         f"{bending.utilization:.3f} > 1.0 on an informative")
+    assert result.warnings[0].startswith(
+        f"bolt bending, bolt at z = 0.875 in: utilization "
+        f"{bending.utilization:.3f} > 1.0 on an informative"
+    )
     assert result.to_dict()["warnings"] == list(result.warnings)
 
 
@@ -124,8 +130,11 @@ def test_pin_bending_with_shear_defaults_to_max_moment_with_max_shear(clevis) ->
     shear = 100e3 / 2
     # 3.13.2, Figure 3.11: never below F (b + 4c + 2a)/8 with uniform bearing
     plies = joint.plies
-    figure = 100e3 * (plies[1].thickness + 4 * plies[1].gap
-                      + 2 * plies[0].thickness) / 8.0 if len(plies) == 3 else 0.0
+    figure = (
+        100e3 * (plies[1].thickness + 4 * plies[1].gap + 2 * plies[0].thickness) / 8.0
+        if len(plies) == 3
+        else 0.0
+    )
     moment = max(sol.bolts[0].max_moment, figure)
     expected = (moment / m_rd) ** 2 + (shear / v_rd) ** 2
     # the plane shears of the solve are F/2 to round-off (symmetry)
@@ -137,7 +146,8 @@ def test_pin_bending_with_shear_defaults_to_max_moment_with_max_shear(clevis) ->
 def test_pin_bending_with_shear_of_one_section_is_smaller(clevis) -> None:
     joint, sol = clevis
     joint_same = dataclasses.replace(
-        joint, check=dataclasses.replace(joint.check, pin_interaction="same-section"))
+        joint, check=dataclasses.replace(joint.check, pin_interaction="same-section")
+    )
     a = _item(plyshear.check(joint, sol), "bending + shear", "bolt").demand
     b = _item(plyshear.check(joint_same, sol), "bending + shear", "bolt").demand
     d = 24.0
@@ -179,8 +189,7 @@ def test_asd_on_loads_declared_factored_is_refused() -> None:
     assert 'loads = "service"' in str(info.value)
 
 
-@pytest.mark.parametrize(("standard", "method"), [("aisc360-22", "lrfd"),
-                                                  ("en1993-1-8", None)])
+@pytest.mark.parametrize(("standard", "method"), [("aisc360-22", "lrfd"), ("en1993-1-8", None)])
 def test_strength_checks_of_loads_declared_service_are_refused(standard, method) -> None:
     text = SPLICE.replace('method = "lrfd"', 'method = "asd"\nloads = "service"')
     joint = modelfile.loads(text)

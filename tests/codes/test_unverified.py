@@ -29,8 +29,10 @@ ESTIMATE_FACTOR = 3.0
 def _hung(link: str) -> str:
     text = FORK
     for name in ("leg-1", "leg-2"):
-        text = text.replace(f'name = "{name}"\nmember = "fork"',
-                            f'name = "{name}"\nmember = "fork"\nlink_stiffness = "{link}"')
+        text = text.replace(
+            f'name = "{name}"\nmember = "fork"',
+            f'name = "{name}"\nmember = "fork"\nlink_stiffness = "{link}"',
+        )
     return text
 
 

@@ -25,8 +25,7 @@ def test_table_6_11_bolts_in_bearing_thin_plate() -> None:
     # EN 1993-1-8 Table 6.11: kb = min(0.25*40/20 + 0.5, 1.25) = 1.0,
     # kt = 1.5*10/16 = 0.9375, k12 = 24*kb*kt*d*fu/E; spring = E*k12
     k12 = 24 * 1.0 * (1.5 * 10 / 16) * 20 * 510 / 210000
-    assert bearing.component_spring(_bolt(20.0), ply) == pytest.approx(210000 * k12,
-                                                                        rel=REL_EXACT)
+    assert bearing.component_spring(_bolt(20.0), ply) == pytest.approx(210000 * k12, rel=REL_EXACT)
 
 
 def test_table_6_11_kt_is_capped_at_2_5() -> None:
@@ -38,6 +37,5 @@ def test_table_6_11_kt_is_capped_at_2_5() -> None:
 
 
 def test_override_wins() -> None:
-    ply = Ply(name="p", member="m", thickness=10.0, fy=355.0, fu=490.0,
-              foundation_modulus=1234.0)
+    ply = Ply(name="p", member="m", thickness=10.0, fy=355.0, fu=490.0, foundation_modulus=1234.0)
     assert bearing.modulus("component", _bolt(20.0), ply) == 1234.0

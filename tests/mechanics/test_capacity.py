@@ -201,8 +201,11 @@ def test_brittle_plane_rupture_scales_the_linear_plane_shear() -> None:
     joint = _fork("component")
     sol = plyshear.solve(joint)
     strength = 0.5 * max(p.shear for p in sol.first_bolt_planes)  # a plane rupture at half the load
-    lim = dataclasses.replace(_ample(joint), plane=np.full(len(sol.first_bolt_planes), strength),
-                              curves=_uncapped(joint).curves)
+    lim = dataclasses.replace(
+        _ample(joint),
+        plane=np.full(len(sol.first_bolt_planes), strength),
+        curves=_uncapped(joint).curves,
+    )
     result = capacity.analyse(joint, strength=lim)
     # statics of the linear solution: the load pattern scaled until the most
     # loaded plane reaches its strength

@@ -40,8 +40,7 @@ REL_BISECTION = 1e-9  # the max-flow bound is bisected to 1e-12
 REL_CONVERGED = 5e-3  # the brief: doubling the mesh moves the load < 0.5 %
 REL_JOHANSEN = 5e-3  # the LP converges to 0.5 %
 
-BOLT = Bolt(diameter=20.0, grade="8.8", fyb=640.0, fub=800.0, stress_area=245.0,
-            threads="excluded")
+BOLT = Bolt(diameter=20.0, grade="8.8", fyb=640.0, fub=800.0, stress_area=245.0, threads="excluded")
 
 
 def strengths(joint: Joint):
@@ -52,8 +51,11 @@ def strengths(joint: Joint):
         return np.where(b.threaded_along(z), np.sqrt(4 * b.stress_area / np.pi), b.diameter)
 
     bearing = [BEARING_FACTOR * b.diameter * p.fu for p in joint.plies]
-    return (bearing, lambda z: b.fyb * diameter(z) ** 3 / 6,
-            lambda z: SHEAR_OVER_TENSION * b.fub * np.pi * diameter(z) ** 2 / 4)
+    return (
+        bearing,
+        lambda z: b.fyb * diameter(z) ** 3 / 6,
+        lambda z: SHEAR_OVER_TENSION * b.fub * np.pi * diameter(z) ** 2 / 4,
+    )
 
 
 def _constant(v: float):
@@ -73,8 +75,9 @@ def _bound(joint: Joint, bearing, shear, nets=None) -> float:
     return loadpath.plastic_bound(joint, planes, plies, nets).load
 
 
-def _ply(name: str, member: str | None, t: float, gap: float = 0.0,
-         width: float | None = None) -> Ply:
+def _ply(
+    name: str, member: str | None, t: float, gap: float = 0.0, width: float | None = None
+) -> Ply:
     return Ply(name=name, member=member, thickness=t, fy=355.0, fu=490.0, gap=gap, width=width)
 
 
@@ -85,14 +88,29 @@ def _ply(name: str, member: str | None, t: float, gap: float = 0.0,
 def stacks(draw):
     """Random stacks: 2–5 plies of members a (held), b, c (loaded along x) or fillers."""
     n = draw(st.integers(2, 5))
-    owners = draw(st.lists(st.sampled_from(["a", "b", "c", None]), min_size=n, max_size=n)
-                  .filter(lambda o: "a" in o and "b" in o))
-    plies = tuple(_ply(f"p{j}", o, draw(st.floats(3.0, 30.0)),
-                       gap=draw(st.sampled_from([0.0, 0.0, 2.5])), width=80.0)
-                  for j, o in enumerate(owners))
-    members = [Member("a", support=True, enters=draw(st.sampled_from(["before", "after"]))),
-               Member("b", load=(draw(st.floats(1e3, 1e5)), 0.0),
-                      enters=draw(st.sampled_from(["before", "after"])))]
+    owners = draw(
+        st.lists(st.sampled_from(["a", "b", "c", None]), min_size=n, max_size=n).filter(
+            lambda o: "a" in o and "b" in o
+        )
+    )
+    plies = tuple(
+        _ply(
+            f"p{j}",
+            o,
+            draw(st.floats(3.0, 30.0)),
+            gap=draw(st.sampled_from([0.0, 0.0, 2.5])),
+            width=80.0,
+        )
+        for j, o in enumerate(owners)
+    )
+    members = [
+        Member("a", support=True, enters=draw(st.sampled_from(["before", "after"]))),
+        Member(
+            "b",
+            load=(draw(st.floats(1e3, 1e5)), 0.0),
+            enters=draw(st.sampled_from(["before", "after"])),
+        ),
+    ]
     if "c" in owners:
         members.append(Member("c", load=(draw(st.floats(-1e5, 1e5)), 0.0)))
     stations = tuple(60.0 * i for i in range(draw(st.integers(1, 3))))
@@ -156,9 +174,11 @@ load = 1000
 
 
 def _pin(t_out: float = 10.0, t_mid: float = 20.0) -> Joint:
-    return Joint(bolt=BOLT, plies=(_ply("o1", "fork", t_out), _ply("mid", "lug", t_mid),
-                                   _ply("o2", "fork", t_out)),
-                 members=(Member("fork", support=True), Member("lug", load=(5e4, 0.0))))
+    return Joint(
+        bolt=BOLT,
+        plies=(_ply("o1", "fork", t_out), _ply("mid", "lug", t_mid), _ply("o2", "fork", t_out)),
+        members=(Member("fork", support=True), Member("lug", load=(5e4, 0.0))),
+    )
 
 
 def test_double_shear_pin_that_shears_carries_two_plane_strengths() -> None:
@@ -171,18 +191,23 @@ def test_double_shear_pin_that_shears_carries_two_plane_strengths() -> None:
     assert result.mechanism.hinges == ()
 
 
-@pytest.mark.parametrize(("mp", "planes", "hinges"), [
-    (1e6, ((0, 1),), []),  # V/Vu = 0.89 > M/Mp = 0.45: the plane shears
-    (3e5, (), [10.0, 20.0]),  # V/Vu = 0.51 < M/Mp = 0.86: hinges at the gap's faces
-])
+@pytest.mark.parametrize(
+    ("mp", "planes", "hinges"),
+    [
+        (1e6, ((0, 1),), []),  # V/Vu = 0.89 > M/Mp = 0.45: the plane shears
+        (3e5, (), [10.0, 20.0]),  # V/Vu = 0.51 < M/Mp = 0.86: hinges at the gap's faces
+    ],
+)
 def test_gap_puts_moment_beside_shear_on_the_ellipse(mp, planes, hinges) -> None:
     # statics: across a gap g the shear V is constant and M = ±V g/2 at its faces
     # (antisymmetric lap, strong plies), so (V/Vu)² + (V g/(2 Mp))² = 1 there
     g, vu = 10.0, 1e5
     joint = modelfile.loads(LAP.format(gap=g))
     exact = 1.0 / math.hypot(1.0 / vu, g / (2 * mp))
-    results = [collapse(joint, [1e5, 1e5], _constant(mp), _constant(vu), sides=s)
-               for s in (16, 32, 64, 128)]
+    results = [
+        collapse(joint, [1e5, 1e5], _constant(mp), _constant(vu), sides=s)
+        for s in (16, 32, 64, 128)
+    ]
     loads = [r.load for r in results]
     # nested inscribed polygons: more sides never lower the answer ...
     assert all(b >= a * (1 - REL_SOLVER) for a, b in zip(loads, loads[1:], strict=False))
@@ -216,9 +241,15 @@ def test_two_bolt_row_adds_a_net_section_to_one_bolt() -> None:
     # With a stiff dowel each bolt is held by ply a's bearing, q t (Johansen mode a).
     q, t, net = 1000.0, 10.0, 4000.0
     plies = (_ply("a", "a", t, width=80.0), _ply("b", "b", 40.0, width=80.0))
-    joint = Joint(bolt=BOLT, plies=plies, stations=(0.0, 60.0),
-                  members=(Member("a", load=(1e4, 0.0), enters="before"),
-                           Member("b", support=True, enters="after")))
+    joint = Joint(
+        bolt=BOLT,
+        plies=plies,
+        stations=(0.0, 60.0),
+        members=(
+            Member("a", load=(1e4, 0.0), enters="before"),
+            Member("b", support=True, enters="after"),
+        ),
+    )
     result = collapse(joint, [q, q], _constant(1e9), _constant(math.inf), [net, math.inf])
     assert result.load == pytest.approx(q * t + net, rel=REL_SOLVER)
     assert result.mechanism.net_sections == (("a", 0),)
@@ -235,8 +266,16 @@ def test_bearing_and_plane_signs_agree_with_the_linear_solution(name: str) -> No
     bearing, mp, vu = strengths(joint)
     sol = plyshear.solve(joint)
     axis = joint.load_axis()
-    field = _solve(joint, 16, np.array(bearing), mp, vu, np.full(len(bearing), np.inf),
-                   capacity.load_pattern(joint), 32)
+    field = _solve(
+        joint,
+        16,
+        np.array(bearing),
+        mp,
+        vu,
+        np.full(len(bearing), np.inf),
+        capacity.load_pattern(joint),
+        32,
+    )
     linear_ply = np.sign([np.dot(p.force_xy, axis) for p in sol.bolts[0].plies])
     linear_plane = np.sign([np.dot(p.shear_xy, axis) for p in sol.bolts[0].planes])
     # both follow plyshear.mechanics.results: bearing is the bolt's force on the ply,
@@ -248,13 +287,20 @@ def test_bearing_and_plane_signs_agree_with_the_linear_solution(name: str) -> No
 
 def test_bar_force_signs_agree_with_the_linear_solution() -> None:
     plies = (_ply("a", "a", 10.0, width=80.0), _ply("b", "b", 12.0, width=80.0))
-    joint = Joint(bolt=BOLT, plies=plies, stations=(0.0, 60.0),
-                  members=(Member("a", load=(-1e5, 0.0), enters="before"),
-                           Member("b", support=True, enters="after")))
+    joint = Joint(
+        bolt=BOLT,
+        plies=plies,
+        stations=(0.0, 60.0),
+        members=(
+            Member("a", load=(-1e5, 0.0), enters="before"),
+            Member("b", support=True, enters="after"),
+        ),
+    )
     bearing, mp, vu = strengths(joint)
     sol = plyshear.solve(joint)
-    field = _solve(joint, 16, np.array(bearing), mp, vu, np.full(2, np.inf),
-                   capacity.load_pattern(joint), 32)
+    field = _solve(
+        joint, 16, np.array(bearing), mp, vu, np.full(2, np.inf), capacity.load_pattern(joint), 32
+    )
     # the ply segments' forces along the load: tension positive in both
     assert np.array_equal(np.sign(field.bar), np.sign(sol.segment_forces @ joint.load_axis()))
 
@@ -278,7 +324,8 @@ def test_symmetric_stack_has_a_symmetric_mechanism() -> None:
     assert {n for _, n in mech.bearing} == {names[-1 - names.index(n)] for _, n in mech.bearing}
     assert {k for _, k in mech.planes} == {nplanes + 1 - k for _, k in mech.planes}
     assert sorted(h.z for h in mech.hinges) == pytest.approx(
-        sorted(joint.grip - h.z for h in mech.hinges), abs=1e-9)
+        sorted(joint.grip - h.z for h in mech.hinges), abs=1e-9
+    )
     assert mirror.load == pytest.approx(result.load, rel=REL_SOLVER)
     assert mech.planes  # something governs (the planes next to the middle leg)
 
@@ -287,8 +334,16 @@ def test_doubling_the_mesh_moves_the_load_less_than_half_a_percent() -> None:
     joint = modelfile.loads(LAP.format(gap=0))
     bearing, mp, vu = strengths(joint)
     result = collapse(joint, bearing, mp, vu)
-    finer = _solve(joint, 2 * result.elements, np.array(bearing), mp, vu, np.full(2, np.inf),
-                   capacity.load_pattern(joint), 32)
+    finer = _solve(
+        joint,
+        2 * result.elements,
+        np.array(bearing),
+        mp,
+        vu,
+        np.full(2, np.inf),
+        capacity.load_pattern(joint),
+        32,
+    )
     assert result.change < REL_CONVERGED
     assert finer.factor == pytest.approx(result.factor, rel=REL_CONVERGED)
     # the discretised fields are nested: a finer mesh never carries less
@@ -308,9 +363,11 @@ def test_unbounded_bearing_is_refused() -> None:
 
 def test_loads_in_two_directions_are_refused() -> None:
     joint = _pin()
-    joint = dataclasses.replace(joint, members=(
-        Member("fork", support=True), Member("lug", load=(5e4, 0.0))) + (
-        Member("other", load=(0.0, 1e4)),))
+    joint = dataclasses.replace(
+        joint,
+        members=(Member("fork", support=True), Member("lug", load=(5e4, 0.0)))
+        + (Member("other", load=(0.0, 1e4)),),
+    )
     joint = joint.with_ply(0, member="other")
     with pytest.raises(ValueError, match="not collinear"):
         collapse(joint, [1e3] * 3, _constant(1e6), _constant(1e5))

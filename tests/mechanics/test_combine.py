@@ -45,8 +45,7 @@ def with_cases(joint: Joint, seed: int = 7) -> Joint:
         Combination("c2", (("dead", 0.9), ("wind", 1.0))),
         Combination("c3", (("dead", 1.2), ("wind", -1.0), ("live", 1.0), ("snow", 0.5))),
     )
-    return dataclasses.replace(joint, cases=tuple(cases),
-                               combinations=combos).for_combination("c1")
+    return dataclasses.replace(joint, cases=tuple(cases), combinations=combos).for_combination("c1")
 
 
 def close(a: np.ndarray, b: np.ndarray) -> None:
@@ -61,17 +60,20 @@ def test_each_combination_equals_the_solve_of_its_loads_typed_in(path: Path) -> 
     for name, sol in combined.combinations.items():
         direct = plyshear.solve(joint.for_combination(name))
         for b, d in zip(sol.bolts, direct.bolts, strict=True):
-            close(np.array([p.shear_xy for p in b.planes]),
-                  np.array([p.shear_xy for p in d.planes]))
-            close(np.array([p.moment_xy for p in b.planes]),
-                  np.array([p.moment_xy for p in d.planes]))
-            close(np.array([p.force_xy for p in b.plies]),
-                  np.array([p.force_xy for p in d.plies]))
+            close(
+                np.array([p.shear_xy for p in b.planes]), np.array([p.shear_xy for p in d.planes])
+            )
+            close(
+                np.array([p.moment_xy for p in b.planes]), np.array([p.moment_xy for p in d.planes])
+            )
+            close(np.array([p.force_xy for p in b.plies]), np.array([p.force_xy for p in d.plies]))
             close(b.V, d.V)
             close(b.M, d.M)
             close(b.w, d.w)
-        close(np.array([m.reaction_xy for m in sol.members]),
-              np.array([m.reaction_xy for m in direct.members]))
+        close(
+            np.array([m.reaction_xy for m in sol.members]),
+            np.array([m.reaction_xy for m in direct.members]),
+        )
         assert sol.equilibrium_residual < 1e-9  # round-off, as a single solve's
         assert sol.joint.combination == name
 
@@ -95,8 +97,8 @@ def test_the_governing_combination_of_a_plane_is_the_one_that_maximises_its_shea
     # c = -120 kN, which reverses plane 1's x shear.
     combined = solve_combinations(competing())
     plane1, plane2 = combined.planes
-    gravity = np.hypot(60.0, 48.0) * 1e3          # statics, N
-    uplift_1 = abs(45.0 - 120.0) * 1e3            # statics, N
+    gravity = np.hypot(60.0, 48.0) * 1e3  # statics, N
+    uplift_1 = abs(45.0 - 120.0) * 1e3  # statics, N
     assert plane1.shear.combination == "gravity"
     assert plane1.shear.value == pytest.approx(max(gravity, uplift_1), rel=REL_EXACT)
     assert plane2.shear.combination == "uplift"

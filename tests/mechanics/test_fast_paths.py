@@ -46,8 +46,9 @@ def _bisected_bound(graph, supply: float, total: float) -> float:
 def _with_pattern(joint: plyshear.Joint, loads: list[float]) -> plyshear.Joint:
     """The joint with its free members loaded along x by ``loads`` (N, in member order)."""
     it = iter(loads)
-    members = tuple(m if m.support else dataclasses.replace(m, load=(next(it), 0.0))
-                    for m in joint.members)
+    members = tuple(
+        m if m.support else dataclasses.replace(m, load=(next(it), 0.0)) for m in joint.members
+    )
     return dataclasses.replace(joint, members=members)
 
 
@@ -89,8 +90,7 @@ def _analyses(path, monkeypatch):
     return fast, slow
 
 
-@pytest.mark.parametrize("path", [p for p in EXAMPLES if "six" not in p.stem],
-                         ids=lambda p: p.stem)
+@pytest.mark.parametrize("path", [p for p in EXAMPLES if "six" not in p.stem], ids=lambda p: p.stem)
 def test_secant_search_of_the_end_equals_the_bisection(path, monkeypatch) -> None:
     fast, slow = _analyses(path, monkeypatch)
     assert fast.load == pytest.approx(slow.load, rel=REL_END_SEARCH)
@@ -102,8 +102,9 @@ def test_secant_search_of_the_end_equals_the_bisection(path, monkeypatch) -> Non
 def _tangent(joint: plyshear.Joint, slip: float):
     """The tangent (ab, B, C) of the joint's analysis model at a generalised displacement."""
     model = incremental._Model(incremental.reference_pattern(joint))
-    x, y, lam, _ = incremental._newton(model, np.zeros(model.lay.na), np.zeros(model.lay.nm),
-                                       0.0, slip)
+    x, y, lam, _ = incremental._newton(
+        model, np.zeros(model.lay.na), np.zeros(model.lay.nm), 0.0, slip
+    )
     return model.evaluate(x, y)["K"]
 
 
@@ -147,8 +148,9 @@ def _contact_one_ply_at_a_time(model, s: np.ndarray):
 @pytest.mark.parametrize("path", EXAMPLES, ids=lambda p: p.stem)
 def test_stacked_curves_equal_one_ply_at_a_time(path, law) -> None:
     joint = plyshear.load_model(path)
-    joint = dataclasses.replace(joint, analysis=dataclasses.replace(
-        joint.analysis, bearing=law, clearance="concentric"))
+    joint = dataclasses.replace(
+        joint, analysis=dataclasses.replace(joint.analysis, bearing=law, clearance="concentric")
+    )
     model = incremental._Model(incremental.reference_pattern(joint))
     # deformations from inside the gap to far along both curves
     s = np.random.default_rng(7).uniform(-8.0, 8.0, model.n.shape[0] * model.n.shape[1])
@@ -168,8 +170,10 @@ def _epp_everywhere(kappa, r, E, e0):
     J = cc / 8.0 * (2.0 * cc * cc - r * r) * root + r**4 / 8.0 * np.arcsin(np.minimum(cc / r, 1.0))
     sy = E * e0
     m_pl = 4.0 * sy * J / cc + 4.0 / 3.0 * sy * root**3
-    return (np.where(elastic, E * inertia * kappa, np.sign(kappa) * m_pl),
-            np.where(elastic, E * inertia, 4.0 * E * J))
+    return (
+        np.where(elastic, E * inertia * kappa, np.sign(kappa) * m_pl),
+        np.where(elastic, E * inertia, 4.0 * E * J),
+    )
 
 
 def test_plastic_sections_only_equal_the_closed_form_everywhere() -> None:
@@ -179,16 +183,20 @@ def test_plastic_sections_only_equal_the_closed_form_everywhere() -> None:
     # curvatures from zero through first yield (2 e0 / d) to deep in the plastic range
     kappa = rng.choice([-1.0, 1.0], (50, 3)) * rng.uniform(0.0, 20.0, (50, 3)) * e0 / r
     kappa[0, 0] = 0.0
-    for fast, slow in zip(section._epp_circle(kappa, r, 210000.0, e0),
-                          _epp_everywhere(kappa, r, 210000.0, e0), strict=True):
+    for fast, slow in zip(
+        section._epp_circle(kappa, r, 210000.0, e0),
+        _epp_everywhere(kappa, r, 210000.0, e0),
+        strict=True,
+    ):
         assert np.array_equal(fast, slow)  # the same arithmetic on each section
 
 
 def test_a_cached_numbering_solves_like_a_fresh_one() -> None:
     # the same shape with other numbers: the second solve reuses the first's numbering
     joint = plyshear.load_model(MODELS / "fork-four-planes.toml")
-    other = dataclasses.replace(joint, plies=tuple(
-        dataclasses.replace(p, thickness=p.thickness * 1.3) for p in joint.plies))
+    other = dataclasses.replace(
+        joint, plies=tuple(dataclasses.replace(p, thickness=p.thickness * 1.3) for p in joint.plies)
+    )
     plyshear.solve(joint)
     cached = plyshear.solve(other)
     assembly._NUMBERINGS.clear()

@@ -58,8 +58,15 @@ enters = "after"
 PITCH = 60.0
 
 
-def _lap(n: int, ta: float = 10.0, tb: float = 10.0, wa: float = 100.0, wb: float = 100.0,
-         ea: float = 210000.0, eb: float = 210000.0) -> plyshear.Joint:
+def _lap(
+    n: int,
+    ta: float = 10.0,
+    tb: float = 10.0,
+    wa: float = 100.0,
+    wb: float = 100.0,
+    ea: float = 210000.0,
+    eb: float = 210000.0,
+) -> plyshear.Joint:
     pattern = f"[pattern]\ncount = {n}\npitch = {PITCH}" if n > 1 else ""
     return modelfile.loads(LAP.format(pattern=pattern, ta=ta, tb=tb, wa=wa, wb=wb, ea=ea, eb=eb))
 
@@ -136,11 +143,21 @@ def test_rigid_plates_share_equally() -> None:
 
 
 def test_balanced_double_cover_splice_is_symmetric() -> None:
-    text = LAP.format(pattern=f"[pattern]\ncount = 5\npitch = {PITCH}", ta=20, tb=10, wa=100,
-                      wb=100, ea=210000, eb=210000)
+    text = LAP.format(
+        pattern=f"[pattern]\ncount = 5\npitch = {PITCH}",
+        ta=20,
+        tb=10,
+        wa=100,
+        wb=100,
+        ea=210000,
+        eb=210000,
+    )
     # a second cover of the same plate makes b's pair as stiff as a (2 x 10 = 20 mm)
-    text = text.replace('[member.a]', '[[ply]]\nname = "b2"\nmember = "b"\nthickness = 10\n'
-                        'fy = 355\nfu = 490\nwidth = 100\n[member.a]')
+    text = text.replace(
+        "[member.a]",
+        '[[ply]]\nname = "b2"\nmember = "b"\nthickness = 10\n'
+        "fy = 355\nfu = 490\nwidth = 100\n[member.a]",
+    )
     joint = modelfile.loads(text)
     # put a in the middle: b / a / b2
     joint = dataclasses.replace(joint, plies=(joint.plies[1], joint.plies[0], joint.plies[2]))

@@ -40,8 +40,11 @@ def _fork_cap(joint: plyshear.Joint) -> float:
     """Sum over the fork's legs of F_u·2·t·b, b = (w − d_h)/2 (hand, AISC 360-22 D5-1)."""
     dh = joint.bolt.diameter + 1.0  # the pin hole: d + 1 mm (D5.2's S.I. limit)
     side = (NARROW - dh) / 2.0
-    return sum(p.fu * 2.0 * p.thickness * min(side, 2.0 * p.thickness + 16.0)
-               for p in joint.plies if p.member == "fork")
+    return sum(
+        p.fu * 2.0 * p.thickness * min(side, 2.0 * p.thickness + 16.0)
+        for p in joint.plies
+        if p.member == "fork"
+    )
 
 
 def test_the_lug_strength_caps_the_ply() -> None:

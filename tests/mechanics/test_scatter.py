@@ -37,15 +37,23 @@ def _order_statistic(values: list[float], q: float) -> float:
 
 
 def _samples(shears: list[float], caps: list[float], statuses: list[str]):
-    return [studies.Sample(i + 1, (), s, c, st)
-            for i, (s, c, st) in enumerate(zip(shears, caps, statuses, strict=True))]
+    return [
+        studies.Sample(i + 1, (), s, c, st)
+        for i, (s, c, st) in enumerate(zip(shears, caps, statuses, strict=True))
+    ]
 
 
 def test_percentiles_count_failed_and_unconverged_samples_as_worst() -> None:
     shears = [50.0, 52.0, 49.0, INF, 55.0, 51.0, INF, 53.0, 48.0, INF]
     caps = [200.0, 210.0, 190.0, 90.0, 205.0, 195.0, 80.0, 215.0, 185.0, -INF]
-    statuses = ([studies.OK] * 3 + [studies.BELOW_LOAD] + [studies.OK] * 2
-                + [studies.BELOW_LOAD] + [studies.OK] * 2 + [studies.NOT_CONVERGED + ": x"])
+    statuses = (
+        [studies.OK] * 3
+        + [studies.BELOW_LOAD]
+        + [studies.OK] * 2
+        + [studies.BELOW_LOAD]
+        + [studies.OK] * 2
+        + [studies.NOT_CONVERGED + ": x"]
+    )
     res = studies.ScatterResult.of(_samples(shears, caps, statuses), 100.0, 2.0)
     assert res.below_load == 2
     assert res.failed == 1
@@ -60,8 +68,9 @@ def test_percentiles_count_failed_and_unconverged_samples_as_worst() -> None:
 
 
 def test_offsets_repeat_for_a_seed_and_stay_within_the_clearance() -> None:
-    joint = modelfile.loads(FORK.replace("[member.fork]", '[analysis]\nbearing = '
-                                         '"elastic-plastic"\n\n[member.fork]'))
+    joint = modelfile.loads(
+        FORK.replace("[member.fork]", '[analysis]\nbearing = "elastic-plastic"\n\n[member.fork]')
+    )
     a = studies.scatter_offsets(joint, 50, seed=7)
     b = studies.scatter_offsets(joint, 50, seed=7)
     np.testing.assert_array_equal(a, b)
@@ -73,8 +82,10 @@ def test_offsets_repeat_for_a_seed_and_stay_within_the_clearance() -> None:
 @pytest.mark.skipif(not sys.platform.startswith("linux"), reason="signals a process")
 def test_scatter_interrupt_keeps_samples_and_resume_completes(tmp_path: Path) -> None:
     model = tmp_path / "fork.toml"
-    model.write_text(FORK.replace("[member.fork]", '[analysis]\nbearing = "elastic-plastic"'
-                                  "\n\n[member.fork]"), encoding="utf-8")
+    model.write_text(
+        FORK.replace("[member.fork]", '[analysis]\nbearing = "elastic-plastic"\n\n[member.fork]'),
+        encoding="utf-8",
+    )
     out = tmp_path / "samples.csv"
     partial = tmp_path / "samples.csv.partial"
     n = 10

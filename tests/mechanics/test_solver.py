@@ -34,11 +34,27 @@ RESIDUAL_MAX = 1e-10
 
 
 def _determinate_text(thick, loads, support, moduli, gaps, beam, ends) -> str:
-    lines = ['format = 1', 'units = "N-mm"', "[bolt]", "diameter = 20", 'grade = "8.8"',
-             f'ends = "{ends}"', "[analysis]", f'beam = "{beam}"', "elements_per_ply = 4"]
+    lines = [
+        "format = 1",
+        'units = "N-mm"',
+        "[bolt]",
+        "diameter = 20",
+        'grade = "8.8"',
+        f'ends = "{ends}"',
+        "[analysis]",
+        f'beam = "{beam}"',
+        "elements_per_ply = 4",
+    ]
     for j, t in enumerate(thick):
-        lines += ["[[ply]]", f'name = "p{j}"', f'member = "m{j}"', f"thickness = {t!r}",
-                  "fy = 355", "fu = 490", f"gap = {gaps[j]!r}"]
+        lines += [
+            "[[ply]]",
+            f'name = "p{j}"',
+            f'member = "m{j}"',
+            f"thickness = {t!r}",
+            "fy = 355",
+            "fu = 490",
+            f"gap = {gaps[j]!r}",
+        ]
         if moduli[j] is not None:
             lines.append(f"foundation_modulus = {moduli[j]!r}")
     for j, load in enumerate(loads):
@@ -77,18 +93,21 @@ def test_determinate_stack_gives_statics_for_any_stiffness(case) -> None:
     for plane, ref in zip(sol.first_bolt_planes, expected, strict=True):
         assert plane.shear_xy == pytest.approx(ref, rel=REL_STATICS, abs=REL_STATICS * scale)
     assert sol.equilibrium_residual < RESIDUAL_WARN or any(
-        "ill-conditioned" in w for w in sol.warnings)
+        "ill-conditioned" in w for w in sol.warnings
+    )
 
 
 def test_gusset_example_is_determinate() -> None:
     joint = plyshear.load_model(MODELS / "gusset-three-members.toml")
     sol = plyshear.solve(joint)
     # statics: angle-a pulls 40 kN along x, so plane 1 (below it) carries -40 kN
-    assert sol.first_bolt_planes[0].shear_xy == pytest.approx((-40e3, 0.0), rel=REL_ROUNDOFF,
-                                                   abs=ABS_ROUNDOFF_N)
+    assert sol.first_bolt_planes[0].shear_xy == pytest.approx(
+        (-40e3, 0.0), rel=REL_ROUNDOFF, abs=ABS_ROUNDOFF_N
+    )
     # statics: plane 3 is above the stiffener alone, loaded (-20, 0) kN
-    assert sol.first_bolt_planes[2].shear_xy == pytest.approx((-20e3, 0.0), rel=REL_ROUNDOFF,
-                                                   abs=ABS_ROUNDOFF_N)
+    assert sol.first_bolt_planes[2].shear_xy == pytest.approx(
+        (-20e3, 0.0), rel=REL_ROUNDOFF, abs=ABS_ROUNDOFF_N
+    )
 
 
 SYMMETRIC = """\
@@ -156,15 +175,20 @@ def test_mirrored_stack_gives_mirrored_shears() -> None:
 
 def test_direction_of_load_does_not_change_resultants() -> None:
     joint = modelfile.loads(FORK)
-    rotated = dataclasses.replace(joint, members=tuple(
-        dataclasses.replace(m, load=(0.6 * m.load[0], -0.8 * m.load[0])) for m in joint.members))
+    rotated = dataclasses.replace(
+        joint,
+        members=tuple(
+            dataclasses.replace(m, load=(0.6 * m.load[0], -0.8 * m.load[0])) for m in joint.members
+        ),
+    )
     a, b = plyshear.solve(joint), plyshear.solve(rotated)
     assert b.first_bolt_shears() == pytest.approx(a.first_bolt_shears(), rel=REL_ROUNDOFF)
     assert b.bolts[0].max_moment == pytest.approx(a.bolts[0].max_moment, rel=REL_ROUNDOFF)
 
 
-@pytest.mark.parametrize("name", ["fork-four-planes.toml", "lug-cheek-plates.toml",
-                                  "splice-with-filler.toml"])
+@pytest.mark.parametrize(
+    "name", ["fork-four-planes.toml", "lug-cheek-plates.toml", "splice-with-filler.toml"]
+)
 def test_mesh_convergence(name: str) -> None:
     joint = plyshear.load_model(MODELS / name)
     coarse = plyshear.solve(joint.with_analysis(elements_per_ply=10)).first_bolt_shears()
@@ -198,10 +222,15 @@ def test_loose_filler_carries_no_net_force() -> None:
 
 def test_results_scale_linearly_with_load() -> None:
     joint = modelfile.loads(FORK)
-    double = dataclasses.replace(joint, members=tuple(
-        dataclasses.replace(m, load=(2 * m.load[0], 2 * m.load[1])) for m in joint.members))
+    double = dataclasses.replace(
+        joint,
+        members=tuple(
+            dataclasses.replace(m, load=(2 * m.load[0], 2 * m.load[1])) for m in joint.members
+        ),
+    )
     assert plyshear.solve(double).first_bolt_shears() == pytest.approx(
-        2 * plyshear.solve(joint).first_bolt_shears(), rel=REL_ROUNDOFF)
+        2 * plyshear.solve(joint).first_bolt_shears(), rel=REL_ROUNDOFF
+    )
 
 
 def test_free_end_has_zero_shear_and_moment() -> None:
@@ -214,9 +243,12 @@ def test_free_end_has_zero_shear_and_moment() -> None:
 
 
 @settings(max_examples=60, deadline=None)
-@given(st.lists(st.tuples(st.sampled_from(["a", "b", "c", None]), st.booleans()),
-                min_size=2, max_size=8),
-       st.sets(st.sampled_from(["a", "b", "c"]), max_size=3))
+@given(
+    st.lists(
+        st.tuples(st.sampled_from(["a", "b", "c", None]), st.booleans()), min_size=2, max_size=8
+    ),
+    st.sets(st.sampled_from(["a", "b", "c"]), max_size=3),
+)
 def test_load_path_closed_form_agrees_with_the_networkx_graph(plies, held) -> None:
     import dataclasses
 
@@ -227,17 +259,20 @@ def test_load_path_closed_form_agrees_with_the_networkx_graph(plies, held) -> No
     used = sorted({m for m, _ in plies if m is not None})
     joint = dataclasses.replace(
         base,
-        plies=tuple(dataclasses.replace(base.plies[0], name=f"p{i}", member=m,
-                                        foundation_modulus=1e4 if bears else None)
-                    for i, (m, bears) in enumerate(plies)),
-        members=tuple(Member(name=m, support=m in held) for m in used))
+        plies=tuple(
+            dataclasses.replace(
+                base.plies[0], name=f"p{i}", member=m, foundation_modulus=1e4 if bears else None
+            )
+            for i, (m, bears) in enumerate(plies)
+        ),
+        members=tuple(Member(name=m, support=m in held) for m in used),
+    )
     zero_unless_set = {"component": lambda bolt, ply: ply.foundation_modulus or 0.0}
     original = dict(bearing.LAWS)
     bearing.LAWS.update(zero_unless_set)
     try:
         # networkx connected components of the bolt–ply–member graph
-        assert loadpath.unreachable_members(joint) == \
-            loadpath.unreachable_members_by_graph(joint)
+        assert loadpath.unreachable_members(joint) == loadpath.unreachable_members_by_graph(joint)
     finally:
         bearing.LAWS.clear()
         bearing.LAWS.update(original)

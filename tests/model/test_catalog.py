@@ -164,8 +164,10 @@ def test_out_of_range_message_names_the_standard_and_range_not_the_provenance():
     with pytest.raises(ValueError, match="outside the tabulated range") as info:
         catalog.steel("S355").strength(90.0)
     # EN 1993-1-1:2005 Table 3.1 tabulates t <= 80 mm
-    assert str(info.value) == ("steel S355: thickness 90 mm is outside the tabulated range "
-                               "0 < t <= 80 mm (EN 1993-1-1:2005 Table 3.1, EN 10025-2)")
+    assert str(info.value) == (
+        "steel S355: thickness 90 mm is outside the tabulated range "
+        "0 < t <= 80 mm (EN 1993-1-1:2005 Table 3.1, EN 10025-2)"
+    )
     assert "memory" not in str(info.value)
 
 
@@ -186,8 +188,10 @@ def test_steel_thickness_must_be_positive(t):
 def test_astm_plate_steels_in_ksi(key, fy_ksi, fu_ksi, fy_si, fu_si):
     s = catalog.steel(key)
     # stored in the standards' US customary values, so a kip-in model sees them exactly
-    assert s.strength(25.0) == (pytest.approx(fy_ksi * KSI, rel=REL_EXACT),
-                                pytest.approx(fu_ksi * KSI, rel=REL_EXACT))
+    assert s.strength(25.0) == (
+        pytest.approx(fy_ksi * KSI, rel=REL_EXACT),
+        pytest.approx(fu_ksi * KSI, rel=REL_EXACT),
+    )
     assert s.E == pytest.approx(200000.0, rel=REL_EXACT)  # AISC 360-22
     # the printed SI values are the ksi values rounded to the nearest 5 MPa
     assert s.strength(25.0)[0] == pytest.approx(fy_si, abs=5.0)
@@ -197,8 +201,24 @@ def test_astm_plate_steels_in_ksi(key, fy_ksi, fu_ksi, fy_si, fu_si):
 def test_unknown_steel_raises_catalog_error_listing_known_keys():
     with pytest.raises(catalog.CatalogError) as info:
         catalog.steel("S999")
-    known = ["S235", "S275", "S355", "S450", "S460", "S275N", "S355N", "S420N", "S460N",
-             "S275M", "S355M", "S420M", "S460M", "A36", "A572-50", "A992"]
+    known = [
+        "S235",
+        "S275",
+        "S355",
+        "S450",
+        "S460",
+        "S275N",
+        "S355N",
+        "S420N",
+        "S460N",
+        "S275M",
+        "S355M",
+        "S420M",
+        "S460M",
+        "A36",
+        "A572-50",
+        "A992",
+    ]
     assert str(info.value) == f"unknown steel 'S999'; known: {', '.join(known)}"
     assert catalog.steel_keys() == known
 

@@ -19,14 +19,18 @@ def test_unit_factors_are_the_exact_definitions() -> None:
     # NIST SP 811: 1 in = 25.4 mm exactly; 1 lbf = 4.4482216152605 N exactly
     assert SYSTEMS["kip-in"].factor("force") == pytest.approx(4448.2216152605, rel=REL_EXACT)
     assert SYSTEMS["kip-in"].factor("stress") == pytest.approx(6.894757293168361, rel=REL_EXACT)
-    assert SYSTEMS["kip-in"].factor("moment") == pytest.approx(4448.2216152605 * 25.4,
-                                                               rel=REL_EXACT)
+    assert SYSTEMS["kip-in"].factor("moment") == pytest.approx(
+        4448.2216152605 * 25.4, rel=REL_EXACT
+    )
     assert SYSTEMS["kN-mm"].factor("stress") == 1.0  # stresses stay MPa in metric systems
 
 
 def test_strings_with_units_are_parsed() -> None:
-    text = FORK.replace("diameter = 24", 'diameter = "0.945 in"').replace(
-        "load = 100", 'load = "22.48 kip"').replace("thickness = 20", 'thickness = "2 cm"')
+    text = (
+        FORK.replace("diameter = 24", 'diameter = "0.945 in"')
+        .replace("load = 100", 'load = "22.48 kip"')
+        .replace("thickness = 20", 'thickness = "2 cm"')
+    )
     joint = modelfile.loads(text)
     assert joint.bolt.diameter == pytest.approx(0.945 * 25.4, rel=REL_EXACT)
     assert joint.plies[1].thickness == pytest.approx(20.0, rel=REL_EXACT)
@@ -75,9 +79,16 @@ KN_MM = KIP_IN.replace('units = "kip-in"', 'units = "kN-mm"')
 
 def test_same_joint_in_kn_mm_and_kip_in_gives_the_same_results() -> None:
     metric = dict(d=24.0, t1=10.0, t2=20.0, fy=355.0, fu=490.0, g=1.5, px=100.0, py=-30.0)
-    inch = dict(d=24 / MM_PER_IN, t1=10 / MM_PER_IN, t2=20 / MM_PER_IN, fy=355 / KSI_IN_MPA,
-                fu=490 / KSI_IN_MPA, g=1.5 / MM_PER_IN, px=100e3 / N_PER_KIP,
-                py=-30e3 / N_PER_KIP)
+    inch = dict(
+        d=24 / MM_PER_IN,
+        t1=10 / MM_PER_IN,
+        t2=20 / MM_PER_IN,
+        fy=355 / KSI_IN_MPA,
+        fu=490 / KSI_IN_MPA,
+        g=1.5 / MM_PER_IN,
+        px=100e3 / N_PER_KIP,
+        py=-30e3 / N_PER_KIP,
+    )
     a = plyshear.solve(modelfile.loads(KN_MM.format(**metric)))
     b = plyshear.solve(modelfile.loads(KIP_IN.format(**{k: repr(v) for k, v in inch.items()})))
     assert b.first_bolt_shears() == pytest.approx(a.first_bolt_shears(), rel=REL_ROUNDOFF)
@@ -86,9 +97,11 @@ def test_same_joint_in_kn_mm_and_kip_in_gives_the_same_results() -> None:
     ja, jb = a.to_dict(diagram=False), b.to_dict(diagram=False)
     assert jb["units"]["force"] == "kip"
     assert jb["bolts"][0]["planes"][0]["shear"] == pytest.approx(
-        ja["bolts"][0]["planes"][0]["shear"] * 1e3 / N_PER_KIP, rel=REL_ROUNDOFF)
+        ja["bolts"][0]["planes"][0]["shear"] * 1e3 / N_PER_KIP, rel=REL_ROUNDOFF
+    )
     assert jb["bolts"][0]["max_moment"] == pytest.approx(
-        ja["bolts"][0]["max_moment"] * 1e3 / (N_PER_KIP * MM_PER_IN), rel=REL_ROUNDOFF)
+        ja["bolts"][0]["max_moment"] * 1e3 / (N_PER_KIP * MM_PER_IN), rel=REL_ROUNDOFF
+    )
 
 
 def test_thread_position_from_length_and_thread_length() -> None:

@@ -47,7 +47,8 @@ def test_allow_unloaded_must_be_a_boolean() -> None:
 def test_a_bolt_shorter_than_the_grip_is_refused() -> None:
     # the review's case: a 40 mm bolt on a 56 mm grip (18 + 20 + 18)
     text = FORK.replace('grade = "8.8"', 'grade = "8.8"\nlength = 40').replace(
-        "thickness = 10", "thickness = 18")
+        "thickness = 10", "thickness = 18"
+    )
     with pytest.raises(modelfile.ModelError) as info:
         modelfile.loads(text)
     assert info.value.key == "bolt.length"
@@ -60,8 +61,10 @@ def test_a_bolt_shorter_than_the_grip_is_refused() -> None:
 
 def test_a_pin_with_a_length_needs_no_thread_length() -> None:
     # a 21 mm pin: no thread table has the size (ISO 261 has M20 and M22)
-    text = FORK.replace('diameter = 24\ngrade = "8.8"',
-                        'diameter = 21\ngrade = "8.8"\nthreads = "excluded"\nlength = 60')
+    text = FORK.replace(
+        'diameter = 24\ngrade = "8.8"',
+        'diameter = 21\ngrade = "8.8"\nthreads = "excluded"\nlength = 60',
+    )
     joint = modelfile.loads(text + '\n[check]\nconnector = "pin"\n')
     assert joint.bolt.thread_length is None
     # no thread data: the pin's section is its gross area pi d^2 / 4
@@ -72,8 +75,10 @@ def test_a_pin_with_a_length_needs_no_thread_length() -> None:
         result = plyshear.check(joint, sol, standard)
         assert result.items
     # a bolt (threads "auto") of that size still needs its thread placed
-    text = FORK.replace('diameter = 24\ngrade = "8.8"',
-                        'diameter = 21\ngrade = "8.8"\nstress_area = 270\nlength = 60')
+    text = FORK.replace(
+        'diameter = 24\ngrade = "8.8"',
+        'diameter = 21\ngrade = "8.8"\nstress_area = 270\nlength = 60',
+    )
     with pytest.raises(modelfile.ModelError, match="bolt.thread_length: not given"):
         modelfile.loads(text)
 
@@ -86,11 +91,14 @@ def test_thread_length_zero_is_accepted() -> None:
     assert not any(p.threads for p in plyshear.solve(joint).first_bolt_planes)
 
 
-@pytest.mark.parametrize(("key", "value", "field", "expected"), [
-    ("loads", '"service"', "loads", "service"),
-    ("loads", '"factored"', "loads", "factored"),
-    ("pin_interaction", '"same-section"', "pin_interaction", "same-section"),
-])
+@pytest.mark.parametrize(
+    ("key", "value", "field", "expected"),
+    [
+        ("loads", '"service"', "loads", "service"),
+        ("loads", '"factored"', "loads", "factored"),
+        ("pin_interaction", '"same-section"', "pin_interaction", "same-section"),
+    ],
+)
 def test_the_new_check_keys_are_read(key, value, field, expected) -> None:
     joint = modelfile.loads(FORK + f"\n[check]\n{key} = {value}\n")
     assert getattr(joint.check, field) == expected
@@ -103,8 +111,7 @@ def test_the_defaults_of_the_new_check_keys() -> None:
     assert check.allow_unloaded is False
 
 
-@pytest.mark.parametrize(("key", "value"), [("loads", '"ultimate"'),
-                                            ("pin_interaction", '"max"')])
+@pytest.mark.parametrize(("key", "value"), [("loads", '"ultimate"'), ("pin_interaction", '"max"')])
 def test_the_new_check_keys_refuse_other_words(key, value) -> None:
     with pytest.raises(modelfile.ModelError, match=f"check.{key}: must be one of"):
         modelfile.loads(FORK + f"\n[check]\n{key} = {value}\n")

@@ -29,16 +29,19 @@ def test_plotted_diagrams_equal_the_solution_arrays(path) -> None:
     stack, shear, moment, pressure = fig.axes
     v, z = shear.lines[0].get_data()
     assert np.asarray(z) == pytest.approx(b.z / u.factor("length"), rel=REL_EXACT)
-    assert np.asarray(v) == pytest.approx(signed_resultant(b.V, axis) / u.factor("force"),
-                                          rel=REL_EXACT, abs=1e-12)
+    assert np.asarray(v) == pytest.approx(
+        signed_resultant(b.V, axis) / u.factor("force"), rel=REL_EXACT, abs=1e-12
+    )
     m, _ = moment.lines[0].get_data()
-    assert np.asarray(m) == pytest.approx(signed_resultant(b.M, axis) / u.factor("moment"),
-                                          rel=REL_EXACT, abs=1e-12)
+    assert np.asarray(m) == pytest.approx(
+        signed_resultant(b.M, axis) / u.factor("moment"), rel=REL_EXACT, abs=1e-12
+    )
     q, _ = pressure.lines[0].get_data()
     # drawn as the bearing of the bolt on the plies, -q (q: the plies on the bolt), as the
     # ply-bearing table gives it
-    expected = signed_resultant(-b.q.reshape(-1, 2), axis) / joint.bolt.diameter \
-        / u.factor("stress")
+    expected = (
+        signed_resultant(-b.q.reshape(-1, 2), axis) / joint.bolt.diameter / u.factor("stress")
+    )
     assert np.asarray(q) == pytest.approx(expected, rel=REL_EXACT, abs=1e-12)
     for ax in fig.axes:
         assert UNIT.search(ax.get_ylabel()) or ax is not stack
@@ -88,15 +91,24 @@ def test_importing_the_figures_selects_no_backend(tmp_path) -> None:
     import subprocess
     import sys
 
-    code = ("import sys, matplotlib\n"
-            "from plyshear.report import diagrams\n"
-            "from matplotlib.figure import Figure\n"
-            "fig = Figure()\nfig.add_subplot().plot([0, 1], [1, 0])\n"
-            "png = diagrams.figure_bytes(fig, 'png')\n"
-            "print(matplotlib.get_backend(), 'matplotlib.pyplot' in sys.modules, png[:4])")
+    code = (
+        "import sys, matplotlib\n"
+        "from plyshear.report import diagrams\n"
+        "from matplotlib.figure import Figure\n"
+        "fig = Figure()\nfig.add_subplot().plot([0, 1], [1, 0])\n"
+        "png = diagrams.figure_bytes(fig, 'png')\n"
+        "print(matplotlib.get_backend(), 'matplotlib.pyplot' in sys.modules, png[:4])"
+    )
     env = {**os.environ, "MPLBACKEND": "svg"}
-    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                         check=True, timeout=120, env=env, cwd=tmp_path)
+    out = subprocess.run(
+        [sys.executable, "-c", code],
+        capture_output=True,
+        text=True,
+        check=True,
+        timeout=120,
+        env=env,
+        cwd=tmp_path,
+    )
     assert out.stdout.split() == ["svg", "False", r"b'\x89PNG'"]
 
 
@@ -163,8 +175,7 @@ def test_bearing_pressure_has_the_ply_table_sign_and_the_strengths() -> None:
     d, hanger = joint.bolt.diameter, joint.plies[1]
     dh = d + hole_clearance(joint)
     level = 1.2 * (hanger.edge - dh / 2) * hanger.fu / d
-    drawn = [line.get_xdata()[0] for line in pressure.lines[1:]
-             if line.get_linestyle() == "--"]
+    drawn = [line.get_xdata()[0] for line in pressure.lines[1:] if line.get_linestyle() == "--"]
     assert any(x == pytest.approx(level, rel=REL_EXACT) for x in drawn)
 
 
@@ -180,9 +191,14 @@ def test_histogram_counts_are_integers() -> None:
     from plyshear.mechanics.studies import ScatterResult
 
     joint = plyshear.load_model(MODELS / "fork-four-planes.toml")
-    result = ScatterResult(service_shear=np.array([60e3, 61e3, 63e3]),
-                           capacity=np.array([640e3, 650e3, 655e3]), service_load=250e3,
-                           clearance=2.0, failed=0, planes=4)
+    result = ScatterResult(
+        service_shear=np.array([60e3, 61e3, 63e3]),
+        capacity=np.array([640e3, 650e3, 655e3]),
+        service_load=250e3,
+        clearance=2.0,
+        failed=0,
+        planes=4,
+    )
     fig = diagrams.scatter_figure(result, joint)
     for ax in fig.axes:
         ticks = ax.get_yticks()

@@ -162,8 +162,9 @@ def _quick_html(path: Path) -> str:
 
     joint = plyshear.load_model(path)
     sol = plyshear.solve(joint)
-    data = document.ReportData(joint, sol, plyshear.check(joint, sol), None, "skipped",
-                               "2026-12-02")
+    data = document.ReportData(
+        joint, sol, plyshear.check(joint, sol), None, "skipped", "2026-12-02"
+    )
     return document.to_html(data)
 
 
@@ -210,8 +211,7 @@ def test_pdf_report_has_title_block_page_numbers_and_a4_for_metric(tmp_path) -> 
         words = _words(page)
         assert f"Page {n} of {pages}" in words, words[:200]
         assert "Hanger to three-leg fork" in words  # the title block on every page
-        for label in ("Project", "Job", "Subject", "Prepared by", "Checked by", "Revision",
-                      "Date"):
+        for label in ("Project", "Job", "Subject", "Prepared by", "Checked by", "Revision", "Date"):
             assert label in words
         box = page.mediabox
         size = sorted((float(box.width), float(box.height)))
@@ -244,8 +244,10 @@ def test_no_pdf_text_line_runs_past_the_text_box(tmp_path) -> None:
 
 def test_title_block_shows_the_model_keys(tmp_path) -> None:
     source = (MODELS / "fork-four-planes.toml").read_text(encoding="utf-8")
-    keys = ('job = "J-4711"\nsubject = "Hanger pin H2"\nprepared_by = "A. Engineer"\n'
-            'checked_by = "B. Checker"\nrevision = "C"\ndate = 2026-11-30\n')
+    keys = (
+        'job = "J-4711"\nsubject = "Hanger pin H2"\nprepared_by = "A. Engineer"\n'
+        'checked_by = "B. Checker"\nrevision = "C"\ndate = 2026-11-30\n'
+    )
     model = tmp_path / "titled.toml"
     model.write_text(keys + source, encoding="utf-8")
     words = _words(_pdf(tmp_path, model).pages[1])
@@ -257,8 +259,9 @@ def test_pdf_needs_the_pdf_extra_or_says_so(tmp_path, monkeypatch) -> None:
     import sys
 
     monkeypatch.setitem(sys.modules, "typst", None)  # as if not installed
-    result = CliRunner().invoke(main, ["report", str(MODELS / "fork-four-planes.toml"), "-o",
-                                       str(tmp_path / "r.pdf")])
+    result = CliRunner().invoke(
+        main, ["report", str(MODELS / "fork-four-planes.toml"), "-o", str(tmp_path / "r.pdf")]
+    )
     assert result.exit_code == EXIT_BAD_INPUT
     assert "plyshear[pdf]" in result.output
     assert not (tmp_path / "r.pdf").exists()
@@ -294,8 +297,7 @@ def test_interrupted_write_leaves_the_old_file(tmp_path, monkeypatch) -> None:
 
 
 def test_report_needs_html_or_pdf(tmp_path) -> None:
-    result = CliRunner().invoke(main, ["report", str(EXAMPLES[0]), "-o",
-                                       str(tmp_path / "r.docx")])
+    result = CliRunner().invoke(main, ["report", str(EXAMPLES[0]), "-o", str(tmp_path / "r.docx")])
     assert result.exit_code == EXIT_BAD_INPUT
     assert ".html or .pdf" in result.output
 
@@ -341,7 +343,10 @@ def test_bolt_row_report_shows_every_bolts_plane_utilizations(tmp_path) -> None:
     header, rows = planes[0], planes[1:]
     util = {(int(r[0]), int(r[1])): float(r[header.index("utilization")]) for r in rows}
     solved = json.loads(CliRunner().invoke(main, ["solve", str(path), "--json"]).output)
-    expected = {(k, p["index"]): p["shear"] / (SPLICE_F_V_RD * SPLICE_BETA_LF)
-                for k, bolt in enumerate(solved["bolts"], start=1) for p in bolt["planes"]}
+    expected = {
+        (k, p["index"]): p["shear"] / (SPLICE_F_V_RD * SPLICE_BETA_LF)
+        for k, bolt in enumerate(solved["bolts"], start=1)
+        for p in bolt["planes"]
+    }
     assert len(expected) == 6 * 4  # six bolts, four planes each (five plies)
     assert util == pytest.approx(expected, abs=ABS_3_DECIMALS)

@@ -72,8 +72,11 @@ def test_check_xlsx_has_a_sheet_each_equal_to_the_json(tmp_path) -> None:
         assert cells["where"] == item["where"]
         assert cells["utilization"] == pytest.approx(item["utilization"], rel=REL_CSV)
         assert cells["clause"] == item["clause"]
-    governing = [dict(zip(header, r, strict=True)) for r in rows
-                 if dict(zip(header, r, strict=True))["governing"] is True]
+    governing = [
+        dict(zip(header, r, strict=True))
+        for r in rows
+        if dict(zip(header, r, strict=True))["governing"] is True
+    ]
     assert len(governing) == 1
 
 
@@ -94,8 +97,9 @@ def test_capacity_csv_has_the_four_answers_of_the_json(tmp_path) -> None:
     data = _json("capacity", str(MODELS / "splice-with-filler.toml"))["capacity"]
     for name in ("elastic", "nonlinear", "collapse", "plastic"):
         assert float(rows[name]["load"]) == pytest.approx(data[name]["load"], rel=REL_CSV)
-        assert float(rows[name]["efficiency"]) == pytest.approx(data["efficiency"][name],
-                                                                rel=REL_CSV)
+        assert float(rows[name]["efficiency"]) == pytest.approx(
+            data["efficiency"][name], rel=REL_CSV
+        )
 
 
 def test_an_export_is_never_overwritten_without_force(tmp_path) -> None:

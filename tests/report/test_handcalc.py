@@ -37,7 +37,8 @@ def test_thickness_split_of_the_demo_by_hand() -> None:
     # - 1/2) in magnitude; plane 3 250 x (32/44 - 1/2): the largest is plane 1's
     expected = max(250 * 12 / 44, abs(250 * (12 / 44 - 0.5)), 250 * (32 / 44 - 0.5))
     assert rows["split in proportion to ply thickness"].hand == pytest.approx(
-        expected * N_PER_KN, rel=REL_EXACT)
+        expected * N_PER_KN, rel=REL_EXACT
+    )
 
 
 def test_table_3_10_moment_of_the_lug_by_hand() -> None:
@@ -64,8 +65,7 @@ def test_hand_methods_per_bolt_of_a_row() -> None:
     n_bolts = len(joint.stations)
     total = sum(math.hypot(*m.load) for m in joint.members)
     planes = handcalc.member_planes(joint)
-    assert handcalc.equal_split(joint) == pytest.approx(total / (planes * n_bolts),
-                                                        rel=REL_EXACT)
+    assert handcalc.equal_split(joint) == pytest.approx(total / (planes * n_bolts), rel=REL_EXACT)
 
 
 def test_last_plane_line_in_kn_and_per_cent() -> None:

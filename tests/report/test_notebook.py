@@ -52,9 +52,10 @@ def test_check_to_frame_marks_the_governing_item(demo) -> None:
     assert len(frame) == len(res.items)
     gov = frame[frame["governing"]]
     assert list(gov["what"]) == [res.governing.what]
-    assert float(gov["utilization"].iloc[0]) == pytest.approx(res.governing.utilization,
-                                                              rel=REL_EXACT)
-    assert "governing" in res._repr_html_() or "class=\"governing\"" in res._repr_html_()
+    assert float(gov["utilization"].iloc[0]) == pytest.approx(
+        res.governing.utilization, rel=REL_EXACT
+    )
+    assert "governing" in res._repr_html_() or 'class="governing"' in res._repr_html_()
 
 
 def test_capacity_renders_its_answers() -> None:
@@ -80,7 +81,8 @@ def test_to_frame_without_pandas_names_the_extra(demo, monkeypatch) -> None:
 def test_the_notebook_example_runs() -> None:
     pytest.importorskip("pandas")
     script = Path(__file__).parents[2] / "docs" / "notebook.py"
-    out = subprocess.run([sys.executable, str(script)], capture_output=True, text=True,
-                         timeout=300, check=False)
+    out = subprocess.run(
+        [sys.executable, str(script)], capture_output=True, text=True, timeout=300, check=False
+    )
     assert out.returncode == 0, out.stderr
     assert "x the equal split" in out.stdout

@@ -26,7 +26,10 @@ def _summary(load: str):
 def test_capacity_is_invariant_to_the_pattern_magnitude(load: str) -> None:
     ref = _summary("100")
     other = _summary(load)
-    for a, b in ((ref.elastic, other.elastic), (ref.nonlinear, other.nonlinear),
-                 (ref.plastic, other.plastic)):
+    for a, b in (
+        (ref.elastic, other.elastic),
+        (ref.nonlinear, other.nonlinear),
+        (ref.plastic, other.plastic),
+    ):
         assert b.load == pytest.approx(a.load, rel=REL_SCALE)
         assert b.event == a.event

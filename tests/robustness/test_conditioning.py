@@ -58,13 +58,15 @@ def _edit(old: str, new: str, text: str = FORK) -> str:
 HOSTILE = {
     "ply 1000x thinner": _edit("thickness = 20", "thickness = 0.02"),
     "ply 1000x stiffer": _edit("thickness = 20", "thickness = 20\nfoundation_modulus = 1e8"),
-    "member through a soft link": _edit('member = "lug"\nthickness = 20',
-                                        'member = "lug"\nthickness = 20\nlink_stiffness = 1e-6'),
+    "member through a soft link": _edit(
+        'member = "lug"\nthickness = 20', 'member = "lug"\nthickness = 20\nlink_stiffness = 1e-6'
+    ),
     "grip 21 d": FORK.replace("thickness = 10", "thickness = 250").replace(
-        'steel = "S355"', "fy = 355\nfu = 490"),
+        'steel = "S355"', "fy = 355\nfu = 490"
+    ),
     "rigid bolt on no bearing": FORK.replace(
-        "thickness = 10", "thickness = 1\nfoundation_modulus = 0.01").replace(
-        "thickness = 20", "thickness = 1\nfoundation_modulus = 0.01"),
+        "thickness = 10", "thickness = 1\nfoundation_modulus = 0.01"
+    ).replace("thickness = 20", "thickness = 1\nfoundation_modulus = 0.01"),
 }
 
 
@@ -86,8 +88,9 @@ def test_examples_are_well_conditioned_and_unflagged(model: str) -> None:
     assert not any(w.startswith("ill-conditioned:") for w in sol.warnings)
 
 
-@pytest.mark.parametrize("name", ["ply 1000x thinner", "ply 1000x stiffer",
-                                  "member through a soft link", "grip 21 d"])
+@pytest.mark.parametrize(
+    "name", ["ply 1000x thinner", "ply 1000x stiffer", "member through a soft link", "grip 21 d"]
+)
 def test_hostile_but_sound_stacks_solve_to_round_off(name: str) -> None:
     sol = plyshear.solve(modelfile.loads(HOSTILE[name]))
     assert sol.condition < COND_WARN

@@ -124,8 +124,11 @@ def _toml_key(k: str) -> str:
 
 def dumps(data: dict[str, Any]) -> str:
     """Write a parsed model back as TOML (tables as headers, arrays of tables as [[ ]])."""
-    lines = [f"{_toml_key(k)} = {_toml_value(v)}" for k, v in data.items()
-             if not isinstance(v, dict) and not _is_table_array(v)]
+    lines = [
+        f"{_toml_key(k)} = {_toml_value(v)}"
+        for k, v in data.items()
+        if not isinstance(v, dict) and not _is_table_array(v)
+    ]
     for k, v in data.items():
         if isinstance(v, dict):
             lines.append(f"\n[{_toml_key(k)}]")
@@ -144,10 +147,34 @@ def _is_table_array(v: Any) -> bool:
 # --------------------------------------------------------------------------- mutations
 
 HOSTILE_STRINGS = (
-    "", " ", "abc", "1e999 mm", "-3 in", "24 kN", "nan mm", "inf kN", "0 mm", "1e-400 mm",
-    "12 mm mm", "3 MPa", "mm", "__import__('os')", "1/0 mm", "((((1 mm", "20 in / 0",
-    "1e308 in", "0.5 in", "250 kN", "65 ksi", "é\u00ff\u2603", "\u0000", "8.8", "S355",
-    "N-mm", "kip-in", "x" * 300,
+    "",
+    " ",
+    "abc",
+    "1e999 mm",
+    "-3 in",
+    "24 kN",
+    "nan mm",
+    "inf kN",
+    "0 mm",
+    "1e-400 mm",
+    "12 mm mm",
+    "3 MPa",
+    "mm",
+    "__import__('os')",
+    "1/0 mm",
+    "((((1 mm",
+    "20 in / 0",
+    "1e308 in",
+    "0.5 in",
+    "250 kN",
+    "65 ksi",
+    "é\u00ff\u2603",
+    "\u0000",
+    "8.8",
+    "S355",
+    "N-mm",
+    "kip-in",
+    "x" * 300,
 )
 
 
@@ -197,11 +224,44 @@ def _get(obj: Any, path: tuple[Any, ...]) -> Any:
     return obj
 
 
-KEYS = ("diameter", "grade", "thickness", "gap", "edge", "width", "load", "support", "member",
-        "name", "steel", "fy", "fu", "E", "elements_per_ply", "length", "thread_length",
-        "foundation_modulus", "link_stiffness", "hole_offset", "stress_area", "poisson",
-        "format", "units", "standard", "method", "bearing", "clearance", "hole_clearance",
-        "threads", "ends", "hole", "pretension", "tension", "joint_length", "slip_class")
+KEYS = (
+    "diameter",
+    "grade",
+    "thickness",
+    "gap",
+    "edge",
+    "width",
+    "load",
+    "support",
+    "member",
+    "name",
+    "steel",
+    "fy",
+    "fu",
+    "E",
+    "elements_per_ply",
+    "length",
+    "thread_length",
+    "foundation_modulus",
+    "link_stiffness",
+    "hole_offset",
+    "stress_area",
+    "poisson",
+    "format",
+    "units",
+    "standard",
+    "method",
+    "bearing",
+    "clearance",
+    "hole_clearance",
+    "threads",
+    "ends",
+    "hole",
+    "pretension",
+    "tension",
+    "joint_length",
+    "slip_class",
+)
 
 
 def _m_set(rng: random.Random, data: dict[str, Any]) -> str:
@@ -237,8 +297,9 @@ def _m_delete_table(rng: random.Random, data: dict[str, Any]) -> str:
 
 def _m_duplicate_name(rng: random.Random, data: dict[str, Any]) -> str:
     plies = data.get("ply")
-    if not (isinstance(plies, list) and len(plies) >= 2 and all(isinstance(p, dict)
-                                                                for p in plies)):
+    if not (
+        isinstance(plies, list) and len(plies) >= 2 and all(isinstance(p, dict) for p in plies)
+    ):
         return _m_set(rng, data)
     i, j = rng.sample(range(len(plies)), 2)
     plies[j]["name"] = plies[i].get("name", "x")
@@ -286,9 +347,20 @@ def _m_deep(rng: random.Random, data: dict[str, Any]) -> str:
 
 
 STRUCTURED: tuple[Callable[[random.Random, dict[str, Any]], str], ...] = (
-    _m_set, _m_set, _m_set, _m_set_known_key, _m_set_known_key, _m_set_known_key,
-    _m_delete, _m_delete, _m_delete_table, _m_duplicate_name, _m_many_plies,
-    _m_elements, _m_unknown_key, _m_deep,
+    _m_set,
+    _m_set,
+    _m_set,
+    _m_set_known_key,
+    _m_set_known_key,
+    _m_set_known_key,
+    _m_delete,
+    _m_delete,
+    _m_delete_table,
+    _m_duplicate_name,
+    _m_many_plies,
+    _m_elements,
+    _m_unknown_key,
+    _m_deep,
 )
 
 
@@ -314,8 +386,22 @@ def _t_lines(rng: random.Random, raw: bytearray) -> str:
     elif op == 1:
         lines.insert(i, lines[i])
     else:
-        lines.insert(i, rng.choice([b"[bolt]", b"[[ply]]", b"x = ", b"= 3", b"[", b'"',
-                                    b"a.b.c = 1", b"ply = 3", b"[member.x]"]))
+        lines.insert(
+            i,
+            rng.choice(
+                [
+                    b"[bolt]",
+                    b"[[ply]]",
+                    b"x = ",
+                    b"= 3",
+                    b"[",
+                    b'"',
+                    b"a.b.c = 1",
+                    b"ply = 3",
+                    b"[member.x]",
+                ]
+            ),
+        )
     raw[:] = b"\n".join(lines)
     return ("delete", "duplicate", "insert")[op] + f" line {i}"
 
@@ -344,13 +430,20 @@ def _t_deep_text(rng: random.Random, raw: bytearray) -> str:
 
 
 TEXTUAL: tuple[Callable[[random.Random, bytearray], str], ...] = (
-    _t_flip, _t_flip, _t_non_utf8, _t_lines, _t_lines, _t_truncate, _t_deep_text,
+    _t_flip,
+    _t_flip,
+    _t_non_utf8,
+    _t_lines,
+    _t_lines,
+    _t_truncate,
+    _t_deep_text,
 )
 
 
 def _seeds() -> list[tuple[str, str]]:
-    return [(p.name, p.read_text(encoding="utf-8")) for p in sorted(MODELS.glob("*.toml"))] \
-        + [("FORK", FORK)]
+    return [(p.name, p.read_text(encoding="utf-8")) for p in sorted(MODELS.glob("*.toml"))] + [
+        ("FORK", FORK)
+    ]
 
 
 def make_case(seed: int, index: int) -> tuple[bytes, str]:
@@ -400,22 +493,28 @@ def judge(args: list[str], path: str) -> str | None:
         result = CliRunner().invoke(main, [*args, path])
     if caught:  # a warning would reach the user's terminal as extra lines
         w = caught[0]
-        return f"Python warning on stderr: {w.category.__name__}: {str(w.message)[:80]} " \
+        return (
+            f"Python warning on stderr: {w.category.__name__}: {str(w.message)[:80]} "
             f"at {Path(w.filename).name}:{w.lineno} (exit {result.exit_code})"
+        )
     if result.exception is not None and not isinstance(result.exception, SystemExit):
         import traceback
 
         frames = traceback.extract_tb(result.exc_info[2]) if result.exc_info else []
         where = "; ".join(f"{Path(f.filename).name}:{f.lineno}" for f in frames[-3:])
-        return f"traceback: {type(result.exception).__name__}: {str(result.exception)[:120]}" \
+        return (
+            f"traceback: {type(result.exception).__name__}: {str(result.exception)[:120]}"
             f" at {where}"
+        )
     ok_codes = (0, 1) if args[0] == "check" else (0,)
     if result.exit_code in ok_codes:
         if not result.stdout.strip():
             return f"exit {result.exit_code} without output"
         if _PY_WARNING.search(result.stderr):
-            return f"Python warning on stderr: {_PY_WARNING.search(result.stderr)[0]}" \
+            return (
+                f"Python warning on stderr: {_PY_WARNING.search(result.stderr)[0]}"
                 f"{result.stderr.strip().splitlines()[0][:120]}"
+            )
         if "--json" in args:
             try:
                 data = json.loads(result.stdout)
@@ -470,12 +569,20 @@ def _run_all(seed: int, count: int, folder: Path) -> list[dict[str, Any]]:
     records: list[dict[str, Any]] = []
     start = 0
     while start < count:
-        code = ("import sys; from tests.robustness.test_fuzz_modelfile import _worker; "
-                f"_worker({seed}, {start}, {count}, {str(folder)!r})")
+        code = (
+            "import sys; from tests.robustness.test_fuzz_modelfile import _worker; "
+            f"_worker({seed}, {start}, {count}, {str(folder)!r})"
+        )
         env = {**os.environ}
         env.setdefault("OPENBLAS_NUM_THREADS", "1")  # tiny systems: threads only contend
-        proc = subprocess.Popen([sys.executable, "-c", code], cwd=REPO, stdout=subprocess.PIPE,
-                                stderr=subprocess.DEVNULL, text=True, env=env)
+        proc = subprocess.Popen(
+            [sys.executable, "-c", code],
+            cwd=REPO,
+            stdout=subprocess.PIPE,
+            stderr=subprocess.DEVNULL,
+            text=True,
+            env=env,
+        )
         assert proc.stdout is not None
         expected = start
         while expected < count:
@@ -489,8 +596,14 @@ def _run_all(seed: int, count: int, folder: Path) -> list[dict[str, Any]]:
             proc.kill()
             _, what = make_case(seed, expected)
             state = "hung" if proc.poll() is None or proc.returncode < 0 else "died"
-            records.append({"i": expected, "what": what, "dt": HANG_KILL_S,
-                            "problems": [f"worker {state} (> {HANG_KILL_S} s or crashed)"]})
+            records.append(
+                {
+                    "i": expected,
+                    "what": what,
+                    "dt": HANG_KILL_S,
+                    "problems": [f"worker {state} (> {HANG_KILL_S} s or crashed)"],
+                }
+            )
             expected += 1
         proc.wait()
         proc.stdout.close()
@@ -518,22 +631,40 @@ def test_fuzzed_model_files_end_in_a_result_or_one_error_line(tmp_path: Path) ->
             else:
                 failures.append(f"case {r['i']} (seed {SEED}; {r['what']}): {problem}")
     slowest = max(records, key=lambda r: r["dt"])
-    summary = (f"{CASES} cases in {time.perf_counter() - t0:.1f} s; slowest case {slowest['i']} "
-               f"{slowest['dt']:.2f} s; known bugs hit: {known or 'none'}")
+    summary = (
+        f"{CASES} cases in {time.perf_counter() - t0:.1f} s; slowest case {slowest['i']} "
+        f"{slowest['dt']:.2f} s; known bugs hit: {known or 'none'}"
+    )
     assert not failures, summary + "\n" + "\n".join(failures[:40])
 
 
 def test_the_generator_repeats_and_covers_the_edits() -> None:
     # the same seed gives the same case, in a fresh interpreter too (no state kept)
-    code = ("from tests.robustness.test_fuzz_modelfile import make_case, SEED\n"
-            "print(repr(make_case(SEED, 7)))")
-    again = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                           check=True, timeout=120, cwd=Path(__file__).parents[2])
+    code = (
+        "from tests.robustness.test_fuzz_modelfile import make_case, SEED\n"
+        "print(repr(make_case(SEED, 7)))"
+    )
+    again = subprocess.run(
+        [sys.executable, "-c", code],
+        capture_output=True,
+        text=True,
+        check=True,
+        timeout=120,
+        cwd=Path(__file__).parents[2],
+    )
     assert again.stdout.strip() == repr(make_case(SEED, 7))
     assert make_case(SEED, 7) != make_case(SEED + 1, 7)
     kinds = " ".join(make_case(SEED, i)[1] for i in range(400))
-    for fragment in ("set ", "delete ", "plies", "elements_per_ply", "duplicate ply name",
-                     "unknown key", "nesting", "byte flips"):
+    for fragment in (
+        "set ",
+        "delete ",
+        "plies",
+        "elements_per_ply",
+        "duplicate ply name",
+        "unknown key",
+        "nesting",
+        "byte flips",
+    ):
         assert fragment in kinds, fragment
 
 
@@ -557,36 +688,46 @@ def test_bug_unit_string_arithmetic_is_a_traceback(write_model, text: str) -> No
     assert judge(["solve"], str(path)) is None
 
 
-@pytest.mark.parametrize(("old", "new"), [
-    ("diameter = 24", "diameter = 1" + "0" * 400),
-    ('grade = "8.8"', 'grade = "8.8"\npoisson = 1' + "0" * 400),
-])
+@pytest.mark.parametrize(
+    ("old", "new"),
+    [
+        ("diameter = 24", "diameter = 1" + "0" * 400),
+        ('grade = "8.8"', 'grade = "8.8"\npoisson = 1' + "0" * 400),
+    ],
+)
 def test_bug_integer_too_large_for_a_float(write_model, old: str, new: str) -> None:
     path = write_model(_edit(old, new))
     assert judge(["solve"], str(path)) is None
 
 
-@pytest.mark.parametrize(("old", "new"), [
-    # once: numpy RuntimeWarnings from beam.py printed before the one error line
-    ("thickness = 20", "thickness = 1e-300"),
-    ("thickness = 20", 'thickness = "1e-290 in"'),
-    ("thickness = 20", "thickness = 20\ngap = 1e-300"),
-    ('grade = "8.8"', 'grade = "8.8"\nE = 1e-300'),
-    ("thickness = 20", "thickness = 20\nfoundation_modulus = 1e-300"),
-])
+@pytest.mark.parametrize(
+    ("old", "new"),
+    [
+        # once: numpy RuntimeWarnings from beam.py printed before the one error line
+        ("thickness = 20", "thickness = 1e-300"),
+        ("thickness = 20", 'thickness = "1e-290 in"'),
+        ("thickness = 20", "thickness = 20\ngap = 1e-300"),
+        ('grade = "8.8"', 'grade = "8.8"\nE = 1e-300'),
+        ("thickness = 20", "thickness = 20\nfoundation_modulus = 1e-300"),
+    ],
+)
 def test_vanishing_values_end_in_one_error_line(write_model, old: str, new: str) -> None:
     path = write_model(_edit(old, new))
     assert judge(["solve"], str(path)) is None
     assert judge(["solve", "--json"], str(path)) is None
 
 
-@pytest.mark.parametrize(("old", "new"), [
-    ("load = 100", "load = 1e308"),
-    ("load = 100", 'load = "1e308 kip"'),
-    ('grade = "8.8"', 'grade = "8.8"\nE = 1e308'),
-])
-def test_values_that_overflow_in_the_solve_are_refused_or_finite(write_model, old: str,
-                                                                 new: str) -> None:
+@pytest.mark.parametrize(
+    ("old", "new"),
+    [
+        ("load = 100", "load = 1e308"),
+        ("load = 100", 'load = "1e308 kip"'),
+        ('grade = "8.8"', 'grade = "8.8"\nE = 1e308'),
+    ],
+)
+def test_values_that_overflow_in_the_solve_are_refused_or_finite(
+    write_model, old: str, new: str
+) -> None:
     # once a traceback-free nan result: 1e308 kN is finite but overflows in N
     path = write_model(_edit(old, new))
     assert judge(["solve", "--json"], str(path)) is None
@@ -597,11 +738,18 @@ def test_bug_unit_string_exponent_hangs(tmp_path: Path) -> None:
     text = _edit("thickness = 20", 'thickness = "10**10**10 mm"')
     path = tmp_path / "model.toml"
     path.write_text(text, encoding="utf-8")
-    code = ("import sys; from click.testing import CliRunner; from plyshear.cli import main; "
-            f"r = CliRunner().invoke(main, ['solve', {str(path)!r}]); print(r.exit_code)")
+    code = (
+        "import sys; from click.testing import CliRunner; from plyshear.cli import main; "
+        f"r = CliRunner().invoke(main, ['solve', {str(path)!r}]); print(r.exit_code)"
+    )
     try:
-        out = subprocess.run([sys.executable, "-c", code], cwd=REPO, capture_output=True,
-                             text=True, timeout=CASE_LIMIT_S + 3)
+        out = subprocess.run(
+            [sys.executable, "-c", code],
+            cwd=REPO,
+            capture_output=True,
+            text=True,
+            timeout=CASE_LIMIT_S + 3,
+        )
     except subprocess.TimeoutExpired:
         pytest.fail("hangs")
     assert out.stdout.strip() == str(EXIT_BAD_INPUT)
@@ -632,8 +780,13 @@ print(r.exit_code, type(r.exception).__name__, round(time.perf_counter() - t, 1)
 
 def _row_with_plies(n: int, tmp_path: Path, timeout: float) -> str:
     try:
-        out = subprocess.run([sys.executable, "-c", _ROW_CODE, str(n), str(tmp_path / "m.toml")],
-                             cwd=REPO, capture_output=True, text=True, timeout=timeout)
+        out = subprocess.run(
+            [sys.executable, "-c", _ROW_CODE, str(n), str(tmp_path / "m.toml")],
+            cwd=REPO,
+            capture_output=True,
+            text=True,
+            timeout=timeout,
+        )
     except subprocess.TimeoutExpired:
         pytest.fail(f"a six-bolt row with {n} plies takes over {timeout} s")
     return out.stdout.strip()
@@ -644,11 +797,10 @@ def test_bug_bolt_row_with_many_plies_exhausts_memory(tmp_path: Path) -> None:
     assert out.split()[:2] in (["0", "NoneType"], [str(EXIT_BAD_INPUT), "SystemExit"]), out
 
 
-
 @pytest.mark.parametrize("name", ["\u2029", "a\u2028b", "x\x85", "tab\there"])
 def test_names_with_line_separators_stay_on_one_error_line(write_model, name: str) -> None:
     # found by the full fuzz run (seed 0, case 7235): an undeclared member named U+2029
     # (paragraph separator) split the error into two lines
-    path = write_model(_edit('member = "lug"', f'member = {_toml_str(name)}'))
+    path = write_model(_edit('member = "lug"', f"member = {_toml_str(name)}"))
     assert judge(["solve", "--json"], str(path)) is None
     assert judge(["validate"], str(path)) is None

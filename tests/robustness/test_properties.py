@@ -40,8 +40,9 @@ import plyshear
 from plyshear.model import modelfile
 
 EXAMPLES = int(os.environ.get("PLYSHEAR_PROPERTY_EXAMPLES", "30"))
-SETTINGS = settings(max_examples=EXAMPLES, deadline=None,
-                    suppress_health_check=[HealthCheck.too_slow])
+SETTINGS = settings(
+    max_examples=EXAMPLES, deadline=None, suppress_health_check=[HealthCheck.too_slow]
+)
 
 MM_PER_IN = 25.4
 KN_PER_KIP = 4.4482216152605
@@ -80,8 +81,14 @@ def joints(draw: Any, determinate: bool = False) -> dict[str, Any]:
             names = list(range(n))
     else:
         n_members = draw(st.integers(2, min(4, n)))
-        owner = [draw(st.one_of(st.none(), st.integers(0, n_members - 1))
-                      if n > n_members else st.integers(0, n_members - 1)) for _ in range(n)]
+        owner = [
+            draw(
+                st.one_of(st.none(), st.integers(0, n_members - 1))
+                if n > n_members
+                else st.integers(0, n_members - 1)
+            )
+            for _ in range(n)
+        ]
         for m in range(n_members):  # every member owns a ply
             owner[m] = m
         names = list(range(n_members))
@@ -103,11 +110,16 @@ def joints(draw: Any, determinate: bool = False) -> dict[str, Any]:
             fy = draw(st.floats(-500, 500))
             members[f"m{m}"] = {"load": [fx, fy]}
     out: dict[str, Any] = {
-        "format": 1, "units": "kN-mm",
-        "bolt": {"diameter": draw(st.sampled_from([0.625, 0.75, 0.875, 1.0, 1.125])) * MM_PER_IN,
-                 "grade": "8.8", "threads": "excluded",
-                 "ends": draw(st.sampled_from(["free", "clamped"]))},
-        "ply": plies, "member": members,
+        "format": 1,
+        "units": "kN-mm",
+        "bolt": {
+            "diameter": draw(st.sampled_from([0.625, 0.75, 0.875, 1.0, 1.125])) * MM_PER_IN,
+            "grade": "8.8",
+            "threads": "excluded",
+            "ends": draw(st.sampled_from(["free", "clamped"])),
+        },
+        "ply": plies,
+        "member": members,
         "analysis": {"elements_per_ply": draw(st.integers(2, 8))},
     }
     count = 1 if determinate else draw(st.sampled_from([1, 1, 1, 2, 3, 4]))
@@ -138,15 +150,20 @@ def in_kip_in(data: dict[str, Any]) -> dict[str, Any]:
         out["pattern"] = {**data["pattern"], "pitch": data["pattern"]["pitch"] / MM_PER_IN}
     out["ply"] = []
     for p in data["ply"]:
-        q = {**p, "thickness": p["thickness"] / MM_PER_IN, "fy": p["fy"] / MPA_PER_KSI,
-             "fu": p["fu"] / MPA_PER_KSI}
+        q = {
+            **p,
+            "thickness": p["thickness"] / MM_PER_IN,
+            "fy": p["fy"] / MPA_PER_KSI,
+            "fu": p["fu"] / MPA_PER_KSI,
+        }
         for key in ("gap", "width"):
             if key in p:
                 q[key] = p[key] / MM_PER_IN
         out["ply"].append(q)
-    out["member"] = {k: ({**v, "load": [f / KN_PER_KIP for f in v["load"]]} if "load" in v
-                         else v)
-                     for k, v in data["member"].items()}
+    out["member"] = {
+        k: ({**v, "load": [f / KN_PER_KIP for f in v["load"]]} if "load" in v else v)
+        for k, v in data["member"].items()
+    }
     return out
 
 
@@ -184,10 +201,15 @@ def test_results_are_finite_and_in_equilibrium(data: dict[str, Any]) -> None:
     for m in joint.members:
         if m.support:
             continue
-        taken = sum(np.array(pb.force_xy) for b in sol.bolts for pb in b.plies
-                    if joint.plies[pb.ply].member == m.name)
-        assert taken == pytest.approx(-np.array(m.load), rel=RESIDUAL_ROUNDOFF,
-                                      abs=RESIDUAL_ROUNDOFF * scale)
+        taken = sum(
+            np.array(pb.force_xy)
+            for b in sol.bolts
+            for pb in b.plies
+            if joint.plies[pb.ply].member == m.name
+        )
+        assert taken == pytest.approx(
+            -np.array(m.load), rel=RESIDUAL_ROUNDOFF, abs=RESIDUAL_ROUNDOFF * scale
+        )
 
 
 @SETTINGS
@@ -202,13 +224,17 @@ def test_a_determinate_stack_gives_statics(data: dict[str, Any]) -> None:
     for j, ply in enumerate(joint.plies):
         if ply.member is not None:
             bearing[j] = -np.array(joint.member(ply.member).load)
-    held = [j for j, p in enumerate(joint.plies)
-            if p.member is not None and joint.member(p.member).support]
+    held = [
+        j
+        for j, p in enumerate(joint.plies)
+        if p.member is not None and joint.member(p.member).support
+    ]
     assert len(held) == 1
     bearing[held[0]] = -bearing.sum(axis=0)
     statics = np.cumsum(bearing, axis=0)[:-1]  # V at plane k: plies 0..k on the head side
-    assert shears(sol)[0] == pytest.approx(statics, rel=REL_STATICS,
-                                        abs=REL_STATICS * load_scale(joint))
+    assert shears(sol)[0] == pytest.approx(
+        statics, rel=REL_STATICS, abs=REL_STATICS * load_scale(joint)
+    )
 
 
 @SETTINGS
@@ -219,8 +245,9 @@ def test_results_do_not_depend_on_the_unit_system(data: dict[str, Any]) -> None:
     a, b = plyshear.solve(metric), plyshear.solve(inch)
     scale = load_scale(metric)
     assert shears(b) == pytest.approx(shears(a), rel=REL_UNITS, abs=REL_UNITS * scale)
-    assert max_moments(b) == pytest.approx(max_moments(a), rel=REL_UNITS,
-                                           abs=REL_UNITS * scale * T_MIN)
+    assert max_moments(b) == pytest.approx(
+        max_moments(a), rel=REL_UNITS, abs=REL_UNITS * scale * T_MIN
+    )
     # and the JSON in each system's own units converts back
     ja, jb = a.to_dict(), b.to_dict()
     va = np.array([p["shear_xy"] for b in ja["bolts"] for p in b["planes"]])
@@ -238,19 +265,24 @@ def test_mirroring_the_stack_reverses_the_planes(data: dict[str, Any]) -> None:
     a, b = plyshear.solve(joint), plyshear.solve(mirror)
     assert_sound(b)
     scale = load_scale(joint)
-    assert shears(b) == pytest.approx(-shears(a)[:, ::-1], rel=REL_MIRROR,
-                                      abs=REL_MIRROR * scale)
-    assert max_moments(b) == pytest.approx(max_moments(a), rel=REL_MIRROR,
-                                           abs=REL_MIRROR * scale * T_MIN)
+    assert shears(b) == pytest.approx(-shears(a)[:, ::-1], rel=REL_MIRROR, abs=REL_MIRROR * scale)
+    assert max_moments(b) == pytest.approx(
+        max_moments(a), rel=REL_MIRROR, abs=REL_MIRROR * scale * T_MIN
+    )
 
 
 def test_max_moment_is_continuous_in_the_thickness() -> None:
-    data = {"format": 1, "units": "kN-mm",
-            "bolt": {"diameter": 20.0, "grade": "8.8", "threads": "excluded"},
-            "ply": [{"name": "a", "member": "a", "thickness": 1.0, "fy": 355.0, "fu": 490.0},
-                    {"name": "b", "member": "b", "thickness": 1.0, "fy": 355.0, "fu": 490.0}],
-            "member": {"a": {"support": True}, "b": {"load": 2.0}},
-            "analysis": {"elements_per_ply": 2}}
+    data = {
+        "format": 1,
+        "units": "kN-mm",
+        "bolt": {"diameter": 20.0, "grade": "8.8", "threads": "excluded"},
+        "ply": [
+            {"name": "a", "member": "a", "thickness": 1.0, "fy": 355.0, "fu": 490.0},
+            {"name": "b", "member": "b", "thickness": 1.0, "fy": 355.0, "fu": 490.0},
+        ],
+        "member": {"a": {"support": True}, "b": {"load": 2.0}},
+        "analysis": {"elements_per_ply": 2},
+    }
     a = plyshear.solve(modelfile.from_dict(data))
     for ply in data["ply"]:
         ply["thickness"] = math.nextafter(1.0, 0.0)

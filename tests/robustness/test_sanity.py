@@ -73,8 +73,11 @@ def test_a_protrusion_short_of_a_nut_and_two_pitches_warns() -> None:
 def test_thread_in_a_ply_thinner_than_the_pitch() -> None:
     # M24: pitch 3 mm. A 2 mm ply in the threaded length (threads from z = 20 mm).
     text = _edit('grade = "8.8"', 'grade = "8.8"\nlength = 60\nthread_length = 40')
-    text = _edit('name = "leg-2"\nmember = "fork"\nthickness = 10',
-                 'name = "leg-2"\nmember = "fork"\nthickness = 2', text)
+    text = _edit(
+        'name = "leg-2"\nmember = "fork"\nthickness = 10',
+        'name = "leg-2"\nmember = "fork"\nthickness = 2',
+        text,
+    )
     found = sanity.warnings(_joint(text))
     assert any("ply[3] 'leg-2'.thickness" in w and "thread pitch 3 mm" in w for w in found)
 
@@ -82,8 +85,11 @@ def test_thread_in_a_ply_thinner_than_the_pitch() -> None:
 def test_a_thin_ply_on_the_shank_is_no_thread_warning() -> None:
     # same 2 mm ply, but the thread starts past the stack
     text = _edit('grade = "8.8"', 'grade = "8.8"\nlength = 90\nthread_length = 40')
-    text = _edit('name = "leg-2"\nmember = "fork"\nthickness = 10',
-                 'name = "leg-2"\nmember = "fork"\nthickness = 2', text)
+    text = _edit(
+        'name = "leg-2"\nmember = "fork"\nthickness = 10',
+        'name = "leg-2"\nmember = "fork"\nthickness = 2',
+        text,
+    )
     assert not any("pitch" in w for w in sanity.warnings(_joint(text)))
 
 
@@ -159,8 +165,9 @@ def test_very_long_grip() -> None:
 
 
 def test_a_ply_a_thousand_times_thinner_than_its_neighbour() -> None:
-    text = FORK.replace("thickness = 10", "thickness = 500").replace("thickness = 20",
-                                                                     "thickness = 0.5")
+    text = FORK.replace("thickness = 10", "thickness = 500").replace(
+        "thickness = 20", "thickness = 0.5"
+    )
     text = text.replace('steel = "S355"', "fy = 355\nfu = 490")
     found = [w for w in sanity.warnings(_joint(text)) if "thickness" in w and "fold" in w]
     assert len(found) == 2  # leg-1/lug and lug/leg-2
@@ -188,13 +195,16 @@ def test_messages_are_in_the_models_units() -> None:
     assert f"at least {2 + need:.4g} in long" in line
 
 
-@pytest.mark.parametrize(("diameter", "units", "shown"), [
-    ("1.5", "kN-mm", '1.5 mm as read with units = "kN-mm"'),
-    ("250", "kN-mm", '250 mm as read with units = "kN-mm"'),
-])
+@pytest.mark.parametrize(
+    ("diameter", "units", "shown"),
+    [
+        ("1.5", "kN-mm", '1.5 mm as read with units = "kN-mm"'),
+        ("250", "kN-mm", '250 mm as read with units = "kN-mm"'),
+    ],
+)
 def test_a_diameter_outside_bolt_sizes_names_the_units(diameter, units, shown) -> None:
     # common practice: bolts and pins run from about 3 mm to 200 mm
-    text = _edit("diameter = 24", f"diameter = {diameter}\nthreads = \"excluded\"")
+    text = _edit("diameter = 24", f'diameter = {diameter}\nthreads = "excluded"')
     found = [w for w in sanity.warnings(_joint(text)) if w.startswith("bolt.diameter")]
     assert any(shown in w and "outside 3 to 200 mm" in w for w in found), found
 
@@ -226,7 +236,8 @@ def test_a_ply_thinner_than_a_quarter_of_the_bolt_is_a_shim(t, warned) -> None:
     found = [w for w in sanity.warnings(joint) if "0.25 d" in w]
     assert bool(found) == warned, found
     if warned:
-        assert found[0].startswith(f"ply[2] 'lug'.thickness: {t} mm is less than "
-                                   f"0.25 d = {0.25 * 24:g} mm")
+        assert found[0].startswith(
+            f"ply[2] 'lug'.thickness: {t} mm is less than 0.25 d = {0.25 * 24:g} mm"
+        )
     # and the warnings leave the joint as it was (frozen: the same solve after)
     assert joint.plies[1].thickness == pytest.approx(float(t), rel=1e-15)

@@ -25,15 +25,27 @@ def command() -> list[str]:
 def start(args: list[str], cwd: Path) -> subprocess.Popen[str]:
     """Start ``plyshear ARGS`` in its own session (so its whole tree can be found)."""
     env = {**os.environ, "PYTHONUNBUFFERED": "1"}
-    return subprocess.Popen([*command(), *args], cwd=cwd, env=env, text=True,
-                            stdout=subprocess.PIPE, stderr=subprocess.PIPE,
-                            start_new_session=True)
+    return subprocess.Popen(
+        [*command(), *args],
+        cwd=cwd,
+        env=env,
+        text=True,
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        start_new_session=True,
+    )
 
 
 def run(args: list[str], cwd: Path) -> subprocess.CompletedProcess[str]:
     """Run ``plyshear ARGS`` to its end."""
-    return subprocess.run([*command(), *args], cwd=cwd, text=True, capture_output=True,
-                          timeout=PATIENCE * 3, check=False)
+    return subprocess.run(
+        [*command(), *args],
+        cwd=cwd,
+        text=True,
+        capture_output=True,
+        timeout=PATIENCE * 3,
+        check=False,
+    )
 
 
 def data_lines(path: Path) -> int:
@@ -64,7 +76,7 @@ def session(sid: int) -> list[tuple[int, int, str]]:
             cmdline = (entry / "cmdline").read_bytes().replace(b"\0", b" ").decode()
         except OSError:
             continue
-        fields = stat[stat.rindex(")") + 2:].split()
+        fields = stat[stat.rindex(")") + 2 :].split()
         state, ppid, _, session_id = fields[0], int(fields[1]), fields[2], int(fields[3])
         if session_id == sid and state != "Z":
             out.append((int(entry.name), ppid, cmdline))

@@ -26,13 +26,23 @@ from tests.conftest import FORK
 from tests.sweep import faulty
 from tests.sweep.procs import PATIENCE, run, start, wait_gone, wait_lines, workers
 
-pytestmark = pytest.mark.skipif(not sys.platform.startswith("linux"),
-                                reason="reads /proc to find a session's processes")
+pytestmark = pytest.mark.skipif(
+    not sys.platform.startswith("linux"), reason="reads /proc to find a session's processes"
+)
 
 VALUES = 301 * 2  # from the arithmetic of the ranges below
 CHUNK_ROWS = 50  # rows of one finished chunk
-SWEEP = ["--vary", "ply[2].thickness=10:40:0.1", "--vary", "bolt.diameter=20,24",
-         "--workers", "2", "--quiet", "--chunk", str(CHUNK_ROWS)]
+SWEEP = [
+    "--vary",
+    "ply[2].thickness=10:40:0.1",
+    "--vary",
+    "bolt.diameter=20,24",
+    "--workers",
+    "2",
+    "--quiet",
+    "--chunk",
+    str(CHUNK_ROWS),
+]
 #: A stop waits up to the pool's grace period for running chunks, then ends them;
 #: a second more covers the interpreter's exit on a loaded machine.
 PROMPT_S = sp.GRACE + 2.0
@@ -122,8 +132,9 @@ def test_a_chunk_whose_worker_dies_twice_is_error_rows_and_the_rest_goes_on() ->
     errors: dict[int, str] = {}
     jobs = ["a", "die", "b", "raise", "c"]
     with sp.Stopper() as stop:
-        report = sp.run_jobs(faulty.job, jobs, 2, results.__setitem__, stop,
-                             on_error=errors.__setitem__)
+        report = sp.run_jobs(
+            faulty.job, jobs, 2, results.__setitem__, stop, on_error=errors.__setitem__
+        )
     assert results == {0: "A", 2: "B", 4: "C"}
     assert report.deaths == sp.ATTEMPTS  # the first run and one retry on a fresh worker
     assert "killed by SIGKILL" in errors[1]
@@ -135,8 +146,7 @@ def test_two_sweeps_on_one_new_path_exactly_one_wins(tmp_path: Path) -> None:
     model = tmp_path / "fork.toml"
     model.write_text(FORK, encoding="utf-8")
     out = tmp_path / "same.csv"
-    args = ["sweep", str(model), "--vary", "bolt.diameter=20,24", "--workers", "1",
-            "-o", str(out)]
+    args = ["sweep", str(model), "--vary", "bolt.diameter=20,24", "--workers", "1", "-o", str(out)]
     procs = [start(args, tmp_path) for _ in range(2)]
     ends = [p.communicate(timeout=PATIENCE) for p in procs]
     codes = sorted(p.returncode for p in procs)

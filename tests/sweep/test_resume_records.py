@@ -51,8 +51,9 @@ def _interrupted(out: Path) -> None:
 
 
 @pytest.mark.parametrize("stopped", [False, True])
-def test_a_scatter_resumed_with_another_seed_or_count_is_refused(write_model, tmp_path,
-                                                                 stopped) -> None:
+def test_a_scatter_resumed_with_another_seed_or_count_is_refused(
+    write_model, tmp_path, stopped
+) -> None:
     model, out = write_model(FORK), tmp_path / "s.csv"
     first = _cli(["capacity", model, "--scatter", 2, "--seed", 1, "-o", out])
     assert first.exit_code == 0, first.output
@@ -87,9 +88,12 @@ def test_a_fault_row_is_run_again_on_resume(write_model, tmp_path) -> None:
     rows = _rows(out)
     cols = list(rows[0])
     good = dict(rows[1])
-    rows[1] = {c: "" for c in cols} | {"case": good["case"], "case_key": good["case_key"],
-                                       "bolt.diameter": good["bolt.diameter"],
-                                       "error": sr.FAULT_MARK + "the chunk's worker died twice"}
+    rows[1] = {c: "" for c in cols} | {
+        "case": good["case"],
+        "case_key": good["case_key"],
+        "bolt.diameter": good["bolt.diameter"],
+        "error": sr.FAULT_MARK + "the chunk's worker died twice",
+    }
     with open(out, "w", newline="", encoding="utf-8") as fh:
         w = csv.DictWriter(fh, cols, lineterminator="\n")
         w.writeheader()
@@ -104,18 +108,31 @@ def test_a_fault_row_is_run_again_on_resume(write_model, tmp_path) -> None:
     assert final[1]["max_shear"] == good["max_shear"]  # the same case, solved again
 
 
-def test_the_resume_command_is_printed_whole_on_its_own_line(write_model, tmp_path,
-                                                             monkeypatch) -> None:
+def test_the_resume_command_is_printed_whole_on_its_own_line(
+    write_model, tmp_path, monkeypatch
+) -> None:
     from plyshear.sweep import stream as ss
 
     model, out = write_model(FORK), tmp_path / "out.csv"
     values = ",".join(f"{20 + i / 100:.2f}" for i in range(120))  # a command of 700+ chars
-    args = ["sweep", str(model), "--vary", f"bolt.diameter={values}", "--capacity", "none",
-            "--workers", "1", "--quiet", "-o", str(out)]
+    args = [
+        "sweep",
+        str(model),
+        "--vary",
+        f"bolt.diameter={values}",
+        "--capacity",
+        "none",
+        "--workers",
+        "1",
+        "--quiet",
+        "-o",
+        str(out),
+    ]
 
     def full(self, rows):
-        raise ss.OutputError(f"{self.partial}: the disk is full; the 0 rows written so far "
-                             "are kept")
+        raise ss.OutputError(
+            f"{self.partial}: the disk is full; the 0 rows written so far are kept"
+        )
 
     monkeypatch.setattr(ss.Stream, "append", full)
     monkeypatch.setattr(sys, "argv", ["plyshear", *args])
@@ -136,8 +153,9 @@ def test_too_many_cases_are_refused_at_the_limit(tmp_path, monkeypatch) -> None:
     real = sk.parse_value
     monkeypatch.setattr(sk, "parse_value", lambda c, k: parsed.append(c) or real(c, k))
     cases = tmp_path / "cases.csv"
-    cases.write_text("bolt.diameter\n" + "".join(f"{20 + i}\n" for i in range(50)),
-                     encoding="utf-8")
+    cases.write_text(
+        "bolt.diameter\n" + "".join(f"{20 + i}\n" for i in range(50)), encoding="utf-8"
+    )
     with pytest.raises(sk.SweepError, match=f"more than {limit} cases"):
         sk.read_cases(cases, tomllib.loads(FORK))
     assert len(parsed) <= limit  # no row past the limit is parsed

@@ -64,8 +64,13 @@ def _assert_same_solution(a, b, rel: float = REL_BATCH) -> None:
 def _variants() -> list:
     """Joints of several shapes, in a mixed order, including a row and clamped ends."""
     out = []
-    for name in ("fork-four-planes.toml", "splice-six-bolts.toml", "lug-cheek-plates.toml",
-                 "gusset-three-members.toml", "splice-with-filler.toml"):
+    for name in (
+        "fork-four-planes.toml",
+        "splice-six-bolts.toml",
+        "lug-cheek-plates.toml",
+        "gusset-three-members.toml",
+        "splice-with-filler.toml",
+    ):
         base = plyshear.load_model(MODELS / name)
         for t in (0.8, 1.0, 1.3):
             out.append(base.with_ply(0, thickness=base.plies[0].thickness * t))
@@ -100,11 +105,16 @@ def test_batch_path_cut_into_small_batches_gives_the_same(monkeypatch) -> None:
 def test_a_joint_too_large_to_solve_is_its_own_error() -> None:
     # found in review: the layout's "too large" ModelError escaped the batch and ended
     # the whole sweep in a traceback
-    big = modelfile.loads(FORK.replace("[member.fork]", "[analysis]\nelements_per_ply = 1000\n"
-                                       "[pattern]\ncount = 500\npitch = 75\n[member.fork]")
-                          .replace("thickness = 10\n", "thickness = 80\nwidth = 300\n")
-                          .replace("thickness = 20\n", "thickness = 80\nwidth = 300\n"),
-                          "big.toml")
+    big = modelfile.loads(
+        FORK.replace(
+            "[member.fork]",
+            "[analysis]\nelements_per_ply = 1000\n"
+            "[pattern]\ncount = 500\npitch = 75\n[member.fork]",
+        )
+        .replace("thickness = 10\n", "thickness = 80\nwidth = 300\n")
+        .replace("thickness = 20\n", "thickness = 80\nwidth = 300\n"),
+        "big.toml",
+    )
     with pytest.raises(plyshear.ResourceError, match="the system is too large") as info:
         plyshear.solve(big)
     # a resource limit, not a wrong key: the line names the file and no key
@@ -120,20 +130,23 @@ def test_a_joint_too_large_to_solve_is_its_own_error() -> None:
 def test_loads_in_two_directions_have_no_elastic_capacity() -> None:
     # found in review: the sweep scaled a non-collinear pattern that plyshear capacity
     # refuses; now both refuse it
-    _, _, rows = _sweep_model(MODELS / "gusset-three-members.toml",
-                              ["member.angle-b.load=[0,35],-35"], sr.Options())
+    _, _, rows = _sweep_model(
+        MODELS / "gusset-three-members.toml", ["member.angle-b.load=[0,35],-35"], sr.Options()
+    )
     assert rows[0]["capacity_event"].startswith("the member loads are not collinear")
     assert "capacity_elastic" not in rows[0]
     assert rows[1]["capacity_elastic"] > 0
     assert rows[1]["load_factor"] == pytest.approx(
-        rows[1]["capacity_elastic"] / (40 + 35 + 20), rel=1e-12)  # Σ|P| of the gusset, kN
+        rows[1]["capacity_elastic"] / (40 + 35 + 20), rel=1e-12
+    )  # Σ|P| of the gusset, kN
 
 
 def test_batch_path_reports_each_failing_case_as_its_own_error() -> None:
     good = plyshear.load_model(FORK_MODEL)
     # nothing holds it (a Joint built in code, past the loader's rule): a mechanism
-    lost = dataclasses.replace(good, members=tuple(dataclasses.replace(m, support=False)
-                                                   for m in good.members))
+    lost = dataclasses.replace(
+        good, members=tuple(dataclasses.replace(m, support=False) for m in good.members)
+    )
     joints = [good, lost, good.with_ply(1, thickness=25.0)]
     out = solve_many(joints)
     _assert_same_solution(out[0], plyshear.solve(good))
@@ -164,23 +177,24 @@ def test_sweep_rows_equal_single_runs_of_the_same_cases() -> None:
     for values, row in zip(cases, rows, strict=True):
         # the case by hand: edit the parsed file, load, solve, check, capacity
         edited = tomllib.loads(FORK_MODEL.read_text(encoding="utf-8"))
-        edited["bolt"]["diameter"], edited["ply"][1]["thickness"], edited["bolt"]["grade"] = \
-            values
+        edited["bolt"]["diameter"], edited["ply"][1]["thickness"], edited["bolt"]["grade"] = values
         assert edited == sk.apply(data, keys, values)
         joint = modelfile.from_dict(edited, str(FORK_MODEL))
         sol = plyshear.solve(joint)
         res = plyshear.check(joint, sol)
         kn = 1e3  # the model is in kN-mm
         assert row["error"] == ""
-        assert row["max_shear"] == pytest.approx(max(p.shear for p in sol.first_bolt_planes) / kn,
-                                                 rel=REL_BATCH)
+        assert row["max_shear"] == pytest.approx(
+            max(p.shear for p in sol.first_bolt_planes) / kn, rel=REL_BATCH
+        )
         for p in sol.first_bolt_planes:
             assert row[f"shear_plane_{p.index}"] == pytest.approx(p.shear / kn, rel=REL_BATCH)
         assert row["max_moment"] == pytest.approx(sol.bolts[0].max_moment / kn, rel=REL_BATCH)
         assert row["utilization"] == pytest.approx(res.governing.utilization, rel=REL_BATCH)
         assert row["passes"] == res.passes
         assert row["capacity_elastic"] == pytest.approx(
-            elastic_capacity(joint, sol).load / kn, rel=REL_BATCH)
+            elastic_capacity(joint, sol).load / kn, rel=REL_BATCH
+        )
 
 
 def test_batch_and_per_case_sweeps_give_the_same_table() -> None:
@@ -216,12 +230,17 @@ def test_local_processes_give_the_same_table() -> None:
 
 def test_dask_cluster_gives_the_same_table() -> None:
     distributed = pytest.importorskip("distributed")
-    with distributed.LocalCluster(n_workers=1, threads_per_worker=2, processes=False,
-                                  dashboard_address=None) as cluster:
+    with distributed.LocalCluster(
+        n_workers=1, threads_per_worker=2, processes=False, dashboard_address=None
+    ) as cluster:
         ticks: list[int] = []
-        _, _, remote = _sweep(VARIES, sr.Options(capacity="none"),
-                              scheduler=cluster.scheduler_address, chunk=5,
-                              progress=ticks.append)
+        _, _, remote = _sweep(
+            VARIES,
+            sr.Options(capacity="none"),
+            scheduler=cluster.scheduler_address,
+            chunk=5,
+            progress=ticks.append,
+        )
     _, _, local = _sweep(VARIES, sr.Options(capacity="none"), workers=1)
     _assert_same_rows(remote, local, rel=0.0)
     assert sum(ticks) == len(local)
@@ -230,8 +249,10 @@ def test_dask_cluster_gives_the_same_table() -> None:
 def test_dask_scheduler_that_cannot_be_reached_is_one_error_line(write_model) -> None:
     pytest.importorskip("distributed")
     path = write_model(FORK)
-    result = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
-                                       "--scheduler", "tcp://127.0.0.1:9"])
+    result = CliRunner().invoke(
+        main,
+        ["sweep", str(path), "--vary", "bolt.diameter=20,24", "--scheduler", "tcp://127.0.0.1:9"],
+    )
     assert result.exit_code == 2
     lines = result.stderr.strip().splitlines()
     assert len(lines) == 1
@@ -240,8 +261,15 @@ def test_dask_scheduler_that_cannot_be_reached_is_one_error_line(write_model) ->
 
 def test_cli_writes_csv_and_jsonl_and_never_overwrites(tmp_path: Path) -> None:
     out_csv, out_jsonl = tmp_path / "s.csv", tmp_path / "s.jsonl"
-    args = ["sweep", str(FORK_MODEL), "--vary", "bolt.diameter=20,24", "--vary",
-            "bolt.grade=8.8,10.9", "--quiet"]
+    args = [
+        "sweep",
+        str(FORK_MODEL),
+        "--vary",
+        "bolt.diameter=20,24",
+        "--vary",
+        "bolt.grade=8.8,10.9",
+        "--quiet",
+    ]
     r = CliRunner().invoke(main, [*args, "-o", str(out_csv)])
     assert r.exit_code == 0, r.output
     assert "4 cases, 4 solved, 0 with errors" in r.stdout
@@ -273,9 +301,24 @@ def test_cli_plot_carries_the_swept_response(tmp_path: Path, monkeypatch) -> Non
     monkeypatch.setattr(sweepplot, "sweep_figure", spy)
     plot = tmp_path / "sweep.png"
     out = tmp_path / "sweep.csv"
-    r = CliRunner().invoke(main, ["sweep", str(FORK_MODEL), "--vary", "ply[2].thickness=12:24:4",
-                                  "--vary", "bolt.diameter=20,24", "--plot", str(plot),
-                                  "--response", "max_shear", "-o", str(out), "--quiet"])
+    r = CliRunner().invoke(
+        main,
+        [
+            "sweep",
+            str(FORK_MODEL),
+            "--vary",
+            "ply[2].thickness=12:24:4",
+            "--vary",
+            "bolt.diameter=20,24",
+            "--plot",
+            str(plot),
+            "--response",
+            "max_shear",
+            "-o",
+            str(out),
+            "--quiet",
+        ],
+    )
     assert r.exit_code == 0, r.output
     assert plot.stat().st_size > 1000
     rows = list(csv.DictReader(out.open(encoding="utf-8")))
@@ -289,8 +332,19 @@ def test_cli_plot_carries_the_swept_response(tmp_path: Path, monkeypatch) -> Non
 
 def test_progress_bar_on_long_runs(write_model) -> None:
     path = write_model(FORK)
-    r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "ply[2].thickness=10:40:0.1",
-                                  "--capacity", "none", "--workers", "1"])
+    r = CliRunner().invoke(
+        main,
+        [
+            "sweep",
+            str(path),
+            "--vary",
+            "ply[2].thickness=10:40:0.1",
+            "--capacity",
+            "none",
+            "--workers",
+            "1",
+        ],
+    )
     assert r.exit_code == 0, r.output
     assert "301 cases" in r.stderr  # the bar's label
     assert "301 cases, 301 solved" in r.stdout
@@ -298,8 +352,9 @@ def test_progress_bar_on_long_runs(write_model) -> None:
 
 def test_a_row_names_the_bolt_of_its_worst_plane() -> None:
     row_model = MODELS / "splice-six-bolts.toml"
-    keys, cases, rows = _sweep_model(row_model, ["pattern.pitch=60,90"],
-                                     sr.Options(capacity="none"), workers=1)
+    keys, cases, rows = _sweep_model(
+        row_model, ["pattern.pitch=60,90"], sr.Options(capacity="none"), workers=1
+    )
     data = modelfile.read(row_model)
     for values, row in zip(cases, rows, strict=True):
         sol = plyshear.solve(modelfile.from_dict(sk.apply(data, keys, values), str(row_model)))

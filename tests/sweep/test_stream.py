@@ -45,8 +45,17 @@ def test_a_missing_folder_is_one_line_before_any_case(write_model, tmp_path, mon
     _no_run(monkeypatch)
     path = write_model(FORK)
     t0 = time.monotonic()
-    r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
-                                  "-o", str(tmp_path / "nowhere" / "out.csv")])
+    r = CliRunner().invoke(
+        main,
+        [
+            "sweep",
+            str(path),
+            "--vary",
+            "bolt.diameter=20,24",
+            "-o",
+            str(tmp_path / "nowhere" / "out.csv"),
+        ],
+    )
     assert time.monotonic() - t0 < BEFORE_WORK_S
     assert r.exit_code == 2
     lines = r.stderr.strip().splitlines()
@@ -55,15 +64,25 @@ def test_a_missing_folder_is_one_line_before_any_case(write_model, tmp_path, mon
     assert "does not exist" in lines[0]
 
 
-def test_a_folder_that_cannot_be_written_is_one_line_before_any_case(write_model,
-                                                                      monkeypatch) -> None:
+def test_a_folder_that_cannot_be_written_is_one_line_before_any_case(
+    write_model, monkeypatch
+) -> None:
     folder = Path("/sys")  # read-only even for root on Linux
     if not folder.is_dir() or os.access(folder, os.W_OK) and os.geteuid() != 0:
         pytest.skip("needs a folder this process cannot write")
     _no_run(monkeypatch)
     path = write_model(FORK)
-    r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
-                                  "-o", str(folder / "plyshear-out.csv")])
+    r = CliRunner().invoke(
+        main,
+        [
+            "sweep",
+            str(path),
+            "--vary",
+            "bolt.diameter=20,24",
+            "-o",
+            str(folder / "plyshear-out.csv"),
+        ],
+    )
     assert r.exit_code == 2
     lines = r.stderr.strip().splitlines()
     assert len(lines) == 1
@@ -77,8 +96,12 @@ def test_two_runs_opening_one_new_output_exactly_one_wins(tmp_path: Path) -> Non
         won: list[ss.Stream] = []
         lost: list[str] = []
 
-        def attempt(path: Path = path, barrier: threading.Barrier = barrier,
-                    won: list = won, lost: list = lost) -> None:
+        def attempt(
+            path: Path = path,
+            barrier: threading.Barrier = barrier,
+            won: list = won,
+            lost: list = lost,
+        ) -> None:
             s = ss.Stream(path, ["case", "case_key"])
             barrier.wait()
             try:
@@ -98,8 +121,9 @@ def test_two_runs_opening_one_new_output_exactly_one_wins(tmp_path: Path) -> Non
         won[0].close()
 
 
-def test_a_full_disk_is_one_line_and_keeps_the_rows_written(write_model, tmp_path,
-                                                             monkeypatch) -> None:
+def test_a_full_disk_is_one_line_and_keeps_the_rows_written(
+    write_model, tmp_path, monkeypatch
+) -> None:
     path = write_model(FORK)
     out = tmp_path / "out.csv"
     real = os.write
@@ -113,9 +137,24 @@ def test_a_full_disk_is_one_line_and_keeps_the_rows_written(write_model, tmp_pat
         return real(fd, data)
 
     monkeypatch.setattr(ss.os, "write", write)
-    r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "ply[2].thickness=10:40:0.1",
-                                  "--capacity", "none", "--workers", "1", "--chunk", "100",
-                                  "--quiet", "-o", str(out)])
+    r = CliRunner().invoke(
+        main,
+        [
+            "sweep",
+            str(path),
+            "--vary",
+            "ply[2].thickness=10:40:0.1",
+            "--capacity",
+            "none",
+            "--workers",
+            "1",
+            "--chunk",
+            "100",
+            "--quiet",
+            "-o",
+            str(out),
+        ],
+    )
     assert r.exit_code == 3  # the run could not finish
     lines = r.stderr.strip().splitlines()
     assert len(lines) == 2  # the error, then the resume command on its own line
@@ -162,9 +201,22 @@ def test_a_cluster_without_workers_ends_in_one_line(write_model, tmp_path) -> No
     out = tmp_path / "out.csv"
     with distributed.LocalCluster(n_workers=0, processes=False, dashboard_address=None) as c:
         t0 = time.monotonic()
-        r = CliRunner().invoke(main, ["sweep", str(path), "--vary", "bolt.diameter=20,24",
-                                      "--scheduler", c.scheduler_address, "--worker-timeout",
-                                      "1", "--quiet", "-o", str(out)])
+        r = CliRunner().invoke(
+            main,
+            [
+                "sweep",
+                str(path),
+                "--vary",
+                "bolt.diameter=20,24",
+                "--scheduler",
+                c.scheduler_address,
+                "--worker-timeout",
+                "1",
+                "--quiet",
+                "-o",
+                str(out),
+            ],
+        )
         assert time.monotonic() - t0 < 15.0  # the timeout, the client's start and close
     assert r.exit_code == 3, r.output  # could not finish
     lines = r.stderr.strip().splitlines()

@@ -112,7 +112,8 @@ def test_d5_1a_effective_width_and_net_tension() -> None:
 def test_d5_1a_side_distance_caps_b_e() -> None:
     # a 6 in plate: b = (6 - 2.03125)/2 = 1.984375 in < 2.13 in governs
     assert aisc.b_e_pin(T * IN, (6.0 - DH) / 2.0 * IN, form="us") / IN == pytest.approx(
-        1.984375, rel=REL_HAND)  # hand: (6 - 2 1/32)/2
+        1.984375, rel=REL_HAND
+    )  # hand: (6 - 2 1/32)/2
     # the S.I. form: 2t + 16 mm
     assert aisc.b_e_pin(20.0, 100.0) == pytest.approx(56.0, rel=REL_HAND)  # 2 x 20 + 16
 
@@ -167,10 +168,8 @@ def test_a_lug_that_fails_only_the_width_rule(tmp_path) -> None:
     # 6 in wide: 6 < 2 b_e + d = 6.26 in (D5.2) while every strength still passes:
     # net tension 0.75 x 65 x 2 x 0.75 x 1.984375 = 145.1 kip > 75 kip
     items = _items(tmp_path, 6.0)
-    failing = sorted((i.what, i.where) for i in items
-                     if not i.informative and i.utilization > 1.0)
-    assert failing == [("lug geometry", "ply fork-1, width"),
-                       ("lug geometry", "ply fork-2, width")]
+    failing = sorted((i.what, i.where) for i in items if not i.informative and i.utilization > 1.0)
+    assert failing == [("lug geometry", "ply fork-1, width"), ("lug geometry", "ply fork-2, width")]
     width = _item(items, "lug geometry", "ply fork-1, width")
     assert width.utilization == pytest.approx(6.26 / 6.0, rel=REL_HAND)
     assert width.clause.startswith("D5.2")
@@ -181,8 +180,10 @@ def test_a_lug_that_fails_only_the_width_rule(tmp_path) -> None:
 
 def test_a_hole_larger_than_the_d5_2_limit_is_flagged(tmp_path) -> None:
     path = tmp_path / "clevis.toml"
-    path.write_text(CLEVIS.replace("WIDTH", str(W)) + "\n[analysis]\nhole_clearance = 0.0625\n",
-                    encoding="utf-8")
+    path.write_text(
+        CLEVIS.replace("WIDTH", str(W)) + "\n[analysis]\nhole_clearance = 0.0625\n",
+        encoding="utf-8",
+    )
     joint = plyshear.load_model(path)
     items = check(joint, plyshear.solve(joint)).items
     hole = _item(list(items), "lug geometry", "ply fork-1, hole")

@@ -33,16 +33,38 @@ HUGE = 1e15
 REL_REGRESSION = 1e-6  # bisection and Newton tolerances of either version
 
 
-def _stack(members: list[str], thick: list[float], *, bolt: str = "elastic-plastic",
-           bearing: str = "elastic-plastic", limits: bool = False, ends: str = "free") -> str:
+def _stack(
+    members: list[str],
+    thick: list[float],
+    *,
+    bolt: str = "elastic-plastic",
+    bearing: str = "elastic-plastic",
+    limits: bool = False,
+    ends: str = "free",
+) -> str:
     """An M20 8.8 pin through S355-like plies; member a held, member b pulled."""
-    lines = ["format = 1", 'units = "N-mm"', "[bolt]", "diameter = 20", 'grade = "8.8"',
-             'threads = "excluded"', f'ends = "{ends}"', "[analysis]",
-             f'bearing = "{bearing}"', f'bolt = "{bolt}"',
-             f"deformation_limits = {str(limits).lower()}"]
+    lines = [
+        "format = 1",
+        'units = "N-mm"',
+        "[bolt]",
+        "diameter = 20",
+        'grade = "8.8"',
+        'threads = "excluded"',
+        f'ends = "{ends}"',
+        "[analysis]",
+        f'bearing = "{bearing}"',
+        f'bolt = "{bolt}"',
+        f"deformation_limits = {str(limits).lower()}",
+    ]
     for j, (m, t) in enumerate(zip(members, thick, strict=True)):
-        lines += ["[[ply]]", f'name = "{m}{j}"', f'member = "{m}"', f"thickness = {t!r}",
-                  "fy = 355", "fu = 490"]
+        lines += [
+            "[[ply]]",
+            f'name = "{m}{j}"',
+            f'member = "{m}"',
+            f"thickness = {t!r}",
+            "fy = 355",
+            "fu = 490",
+        ]
     lines += ["[member.a]", "support = true", "[member.b]", "load = 100000"]
     return "\n".join(lines) + "\n"
 
@@ -64,8 +86,13 @@ def test_elastic_plastic_peak_approaches_the_collapse_load(members, thick, ends)
     s = strengths(joint)
     s = dataclasses.replace(s, plane=np.full(s.plane.size, HUGE), fub=HUGE)
     peak = incremental.analyse(joint, strength=s).peak
-    lp = collapse(incremental.reference_pattern(joint), list(s.bearing), s.moment, s.shear,
-                  list(s.net_section)).load
+    lp = collapse(
+        incremental.reference_pattern(joint),
+        list(s.bearing),
+        s.moment,
+        s.shear,
+        list(s.net_section),
+    ).load
     assert peak <= lp * (1.0 + LP_TOL)
     assert peak >= lp * (1.0 - NEAR_COLLAPSE)
 
@@ -75,28 +102,44 @@ def test_elastic_plastic_peak_approaches_the_collapse_load(members, thick, ends)
     [
         # plyshear 3d5be30 (before the yielding bolt) on these stacks: nonlinear capacity, N
         (["a", "b", "a"], [15.0, 30.0, 15.0], "elastic-plastic", "free", 127159.96639990134),
-        (["a", "b", "a", "b", "a"], [8.0, 12.0, 16.0, 12.0, 8.0], "plate-bearing", "free",
-         492862.7073556406),
-        (["a", "b", "a", "b"], [10.0, 20.0, 20.0, 10.0], "elastic-plastic", "clamped",
-         467404.72139588534),
+        (
+            ["a", "b", "a", "b", "a"],
+            [8.0, 12.0, 16.0, 12.0, 8.0],
+            "plate-bearing",
+            "free",
+            492862.7073556406,
+        ),
+        (
+            ["a", "b", "a", "b"],
+            [10.0, 20.0, 20.0, 10.0],
+            "elastic-plastic",
+            "clamped",
+            467404.72139588534,
+        ),
         (["a", "b"], [10.0, 10.0], "bolt-shear", "free", 57280.558082512),
     ],
     ids=["clevis", "five-plies-plate-bearing", "four-plies-clamped", "lap-bolt-shear"],
 )
-def test_elastic_bolt_reproduces_the_earlier_analysis(members, thick, law, ends,
-                                                      expected) -> None:
-    joint = modelfile.loads(_stack(members, thick, bolt="elastic", bearing=law, limits=True,
-                                   ends=ends))
+def test_elastic_bolt_reproduces_the_earlier_analysis(members, thick, law, ends, expected) -> None:
+    joint = modelfile.loads(
+        _stack(members, thick, bolt="elastic", bearing=law, limits=True, ends=ends)
+    )
     result = incremental.analyse(joint)
     assert result.load == pytest.approx(expected, rel=REL_REGRESSION)
 
 
-@pytest.mark.parametrize("bearing", ["component", "elastic-plastic", "plate-bearing",
-                                     "bolt-shear"])
+@pytest.mark.parametrize("bearing", ["component", "elastic-plastic", "plate-bearing", "bolt-shear"])
 def test_a_thin_ply_bounds_every_capacity(bearing) -> None:
     # a 4 mm tongue between two 20 mm cheeks: the tongue's bearing governs
-    joint = modelfile.loads(_stack(["a", "b", "a"], [20.0, 4.0, 20.0], bearing=bearing,
-                                   bolt="strain-hardening", limits=True))
+    joint = modelfile.loads(
+        _stack(
+            ["a", "b", "a"],
+            [20.0, 4.0, 20.0],
+            bearing=bearing,
+            bolt="strain-hardening",
+            limits=True,
+        )
+    )
     # AISC 360-22 J3.10(a)(1): 2.4 d t Fu, the only ply of the pulled member ...
     tongue = 2.4 * 20.0 * 490.0 * 4.0
     if bearing == "plate-bearing":

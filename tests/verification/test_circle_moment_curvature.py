@@ -38,6 +38,7 @@ def _by_quadrature(steel: BoltSteel, kappa: float) -> float:
 
     def f(y: float) -> float:
         return float(steel.stress(np.array(kappa * y))) * y * 2.0 * math.sqrt(r * r - y * y)
+
     # split at the yield fibres (and the hardening's end), where σ has a kink
     pts = sorted({0.0, c, min(steel.eu / kappa, r), r})
     pieces = zip(pts, pts[1:], strict=False)
@@ -52,8 +53,7 @@ def test_first_yield_and_the_shape_factor_1_70() -> None:
     m, dm = moment_curvature(steel, np.array([kappa_y]), np.array([D]))
     assert m[0] == pytest.approx(m_y * (1.0 + PLATEAU_STIFFNESS), rel=REL_ROUNDOFF)
     # the tangent is continuous at first yield: EI on both sides
-    assert dm[0] == pytest.approx(E * math.pi * D**4 / 64.0 * (1 + PLATEAU_STIFFNESS),
-                                  rel=1e-9)
+    assert dm[0] == pytest.approx(E * math.pi * D**4 / 64.0 * (1 + PLATEAU_STIFFNESS), rel=1e-9)
     big = np.array([1e4 * kappa_y])
     m_big, _ = moment_curvature(steel, big, np.array([D]))
     floor = PLATEAU_STIFFNESS * E * math.pi * D**4 / 64.0 * big[0]

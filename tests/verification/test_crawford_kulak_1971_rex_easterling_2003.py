@@ -41,8 +41,10 @@ def _rex_easterling(x: np.ndarray) -> np.ndarray:
 
 # --- Crawford & Kulak (1971) ------------------------------------------------------------
 
-@pytest.mark.parametrize(("delta_in", "ratio"),
-                         [(0.01, 0.2743), (0.05, 0.5987), (0.10, 0.7770), (0.34, 0.9815)])
+
+@pytest.mark.parametrize(
+    ("delta_in", "ratio"), [(0.01, 0.2743), (0.05, 0.5987), (0.10, 0.7770), (0.34, 0.9815)]
+)
 def test_crawford_kulak_1971_r_over_rult(delta_in: float, ratio: float) -> None:
     # Crawford & Kulak (1971), J. Struct. Div. 97(ST3): R = Rult (1 - e^(-10 Δ))^0.55, Δ in in;
     # R/Rult as read (docs/references.md, "read"); 4 printed digits
@@ -59,8 +61,9 @@ def test_crawford_kulak_1971_limit_and_rult() -> None:
     ply = _ply(t=12.0)
     c = laws.curve("bolt-shear", _bolt(), ply, K_LINEAR)
     assert c.delta_limit == pytest.approx(0.34 * IN, rel=REL_EXACT)
-    assert c.q_max * ply.thickness == pytest.approx(0.62 * 800.0 * math.pi * 20.0**2 / 4,
-                                                    rel=REL_EXACT)
+    assert c.q_max * ply.thickness == pytest.approx(
+        0.62 * 800.0 * math.pi * 20.0**2 / 4, rel=REL_EXACT
+    )
 
 
 def test_crawford_kulak_regularised_branch_is_the_chord_to_0_001_in() -> None:
@@ -75,6 +78,7 @@ def test_crawford_kulak_regularised_branch_is_the_chord_to_0_001_in() -> None:
 
 
 # --- Rex & Easterling (2003) ------------------------------------------------------------
+
 
 def test_rex_easterling_2003_normalised_curve() -> None:
     ply = _ply()
@@ -96,11 +100,11 @@ def test_rex_easterling_2003_initial_stiffness_of_a_stated_plate() -> None:
     k_v = 6.67 * (e / 2.6) * t * (le / d - 0.5)
     k_i = 1 / (1 / k_br + 1 / k_b + 1 / k_v)  # kip/in
     bolt = _bolt(d * IN)
-    ply = Ply(name="p", member="m", thickness=t * IN, fy=fy * KSI, fu=65 * KSI, E=e * KSI,
-              edge=le * IN)
+    ply = Ply(
+        name="p", member="m", thickness=t * IN, fy=fy * KSI, fu=65 * KSI, E=e * KSI, edge=le * IN
+    )
     got = laws.rex_easterling_stiffness(bolt, ply)
-    assert np.array(got) == pytest.approx(np.array([k_i, k_br, k_b, k_v]) * KIP / IN,
-                                          rel=REL_EXACT)
+    assert np.array(got) == pytest.approx(np.array([k_i, k_br, k_b, k_v]) * KIP / IN, rel=REL_EXACT)
 
 
 def test_rex_easterling_2003_initial_slope_is_finite() -> None:
@@ -139,6 +143,7 @@ def test_rn_is_the_smaller_of_bearing_and_tearout() -> None:
 
 # --- AISC 360-22 J3.10: elastic-plastic ---------------------------------------------------
 
+
 def test_aisc_360_22_j3_10_elastic_plastic_yields_at_2_4_d_fu() -> None:
     # AISC 360-22 J3.10(a): Rn = 2.4 d t Fu; Commentary J3.10: about 1/4 in of elongation
     c = laws.curve("elastic-plastic", _bolt(), _ply(), K_LINEAR)
@@ -152,6 +157,7 @@ def test_aisc_360_22_j3_10_elastic_plastic_yields_at_2_4_d_fu() -> None:
 
 
 # --- every law ----------------------------------------------------------------------------
+
 
 @pytest.mark.parametrize("law", laws.NONLINEAR_LAWS)
 def test_every_law_is_continuous_and_starts_at_zero(law: str) -> None:

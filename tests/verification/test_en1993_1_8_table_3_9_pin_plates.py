@@ -32,13 +32,16 @@ F, T, FY, D0 = 300e3, 20.0, 355.0, 41.0  # N, mm, MPa, mm
 
 def test_table_3_9_type_a() -> None:
     # F gM0 / (2 t fy) = 300000 / (2 x 20 x 355) = 21.1268 mm
-    assert en.a_min_pin_plate(F, T, FY, D0) == pytest.approx(21.12676 + 27.33333,
-                                                             rel=REL_HAND)  # + 2 x 41/3
-    assert en.c_min_pin_plate(F, T, FY, D0) == pytest.approx(21.12676 + 13.66667,
-                                                             rel=REL_HAND)  # + 41/3
+    assert en.a_min_pin_plate(F, T, FY, D0) == pytest.approx(
+        21.12676 + 27.33333, rel=REL_HAND
+    )  # + 2 x 41/3
+    assert en.c_min_pin_plate(F, T, FY, D0) == pytest.approx(
+        21.12676 + 13.66667, rel=REL_HAND
+    )  # + 41/3
     # a National Annex's gamma_M0 = 1.1 scales the first term only
     assert en.a_min_pin_plate(F, T, FY, D0, gamma_M0=1.1) == pytest.approx(
-        1.1 * 21.12676 + 27.33333, rel=REL_HAND)
+        1.1 * 21.12676 + 27.33333, rel=REL_HAND
+    )
 
 
 def test_table_3_9_type_b() -> None:
@@ -61,8 +64,9 @@ def test_eq_3_14_contact_stress_of_a_replaceable_pin() -> None:
 def test_table_3_10_replaceable_pin_resistances() -> None:
     # 0.6 x 20 x 40 x 355 = 170400 N; 0.8 x (pi 40^3 / 32) x 900 = 4523893 N mm
     assert en.F_b_Rd_ser_pin(20.0, 40.0, 355.0) == pytest.approx(170400.0, rel=REL_HAND)
-    assert en.M_Rd_ser_pin(40.0, 900.0) == pytest.approx(0.8 * math.pi * 40**3 / 32 * 900,
-                                                         rel=REL_HAND)
+    assert en.M_Rd_ser_pin(40.0, 900.0) == pytest.approx(
+        0.8 * math.pi * 40**3 / 32 * 900, rel=REL_HAND
+    )
 
 
 LUG = """\
@@ -129,9 +133,11 @@ def test_each_ply_bears_with_its_own_fy(tmp_path) -> None:
     # Table 3.10: 1.5 t d fy / gM0, fy the lower of the pin (900) and the plate
     # (EN 10025-2: S235 235 MPa, S355 355 MPa for t <= 40 mm)
     assert _item(result, "pin bearing", "ply leg-1").capacity == pytest.approx(
-        1.5 * 20 * 40 * 235, rel=REL_HAND)
+        1.5 * 20 * 40 * 235, rel=REL_HAND
+    )
     assert _item(result, "pin bearing", "ply lug").capacity == pytest.approx(
-        1.5 * 30 * 40 * 355, rel=REL_HAND)
+        1.5 * 30 * 40 * 355, rel=REL_HAND
+    )
 
 
 def test_the_lug_items_by_hand(tmp_path) -> None:
@@ -151,21 +157,27 @@ def test_the_lug_items_by_hand(tmp_path) -> None:
     # Eq. 3.14 with the lug's own force; Eq. 3.15 with the lower fy (355)
     contact = _item(result, "pin contact stress", "ply lug")
     assert contact.demand == pytest.approx(
-        0.591 * math.sqrt(210000 * 300e3 * 1.0 / (40**2 * 30)), rel=REL_HAND)
+        0.591 * math.sqrt(210000 * 300e3 * 1.0 / (40**2 * 30)), rel=REL_HAND
+    )
     assert contact.capacity == pytest.approx(2.5 * 355, rel=REL_HAND)
-    assert _item(result, "pin bearing (serviceability)", "ply leg-1").capacity == \
-        pytest.approx(0.6 * 20 * 40 * 235, rel=REL_HAND)
+    assert _item(result, "pin bearing (serviceability)", "ply leg-1").capacity == pytest.approx(
+        0.6 * 20 * 40 * 235, rel=REL_HAND
+    )
     # factored loads: the serviceability rules run on them (conservative), and say so
     assert any("factored loads (conservative)" in n for n in result.notes)
     assert joint.check.replaceable
 
 
 def test_service_loads_check_the_serviceability_rules_alone(tmp_path) -> None:
-    _, result = _check(tmp_path, LUG.replace("replaceable = true",
-                                             'replaceable = true\nloads = "service"'))
+    _, result = _check(
+        tmp_path, LUG.replace("replaceable = true", 'replaceable = true\nloads = "service"')
+    )
     whats = {i.what for i in result.items}
-    assert whats == {"pin bearing (serviceability)", "pin contact stress",
-                     "pin bending (serviceability)"}
+    assert whats == {
+        "pin bearing (serviceability)",
+        "pin contact stress",
+        "pin bending (serviceability)",
+    }
     assert result.loads == "service"
 
 
@@ -178,10 +190,12 @@ def test_service_loads_without_a_replaceable_pin_are_still_refused(tmp_path) -> 
 
 
 def test_the_serviceability_rules_need_no_edge_or_width(tmp_path) -> None:
-    bare = "\n".join(line for line in LUG.splitlines()
-                     if not line.startswith(("edge", "width")))
+    bare = "\n".join(line for line in LUG.splitlines() if not line.startswith(("edge", "width")))
     _, result = _check(tmp_path, bare)
     assert {i.where for i in result.items if i.what == "pin contact stress"} == {
-        "ply leg-1", "ply lug", "ply leg-2"}
+        "ply leg-1",
+        "ply lug",
+        "ply leg-2",
+    }
     assert not any(i.what == "lug geometry" for i in result.items)
     assert any("no edge or width given" in n for n in result.notes)

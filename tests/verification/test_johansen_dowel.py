@@ -70,8 +70,7 @@ REL_ALGEBRA = 1e-12  # two forms of the same closed form
 REL_SOLVER = 1e-9  # HiGHS' optimality tolerance, on a lower bound
 
 # The bolt's own grade is irrelevant here: the strengths are passed as functions.
-BOLT = Bolt(diameter=20.0, grade="8.8", fyb=640.0, fub=800.0, stress_area=245.0,
-            threads="excluded")
+BOLT = Bolt(diameter=20.0, grade="8.8", fyb=640.0, fub=800.0, stress_area=245.0, threads="excluded")
 
 
 def _no_limit(z: np.ndarray) -> np.ndarray:
@@ -90,15 +89,20 @@ def _ply(name: str, member: str, t: float) -> Ply:
 
 def _single(t1: float, t2: float) -> Joint:
     """Two members in single shear: m1 held, m2 pulled."""
-    return Joint(bolt=BOLT, plies=(_ply("m1", "m1", t1), _ply("m2", "m2", t2)),
-                 members=(Member("m1", support=True), Member("m2", load=(1000.0, 0.0))))
+    return Joint(
+        bolt=BOLT,
+        plies=(_ply("m1", "m1", t1), _ply("m2", "m2", t2)),
+        members=(Member("m1", support=True), Member("m2", load=(1000.0, 0.0))),
+    )
 
 
 def _double(t1: float, t2: float) -> Joint:
     """Outer members (held, one member) and a pulled central member."""
-    return Joint(bolt=BOLT, plies=(_ply("out-1", "outer", t1), _ply("mid", "mid", t2),
-                                   _ply("out-2", "outer", t1)),
-                 members=(Member("outer", support=True), Member("mid", load=(1000.0, 0.0))))
+    return Joint(
+        bolt=BOLT,
+        plies=(_ply("out-1", "outer", t1), _ply("mid", "mid", t2), _ply("out-2", "outer", t1)),
+        members=(Member("outer", support=True), Member("mid", load=(1000.0, 0.0))),
+    )
 
 
 def _root(a: float, b: float, c: float) -> float:
@@ -140,12 +144,18 @@ def published_single(t1: float, t2: float, q1: float, q2: float, my: float) -> d
     return {
         "a": q1 * t1,
         "b": q1 * t2 * b,
-        "c": q1 * t1 / (1 + b) * (math.sqrt(b + 2 * b**2 * (1 + r + r**2) + b**3 * r**2)
-                                  - b * (1 + r)),
-        "d": q1 * t1 / (2 + b) * (math.sqrt(2 * b * (1 + b) + 4 * b * (2 + b) * my
-                                            / (q1 * t1**2)) - b),
-        "e": q1 * t2 / (1 + 2 * b) * (math.sqrt(2 * b**2 * (1 + b) + 4 * b * (1 + 2 * b) * my
-                                                / (q1 * t2**2)) - b),
+        "c": q1
+        * t1
+        / (1 + b)
+        * (math.sqrt(b + 2 * b**2 * (1 + r + r**2) + b**3 * r**2) - b * (1 + r)),
+        "d": q1
+        * t1
+        / (2 + b)
+        * (math.sqrt(2 * b * (1 + b) + 4 * b * (2 + b) * my / (q1 * t1**2)) - b),
+        "e": q1
+        * t2
+        / (1 + 2 * b)
+        * (math.sqrt(2 * b**2 * (1 + b) + 4 * b * (1 + 2 * b) * my / (q1 * t2**2)) - b),
         "f": math.sqrt(2 * b / (1 + b)) * math.sqrt(2 * my * q1),
     }
 
@@ -156,8 +166,10 @@ def published_double(t1: float, t2: float, q1: float, q2: float, my: float) -> d
     per_plane = {
         "g": q1 * t1,
         "h": 0.5 * q2 * t2,
-        "j": q1 * t1 / (2 + b) * (math.sqrt(2 * b * (1 + b) + 4 * b * (2 + b) * my
-                                            / (q1 * t1**2)) - b),
+        "j": q1
+        * t1
+        / (2 + b)
+        * (math.sqrt(2 * b * (1 + b) + 4 * b * (2 + b) * my / (q1 * t1**2)) - b),
         "k": math.sqrt(2 * b / (1 + b)) * math.sqrt(2 * my * q1),
     }
     return {k: 2 * v for k, v in per_plane.items()}
@@ -189,8 +201,7 @@ def _run(joint: Joint, q: list[float], my: float) -> Collapse:
 @pytest.mark.parametrize("case", list(SINGLE.values()) + list(DOUBLE.values()))
 def test_derived_forms_equal_the_published_shapes(case) -> None:
     # from memory: EN 1995-1-1:2004 eq. (8.6)/(8.7), unmodified: same algebra as derived
-    for derived, published in ((single_shear, published_single),
-                               (double_shear, published_double)):
+    for derived, published in ((single_shear, published_single), (double_shear, published_double)):
         mine, theirs = derived(*case), published(*case)
         for mode in mine:
             assert mine[mode] == pytest.approx(theirs[mode], rel=REL_ALGEBRA), mode
@@ -222,8 +233,13 @@ DOUBLE_MECHANISM = {
 }
 
 
-def _check(mode: str, modes: dict[str, float], result: Collapse, joint: Joint,
-           expected: tuple[set[str], list[str]]) -> None:
+def _check(
+    mode: str,
+    modes: dict[str, float],
+    result: Collapse,
+    joint: Joint,
+    expected: tuple[set[str], list[str]],
+) -> None:
     ranked = sorted(modes, key=modes.get)
     assert ranked[0] == mode  # the case is built so that this mode governs
     assert modes[ranked[1]] > MARGIN * modes[mode]

@@ -100,7 +100,8 @@ def test_alternating_stack_bound_is_planes_times_plane_strength(planes) -> None:
     expected = _cheapest_cut([strength] * planes, q, loaded)
     assert summary.plastic.load == pytest.approx(expected, rel=REL_MAXFLOW)
     assert summary.efficiency(summary.plastic.load) == pytest.approx(
-        expected / (planes * strength), rel=REL_MAXFLOW)
+        expected / (planes * strength), rel=REL_MAXFLOW
+    )
 
 
 @pytest.mark.parametrize(
@@ -130,8 +131,10 @@ def test_summary_plastic_bound_of_the_fork_example() -> None:
     # AISC 360-22 J3.10(a)(1): min(2.4 d t Fu, 1.2 lc t Fu), lc = edge - dh/2, with
     # dh = d + 2 mm for an M24 in a normal hole (EN 1090-2:2018 Table 11)
     d = joint.bolt.diameter
-    q = [min(2.4 * d * p.fu, 1.2 * (p.edge - (d + 2.0) / 2.0) * p.fu) * p.thickness
-         for p in joint.plies]
+    q = [
+        min(2.4 * d * p.fu, 1.2 * (p.edge - (d + 2.0) / 2.0) * p.fu) * p.thickness
+        for p in joint.plies
+    ]
     loaded = [not joint.members[joint.member_index()[p.member]].support for p in joint.plies]
     expected = _cheapest_cut(r, q, loaded)
     assert summary.plastic.load == pytest.approx(expected, rel=REL_MAXFLOW)

@@ -36,7 +36,9 @@ def test_the_hand_calculation_is_the_models_collapse(fork) -> None:
     assert summary.collapse.load == pytest.approx(HANGER, rel=REL)
     assert summary.plastic.load == pytest.approx(HANGER, rel=REL)
     assert sorted(name for _, name in summary.mechanism.mechanism.bearing) == [
-        "hanger-1", "hanger-2"]
+        "hanger-1",
+        "hanger-2",
+    ]
     assert summary.nonlinear.load <= HANGER * (1.0 + REL)
 
 
