@@ -7,7 +7,8 @@ from plyshear.codes.check import UNVERIFIED
 from plyshear.codes.combinations import CombinedCheck
 from plyshear.mechanics.combine import Combined
 from plyshear.model.joint import Joint
-from plyshear.report.text import CAUTION, fmt, table
+from plyshear.report.numbers import fmt, item_row
+from plyshear.report.text import CAUTION, table
 
 
 def loads_text(joint: Joint) -> str:
@@ -97,33 +98,9 @@ def check_text(checks: CombinedCheck, joint: Joint) -> str:
     rows = []
     lines = checks.lines()
     for line in lines:
-        item = line.item
-        if item.dimension == "ratio":
-            demand, capacity, unit = fmt(item.demand, 3), fmt(item.capacity, 3), ""
-        else:
-            k = u.factor(item.dimension)
-            demand, capacity, unit = (
-                fmt(item.demand / k),
-                fmt(item.capacity / k),
-                u.label(item.dimension),
-            )
-        util = item.utilization
-        flag = "<< governing" if line is lines[0] else ("(info)" if item.informative else "")
-        if util > 1.0 and not item.informative:
-            flag = ("FAILS " + flag).strip()
-        rows.append(
-            [
-                item.what,
-                item.place(joint.units),
-                line.combination,
-                demand,
-                capacity,
-                unit,
-                f"{util:.3f}" if util != float("inf") else "inf",
-                item.clause,
-                flag,
-            ]
-        )
+        row = item_row(line.item, joint.units, u, line is lines[0])
+        row.insert(2, line.combination)
+        rows.append(row)
     method = {"lrfd": "LRFD", "asd": "ASD"}.get(summary.method, "partial factors")
     out = [
         joint.title or (joint.source or "joint"),

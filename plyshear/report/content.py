@@ -18,8 +18,8 @@ from plyshear.mechanics.capacity import CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.model.joint import Joint
 from plyshear.report.handcalc import LastPlane, hand_rows
+from plyshear.report.numbers import fmt, item_values
 from plyshear.report.quantities import Display, display
-from plyshear.report.text import fmt
 
 #: The caution printed on every report (the terminal's is shorter).
 CAUTION_LONG = (
@@ -349,15 +349,7 @@ def check_rows(data: ReportData) -> Table:
     gov = res.governing
     rows, marked = [], None
     for i, item in enumerate(res.sorted_items()):
-        if item.dimension == "ratio":
-            demand, capacity, unit = fmt(item.demand, 3), fmt(item.capacity, 3), ""
-        else:
-            k = u.factor(item.dimension)
-            demand, capacity, unit = (
-                fmt(item.demand / k),
-                fmt(item.capacity / k),
-                u.label(item.dimension),
-            )
+        demand, capacity, unit = item_values(item, u)
         if item is gov:
             marked = i
         flag = "governing" if item is gov else ("informative" if item.informative else "")

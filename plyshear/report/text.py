@@ -13,7 +13,7 @@ from plyshear.mechanics.capacity import Answer, CapacitySummary
 from plyshear.mechanics.results import Solution
 from plyshear.mechanics.studies import PlanesRow, ScatterResult
 from plyshear.model.joint import Joint
-from plyshear.report.numbers import fmt
+from plyshear.report.numbers import fmt, item_row
 
 CAUTION = (
     "Caution: plyshear supports, and never replaces, the judgement of a licensed "
@@ -232,28 +232,7 @@ def check_text(result: CheckResult, solution: Solution) -> str:
     gov = result.governing
     rows = []
     for item in result.sorted_items():
-        if item.dimension == "ratio":
-            demand, capacity, unit = fmt(item.demand, 3), fmt(item.capacity, 3), ""
-        else:
-            k = u.factor(item.dimension)
-            demand, capacity = fmt(item.demand / k), fmt(item.capacity / k)
-            unit = u.label(item.dimension)
-        util = item.utilization
-        flag = "<< governing" if item is gov else ("(info)" if item.informative else "")
-        if util > 1.0 and not item.informative:
-            flag = ("FAILS " + flag).strip()
-        rows.append(
-            [
-                item.what,
-                item.place(result.units),
-                demand,
-                capacity,
-                unit,
-                f"{util:.3f}" if util != float("inf") else "inf",
-                item.clause,
-                flag,
-            ]
-        )
+        rows.append(item_row(item, result.units, u, item is gov))
     method = {"lrfd": "LRFD", "asd": "ASD"}.get(result.method, "partial factors")
     title = solution.joint.title or (solution.joint.source or "joint")
     capacity_word = {"lrfd": "design strength", "asd": "allowable strength"}.get(
