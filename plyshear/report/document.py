@@ -22,6 +22,7 @@ from plyshear.codes.resistance import nominal_bearing
 from plyshear.errors import CapacityError
 from plyshear.mechanics.capacity import CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
+from plyshear.model.joint import Joint
 from plyshear.report import diagrams
 from plyshear.report.content import (
     CAUTION_LONG,
@@ -126,6 +127,28 @@ svg { max-width: 100%; height: auto; }
 """
 
 
+#: The title block's boxes, in the order the PDF shows them.
+TITLE_BOXES = (
+    ("job", "job"),
+    ("subject", "subject"),
+    ("prepared_by", "prepared by"),
+    ("checked_by", "checked by"),
+    ("revision", "revision"),
+    ("date", "date"),
+)
+
+
+def title_block_html(joint: Joint) -> str:
+    """The title block as a one-row table (blank boxes where the model gives nothing)."""
+    tb = joint.title_block
+    head = "".join(f"<th>{_esc(label)}</th>" for _, label in TITLE_BOXES)
+    cells = "".join(f"<td>{_esc(getattr(tb, key))}</td>" for key, _ in TITLE_BOXES)
+    return (
+        f'<table class="title-block"><thead><tr>{head}</tr></thead>'
+        f"<tbody><tr>{cells}</tr></tbody></table>"
+    )
+
+
 def to_html(data: ReportData) -> str:
     """Return the report as one self-contained HTML document."""
     joint = data.joint
@@ -138,6 +161,7 @@ def to_html(data: ReportData) -> str:
     ]
     if joint.project:
         parts.append(f'<p class="project">{_esc(joint.project)}</p>')
+    parts.append(title_block_html(joint))
     parts.append(f'<p class="caution"><strong>Caution.</strong> {_esc(CAUTION_LONG)}</p>')
     for n, section in enumerate(sections(data), start=1):
         parts.append(f"<section><h2>{n} {_esc(section.heading)}</h2>")

@@ -19,6 +19,7 @@ from itertools import groupby
 
 import numpy as np
 
+from plyshear import units as _units
 from plyshear.mechanics.capacity import CapacityError, CapacitySummary, summarize
 from plyshear.mechanics.results import Solution
 from plyshear.model.joint import Joint
@@ -157,14 +158,19 @@ def hand_rows(sol: Solution) -> list[HandRow]:
             )
         )
     else:
-        a, b, c = fork_geometry(joint)  # type: ignore[misc, str-unpack]
+        geometry = fork_geometry(joint)
+        assert not isinstance(geometry, str)  # table_3_10_moment gave a moment: a fork
+        a, b, c = geometry
+        u = _units.system(joint.units)
+        ln, ll = u.factor("length"), u.label("length")
         rows.append(
             HandRow(
                 "EN 1993-1-8 Table 3.10 moment F(b + 4c + 2a)/8",
                 "moment",
                 moment,
                 largest,
-                f"a = {a:g}, b = {b:g}, c = {c:g} mm (a: the thicker outer ply)",
+                f"a = {a / ln:.4g}, b = {b / ln:.4g}, c = {c / ln:.4g} {ll} (a: the thicker "
+                "outer ply)",
             )
         )
     return rows
