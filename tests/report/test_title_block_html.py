@@ -16,13 +16,19 @@ def _html(joint: plyshear.Joint) -> str:
 
 
 def test_the_html_report_has_every_title_block_key() -> None:
-    keys = {"job": "J-0417", "subject": "Chord splice", "prepared_by": "A. Author",
-            "checked_by": "B. Checker", "revision": "C"}
+    keys = {
+        "job": "J-0417",
+        "subject": "Chord splice",
+        "prepared_by": "A. Author",
+        "checked_by": "B. Checker",
+        "revision": "C",
+    }
     head = "".join(f'{k} = "{v}"\n' for k, v in keys.items())
     joint = modelfile.loads(head + FORK)
     html = _html(joint)
-    for label, value in zip(("job", "subject", "prepared by", "checked by", "revision"),
-                            keys.values(), strict=True):
+    for label, value in zip(
+        ("job", "subject", "prepared by", "checked by", "revision"), keys.values(), strict=True
+    ):
         assert f"<th>{label}</th>" in html
         assert f"<td>{value}</td>" in html
 
