@@ -226,6 +226,14 @@ COMBINATION_HELP = (
     "Use one load combination of the model (default: every combination, "
     "where the model has load cases)."
 )
+#: Options shared by solve and check.
+COMBINATION = click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
+STACK_PLOT = click.option(
+    "--plot",
+    type=click.Path(dir_okay=False),
+    default=None,
+    help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).",
+)
 
 
 def _plot_target(plot: str | None, force: bool) -> tuple[Path, str] | None:
@@ -297,12 +305,7 @@ def main() -> None:
 @main.command("solve")
 @click.argument("model", type=click.Path(dir_okay=False))
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result.")
-@click.option(
-    "--plot",
-    type=click.Path(dir_okay=False),
-    default=None,
-    help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).",
-)
+@STACK_PLOT
 @click.option(
     "-o",
     "--output",
@@ -312,7 +315,7 @@ def main() -> None:
     "sheet each; the 'xlsx' extra).",
 )
 @click.option("--force", is_flag=True, help="Replace an existing --plot or -o file.")
-@click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
+@COMBINATION
 def solve_cmd(
     model: str,
     as_json: bool,
@@ -381,12 +384,7 @@ def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force
     help="AISC method (default: the model's [check] method).",
 )
 @click.option("--json", "as_json", is_flag=True, help="Print the JSON result with its check.")
-@click.option(
-    "--plot",
-    type=click.Path(dir_okay=False),
-    default=None,
-    help="Write the stack with shear and moment diagrams (.png, .svg, .pdf).",
-)
+@STACK_PLOT
 @click.option(
     "-o",
     "--output",
@@ -399,7 +397,7 @@ def _solve_all(joint: Any, as_json: bool, target: tuple[Path, str] | None, force
 @click.option(
     "--details", is_flag=True, help="With several models: each one's check table after the summary."
 )
-@click.option("--combination", default=None, metavar="NAME", help=COMBINATION_HELP)
+@COMBINATION
 def check_cmd(
     models: tuple[str, ...],
     standard: str | None,

@@ -128,7 +128,8 @@ def _shear(
     return items
 
 
-def _hole(joint: Joint) -> float:
+def hole(joint: Joint) -> float:
+    """The hole diameter under AISC 360-22: its table, or its fallback off the table, mm."""
     inch = catalog.is_inch_size(joint.bolt.diameter)
     return common.hole_diameter(joint, "aisc360-22", MM_PER_IN / 16.0 if inch else 2.0)
 
@@ -138,7 +139,7 @@ def _bearing(joint: Joint, bolt: BoltResult, method: str) -> list[CheckItem]:
     pin = joint.check.connector == "pin"
     long_slot = b.hole == "long-slot"
     deform = joint.check.deformation_considered
-    dh = _hole(joint)
+    dh = hole(joint)
     items = []
     for pb, ply, where in common.bearing_plies(joint, bolt):
         if pin:

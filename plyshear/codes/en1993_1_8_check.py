@@ -94,13 +94,14 @@ def _shear(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     return items
 
 
-def _hole(joint: Joint) -> float:
+def hole(joint: Joint) -> float:
+    """The hole diameter under EN 1993-1-8: its table, or its fallback off the table, mm."""
     return common.hole_diameter(joint, "en1993-1-8", 2.0)
 
 
 def _bearing(joint: Joint, bolt: BoltResult) -> list[CheckItem]:
     b = joint.bolt
-    d0 = _hole(joint)
+    d0 = hole(joint)
     items = []
     for pb, ply, where in common.bearing_plies(joint, bolt):
         if joint.check.connector == "pin":

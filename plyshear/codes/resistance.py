@@ -50,8 +50,8 @@ def nominal_bearing(joint: Joint) -> list[tuple[float, str]]:
     """
     from plyshear.codes import aisc360 as aisc
     from plyshear.codes import en1993_1_8 as en
-    from plyshear.codes.aisc360_check import _hole as aisc_hole
-    from plyshear.codes.en1993_1_8_check import _hole as en_hole
+    from plyshear.codes.aisc360_check import hole as aisc_hole
+    from plyshear.codes.en1993_1_8_check import hole as en_hole
 
     b, std = joint.bolt, joint.check.standard
     pin = joint.check.connector == "pin"
