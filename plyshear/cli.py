@@ -1374,9 +1374,9 @@ def _sweep_print(
         click.echo(so.units_line(units))
     if outcome.deaths:
         click.echo(
-            f"warning: {outcome.deaths} worker process(es) died; their chunks were "
-            f"run again ({outcome.lost} cases lost after a second death are error "
-            "rows)",
+            f"warning: {outcome.deaths} worker process(es) died and were replaced; "
+            f"a chunk one was running ran again ({outcome.lost} cases lost after a "
+            "second death are error rows)",
             err=True,
         )
 

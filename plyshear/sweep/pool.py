@@ -172,7 +172,7 @@ class PoolReport:
     """What a pool run did besides its results.
 
     Attributes:
-        deaths: Worker deaths seen (each cost one attempt of its chunk).
+        deaths: Worker deaths seen, busy or idle (a busy one cost an attempt of its chunk).
         lost: Chunks given up after :data:`ATTEMPTS` deaths, with the cause.
         stopped: The signal that stopped the run, or None.
     """
@@ -248,29 +248,42 @@ def run_jobs(
                 break
             for s in slots:
                 if s.job is None and pending:
-                    s.job = pending.popleft()
-                    attempts[s.job] += 1
-                    s.conn.send((s.job, jobs[s.job]))
+                    job = pending.popleft()
+                    try:
+                        s.conn.send((job, jobs[job]))
+                    except OSError:  # it died since the last look; its sentinel says so
+                        pending.appendleft(job)
+                        continue
+                    s.job = job
+                    attempts[job] += 1
             busy = [s for s in slots if s.job is not None]
             ready = set(
                 wait([s.conn for s in busy] + [s.proc.sentinel for s in slots], timeout=POLL)
             )
-            for k, s in enumerate(slots):
+            kept: list[_Slot] = []
+            for s in slots:
                 if s.job is not None and s.conn in ready and receive(s):
+                    kept.append(s)
                     continue
-                if s.proc.sentinel in ready or not s.proc.is_alive():
-                    if s.job is not None and s.conn.poll() and receive(s):
-                        pass  # it answered, then ended
-                    _lost_worker(s, report, attempts, pending, fail)
-                    _close(s)
-                    report.exits.append(s.proc.exitcode)
-                    if not answered and len(report.exits) > STARTUP_DEATHS * len(slots):
-                        raise PoolError(
-                            f"worker processes end as they start "
-                            f"({death_cause(s.proc.exitcode)}); none could run"
-                        )
-                    slots[k] = spawn() if pending and not stopper.stopped else s
-            slots = [s for s in slots if s.proc.is_alive() or s.job is not None]
+                if s.proc.sentinel not in ready and s.proc.is_alive():
+                    kept.append(s)
+                    continue
+                # It ended, busy or idle: a worker never ends on its own while the run
+                # goes on. Count it, run its chunk again, and replace it if work is left.
+                if s.job is not None and s.conn.poll() and receive(s):
+                    pass  # it answered, then ended
+                _lost_worker(s, report, attempts, pending, fail)
+                _close(s)
+                report.exits.append(s.proc.exitcode)
+                if not answered and len(report.exits) > STARTUP_DEATHS * len(slots):
+                    slots = kept + slots[slots.index(s) :]  # for the finally clause to end
+                    raise PoolError(
+                        f"worker processes end as they start "
+                        f"({death_cause(s.proc.exitcode)}); none could run"
+                    )
+                if pending and not stopper.stopped:
+                    kept.append(spawn())
+            slots = kept
         if stopper.stopped:
             report.stopped = stopper.signum
             _drain(slots, receive, grace)
@@ -288,9 +301,9 @@ def _lost_worker(
 ) -> None:
     """Account for a dead worker's chunk: run it again once, then give it up."""
     s.proc.join(timeout=1.0)
+    report.deaths += 1
     if s.job is None:
         return
-    report.deaths += 1
     cause = death_cause(s.proc.exitcode)
     if attempts[s.job] >= ATTEMPTS:
         report.lost[s.job] = cause

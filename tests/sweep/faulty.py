@@ -6,8 +6,13 @@ import os
 import signal
 
 
-def job(name: str) -> str:
-    """Return the name in capitals; a job named "die" kills its own worker (SIGKILL)."""
+def job(name: str) -> str | int:
+    """Return the name in capitals; a job named "die" kills its own worker (SIGKILL).
+
+    A job named "pid" returns its worker's process id (for a test to kill it idle).
+    """
+    if name == "pid":
+        return os.getpid()
     if name == "die":
         os.kill(os.getpid(), signal.SIGKILL)
     if name == "raise":

@@ -155,3 +155,20 @@ def test_two_sweeps_on_one_new_path_exactly_one_wins(tmp_path: Path) -> None:
     assert loser.strip().count("\n") == 0
     assert "exists" in loser
     assert [r["bolt.diameter"] for r in _rows(out)] == ["20", "24"]
+
+
+def test_a_worker_killed_between_chunks_is_replaced_and_counted() -> None:
+    """The next chunk sent to a worker that died idle goes to a fresh one, not a traceback."""
+    results: dict[int, object] = {}
+
+    def kill_the_answerer(index: int, value: object) -> None:
+        results[index] = value
+        if isinstance(value, int):  # the "pid" job: its worker is idle now; kill it
+            os.kill(value, signal.SIGKILL)
+            time.sleep(0.3)  # dead before the pool sends it the next chunk
+
+    with sp.Stopper() as stop:
+        report = sp.run_jobs(faulty.job, ["pid", "a", "b"], 1, kill_the_answerer, stop)
+    assert (results[1], results[2]) == ("A", "B")
+    assert report.deaths == 1  # an idle death is still a death the user is told of
+    assert not report.lost
