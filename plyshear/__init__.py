@@ -91,9 +91,11 @@ def solve(joint: Joint) -> Solution:
     Raises:
         ModelError: If the joint is a mechanism.
         SolveError: If the system cannot be solved.
+        TypeError: If ``joint`` is not a :class:`Joint` (say, ``load_model``'s path).
     """
     from plyshear.mechanics.solve import solve as _solve
 
+    _require_joint(joint, "solve")
     _notebook()
     return _solve(joint)
 
@@ -159,13 +161,30 @@ def capacity(joint_or_solution: Joint | Solution) -> CapacitySummary:
 
     Raises:
         plyshear.mechanics.capacity.CapacityError: If an analysis fails.
+        TypeError: If the argument is neither a joint nor a solution.
     """
     from plyshear.codes.resistance import nominal_bearing
     from plyshear.mechanics.capacity import summarize
+    from plyshear.mechanics.results import Solution
 
-    joint = joint_or_solution.joint if hasattr(joint_or_solution, "joint") else joint_or_solution
+    if isinstance(joint_or_solution, Solution):
+        joint = joint_or_solution.joint
+    else:
+        joint = _require_joint(joint_or_solution, "capacity")
     _notebook()
     return summarize(joint_or_solution, nominal_bearing(joint))
+
+
+def _require_joint(value: object, verb: str) -> Joint:
+    """``value`` if it is a joint; else a TypeError that says what to pass."""
+    from plyshear.model.joint import Joint
+
+    if not isinstance(value, Joint):
+        raise TypeError(
+            f"plyshear.{verb} needs a Joint (from plyshear.load_model(path)), "
+            f"not {type(value).__name__}"
+        )
+    return value
 
 
 def _notebook() -> None:

@@ -76,3 +76,11 @@ def test_package_namespace_is_the_api() -> None:
     }  # subpackages once imported
     for leaked in ("os", "Any", "annotations", "TYPE_CHECKING"):
         assert not hasattr(plyshear, leaked)
+
+
+@pytest.mark.parametrize("bad", [None, "models/fork-four-planes.toml", 3.0])
+def test_the_api_names_what_it_needs_when_given_something_else(bad: object) -> None:
+    with pytest.raises(TypeError, match=r"plyshear\.solve needs a Joint .*load_model"):
+        plyshear.solve(bad)  # type: ignore[arg-type]
+    with pytest.raises(TypeError, match=r"plyshear\.capacity needs a Joint"):
+        plyshear.capacity(bad)  # type: ignore[arg-type]
