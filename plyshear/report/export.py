@@ -35,6 +35,9 @@ COLUMNS: dict[str, tuple[str, ...]] = {
     "check": (
         "what",
         "where",
+        "bolt",
+        "plane",
+        "ply",
         "demand",
         "capacity",
         "unit",
@@ -46,6 +49,8 @@ COLUMNS: dict[str, tuple[str, ...]] = {
     ),
     "capacity": ("answer", "load", "design_load", "efficiency", "event", "where"),
 }
+#: What names a check item: the governing one is the item equal to it in all of these.
+PLACE = ("what", "where", "bolt", "plane", "ply")
 #: The capacity answers exported, in order.
 ANSWERS = ("elastic", "nonlinear", "collapse", "plastic")
 FORMATS = (".csv", ".xlsx")
@@ -105,9 +110,7 @@ def tables(result: dict[str, Any]) -> dict[str, list[dict[str, Any]]]:
         out["check"] = [
             {
                 **{c: item.get(c) for c in COLUMNS["check"]},
-                "governing": gov is not None
-                and item["what"] == gov["what"]
-                and item["where"] == gov["where"],
+                "governing": gov is not None and all(item.get(k) == gov.get(k) for k in PLACE),
             }
             for item in result["check"]["items"]
         ]

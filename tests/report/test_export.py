@@ -117,3 +117,20 @@ def test_an_export_needs_csv_or_xlsx(tmp_path) -> None:
     result = CliRunner().invoke(main, ["check", str(DEMO), "-o", str(tmp_path / "r.ods")])
     assert result.exit_code == EXIT_BAD_INPUT
     assert ".csv or .xlsx" in result.output
+
+
+def test_check_csv_of_a_bolt_row_keys_every_item_on_its_bolt_plane_and_ply(tmp_path) -> None:
+    model = MODELS / "splice-six-bolts.toml"
+    out = tmp_path / "r.csv"
+    _run("check", str(model), "-o", str(out))
+    rows = _csv(out)["check"]
+    items = _json("check", str(model))["check"]["items"]
+
+    def blank(v: object) -> str:  # csv writes None as an empty cell
+        return "" if v is None else str(v)
+
+    assert [(r["bolt"], r["plane"], r["ply"]) for r in rows] == [
+        (blank(i["bolt"]), blank(i["plane"]), blank(i["ply"])) for i in items
+    ]
+    assert {r["bolt"] for r in rows if r["bolt"]} == {str(k) for k in range(1, 7)}  # six bolts
+    assert sum(r["governing"] == "true" for r in rows) == 1
