@@ -544,7 +544,7 @@ def _check_many(
         cells = [
             [
                 r["file"],
-                r["title"],
+                _clip(r["title"] or "", TITLE_WIDTH),
                 r["governing"] or "-",
                 "-" if r["utilization"] is None else f"{r['utilization']:.3f}",
                 _verdict(r),
@@ -559,6 +559,15 @@ def _check_many(
     if any(r["error"] is not None for r in rows):
         return EXIT_BAD_INPUT
     return EXIT_FAILS if any(r["passes"] is False for r in rows) else 0
+
+
+#: Longest title the multi-file summary prints (the JSON keeps it whole).
+TITLE_WIDTH = 40
+
+
+def _clip(text: str, width: int) -> str:
+    """``text`` cut to ``width`` characters, an ellipsis marking the cut."""
+    return text if len(text) <= width else text[: width - 1].rstrip() + "…"
 
 
 def _verdict(row: dict[str, Any]) -> str:

@@ -68,3 +68,20 @@ def test_plot_and_output_need_one_file(tmp_path) -> None:
     )
     assert result.exit_code == EXIT_BAD_INPUT
     assert "one model" in result.output
+
+
+def test_a_long_title_is_clipped_in_the_summary_and_whole_in_the_json(tmp_path) -> None:
+    good, _, _ = _files(tmp_path)
+    long_title = "Hanger fork, grid C/4, level 3: " + "x" * 80
+    text = good.read_text(encoding="utf-8")
+    start = text.index("\ntitle = ") + 1
+    end = text.index("\n", start)
+    good.write_text(text[:start] + f'title = "{long_title}"' + text[end:], encoding="utf-8")
+    other = MODELS / "gusset-three-members.toml"
+    result = CliRunner().invoke(main, ["check", str(good), str(other)])
+    row = next(line for line in result.stdout.splitlines() if line.startswith(str(good)))
+    assert long_title[:39] in row and long_title not in row and "…" in row
+    widths = {len(line) for line in result.stdout.splitlines() if line.startswith(str(tmp_path))}
+    assert max(widths) < len(str(good)) + 100  # the table stays a terminal's width
+    rows = json.loads(CliRunner().invoke(main, ["check", str(good), "--json", str(other)]).stdout)
+    assert rows["files"][0]["title"] == long_title
