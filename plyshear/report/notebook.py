@@ -19,6 +19,8 @@ from plyshear.codes.check import CheckResult
 from plyshear.mechanics.capacity import CapacitySummary
 from plyshear.mechanics.results import Solution
 
+#: The export's (CSV, XLSX) name of each table, also accepted by ``to_frame``.
+EXPORT_NAMES = {"plane": "planes", "ply": "plies", "member": "members", "check": "items"}
 #: The tables ``to_frame`` gives, per class; the first is the default.
 FRAMES = {
     "Solution": ("planes", "plies", "members"),
@@ -48,18 +50,9 @@ def _solution_rows(sol: Solution, table: str) -> list[dict[str, Any]]:
 
 
 def _check_rows(res: CheckResult) -> list[dict[str, Any]]:
-    from plyshear.report.export import COLUMNS
+    from plyshear.report.export import tables
 
-    data = res.to_dict()
-    gov = data["governing"]
-    return [
-        {
-            **{c: item.get(c) for c in COLUMNS["check"]},
-            "governing": gov is not None
-            and (item["what"], item["where"]) == (gov["what"], gov["where"]),
-        }
-        for item in data["items"]
-    ]
+    return tables({"units": {}, "members": [], "bolts": [], "check": res.to_dict()})["check"]
 
 
 def _capacity_rows(cap: CapacitySummary, table: str) -> list[dict[str, Any]]:
@@ -78,7 +71,8 @@ def to_frame(obj: Solution | CheckResult | CapacitySummary, table: str | None = 
     Args:
         obj: A solution (tables ``planes``, ``plies``, ``members``), a check result
             (``items``) or a capacity summary (``answers``, ``events``).
-        table: Which table; default the first.
+        table: Which table; default the first. The export's sheet names
+            (``plane``, ``ply``, ``member``, ``check``) are accepted too.
 
     Returns:
         The DataFrame, in the model's units.
@@ -90,7 +84,7 @@ def to_frame(obj: Solution | CheckResult | CapacitySummary, table: str | None = 
     pd = _pandas()
     kind = type(obj).__name__
     names = FRAMES[kind]
-    table = table or names[0]
+    table = EXPORT_NAMES.get(table, table) if table else names[0]
     if table not in names:
         raise ValueError(
             f"{kind}.to_frame: table must be one of {', '.join(names)} (got {table!r})"

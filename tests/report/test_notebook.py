@@ -43,6 +43,8 @@ def test_solution_to_frame_equals_the_json(demo) -> None:
     assert list(plies["name"]) == [p.name for p in sol.joint.plies]
     with pytest.raises(ValueError, match="planes, plies, members"):
         sol.to_frame("bolts")
+    same = sol.to_frame("ply")  # the export's sheet name is the same table
+    assert list(same["bearing"]) == list(plies["bearing"])
 
 
 def test_check_to_frame_marks_the_governing_item(demo) -> None:
