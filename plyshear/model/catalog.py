@@ -17,6 +17,7 @@ from __future__ import annotations
 
 import csv
 import math
+import re
 from dataclasses import dataclass
 from fractions import Fraction
 from functools import cache, lru_cache
@@ -321,9 +322,30 @@ def steel(key: str) -> PlateSteel:
         CatalogError: If the key is unknown; the message lists the known keys.
     """
     steels = _steels()
-    if key not in steels:
-        raise CatalogError(f"unknown steel {key!r}; known: {', '.join(steels)}")
-    return steels[key]
+    base = _base_grade(key)
+    if base not in steels:
+        raise CatalogError(
+            f"unknown steel {key!r}; known: {', '.join(steels)} (with a quality suffix "
+            "such as S355J2 or S355NL too)"
+        )
+    return steels[base]
+
+
+#: EN 10025 quality designations that leave the strengths unchanged: the impact-test
+#: qualities of EN 10025-2 (JR, J0, J2, K2, with a delivery condition +AR or +N), and
+#: the low-temperature variants NL and ML of EN 10025-3 and -4, whose tables give the
+#: same fy and fu as N and M. From memory: EN 10025-2:2019 Table 7, EN 10025-3:2019
+#: Table 5, EN 10025-4:2019 Table 5.
+_QUALITY = re.compile(r"^(S\d{3})(?:(?:JR|J0|J2|K2)(?:\+AR|\+N)?|(N)L?|(M)L?)$")
+
+
+def _base_grade(key: str) -> str:
+    """The catalogue key of a designation: "S355J2+N" is "S355", "S355NL" is "S355N"."""
+    match = _QUALITY.match(key.strip().upper())
+    if match is None:
+        return key
+    grade, normalised, thermo = match.groups()
+    return grade + (normalised or thermo or "")
 
 
 def steel_keys() -> list[str]:

@@ -219,7 +219,10 @@ def test_unknown_steel_raises_catalog_error_listing_known_keys():
         "A572-50",
         "A992",
     ]
-    assert str(info.value) == f"unknown steel 'S999'; known: {', '.join(known)}"
+    assert str(info.value) == (
+        f"unknown steel 'S999'; known: {', '.join(known)} "
+        "(with a quality suffix such as S355J2 or S355NL too)"
+    )
     assert catalog.steel_keys() == known
 
 
@@ -476,3 +479,25 @@ def test_hole_untabulated_size_raises_catalog_error(d, standard):
 def test_model_package_init_is_empty():
     text = resources.files("plyshear.model").joinpath("__init__.py").read_text(encoding="utf-8")
     assert text == ""
+
+
+@pytest.mark.parametrize(
+    ("key", "t", "fy", "fu"),
+    [
+        ("S355J2", 12.0, 355.0, 510.0),  # from memory: EN 10025-2 qualities share Table 3.1's row
+        ("S355J2+N", 50.0, 335.0, 470.0),  # from memory: EN 1993-1-1:2005 Table 3.1 (40 < t)
+        ("S275JR", 20.0, 275.0, 430.0),  # from memory: EN 1993-1-1:2005 Table 3.1
+        ("S355K2", 20.0, 355.0, 510.0),  # from memory: EN 1993-1-1:2005 Table 3.1
+        ("S355NL", 20.0, 355.0, 490.0),  # from memory: EN 10025-3, NL as N
+        ("S460ML", 60.0, 430.0, 530.0),  # from memory: EN 10025-4, ML as M
+    ],
+)
+def test_quality_designations_take_their_grades_strengths(key, t, fy, fu):
+    s = catalog.steel(key)
+    assert s.strength(t) == (pytest.approx(fy, rel=REL_EXACT), pytest.approx(fu, rel=REL_EXACT))
+
+
+@pytest.mark.parametrize("key", ["S355X", "S355J3", "S355NM", "S999J2"])
+def test_a_designation_of_no_known_grade_is_refused(key):
+    with pytest.raises(catalog.CatalogError, match="unknown steel"):
+        catalog.steel(key)
